@@ -1,0 +1,3 @@
+from stallcheck.cli import main
+
+main()

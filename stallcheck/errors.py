@@ -1,0 +1,50 @@
+"""The one family of errors the core raises for bad input.
+
+The CLI catches :class:`StallcheckError` in one place, prints its message and exits
+with status 2. Anything else is a bug and keeps its traceback.
+"""
+
+from __future__ import annotations
+
+
+class StallcheckError(Exception):
+    """Base of every error that is the user's input, not a bug."""
+
+
+class InputError(StallcheckError):
+    """A unit file, a key or a command-line value that cannot be accepted.
+
+    Parameters
+    ----------
+    key : str
+        Dotted key in the unit file (``"drain.lift"``), or ``""`` for the file itself.
+    message : str
+        What is wrong and what is accepted, in plain words.
+    file : str, optional
+        The file the key came from; the loader fills it in.
+    line : int, optional
+        Line number, where the TOML parser gives one.
+    """
+
+    def __init__(self, key: str, message: str, file: str | None = None, line: int | None = None):
+        self.key = key
+        self.message = message
+        self.file = file
+        self.line = line
+        super().__init__(str(self))
+
+    def __str__(self) -> str:
+        where = self.file or "unit file"
+        if self.line is not None:
+            where += f", line {self.line}"
+        if self.key:
+            where += f", key '{self.key}'"
+        return f"{where}: {self.message}"
+
+    def in_file(self, file: str) -> "InputError":
+        """Return the same error tied to ``file``."""
+        return InputError(self.key, self.message, file=file, line=self.line)
+
+
+class PropertyRangeError(StallcheckError):
+    """A state outside the range where the steam formulation is valid."""

@@ -1,0 +1,134 @@
+"""Findings from the computed operating state: each a code, a severity and a message
+that says what is wrong, why it matters and what to do.
+
+Codes are stable (scripts filter on them); the README lists them with their sources.
+"""
+
+from __future__ import annotations
+
+from stallcheck import quantities as q
+from stallcheck.inputs import Unit
+from stallcheck.result import Finding, Result
+
+FREEZING = 273.15
+#: Trap types that do poorly on modulating service at low or fluctuating differential
+#: (common practice; VA HVAC Design Manual asks for float-and-thermostatic traps there).
+POOR_AT_LOW_DIFFERENTIAL = {
+    "thermodynamic": "a thermodynamic (disc) trap needs a working differential to snap shut and open, "
+                     "and backs up condensate when the coil pressure falls",
+    "thermostatic": "a thermostatic trap holds condensate back until it subcools, which floods "
+                    "a modulating coil",
+    "bimetallic": "a bimetallic trap holds condensate back until it subcools, which floods "
+                  "a modulating coil",
+    "inverted-bucket": "an inverted-bucket trap can lose its prime when the coil pressure swings, "
+                       "and then blows steam or stalls",
+}
+
+
+def core(unit: Unit, r: Result, system: str) -> tuple[Finding, ...]:
+    """The findings of the core analysis, worst first.
+
+    Parameters
+    ----------
+    unit : Unit
+    r : Result
+        The analysed result (its ``findings`` are ignored).
+    system : str
+        ``"si"`` or ``"us"``, for the numbers in the messages.
+    """
+    atm = r.atmospheric_pressure
+
+    def p(pa):
+        return q.show(pa, "pressure", system, atm)
+
+    def t(k):
+        return q.show(k, "temperature", system)
+
+    out: list[Finding] = []
+    s = r.stall
+    in_range = s.occurs and s.load_fraction > r.minimum_load
+    if s.occurs and s.load_fraction >= 1.0:
+        out.append(Finding("stall-at-full-load", "danger",
+                           f"The back pressure on the trap ({p(r.back_pressure)} with the lift) is at or above "
+                           f"what the coil has at full load ({p(r.design.coil_pressure)} plus the fill head): "
+                           f"the coil floods at every load. Fit a pump-trap, or remove the lift and return "
+                           f"pressure behind the trap."))
+    elif in_range:
+        where = ""
+        if s.inlet_temperature is not None:
+            where = f" (entering {t(s.inlet_temperature)} and warmer)"
+        out.append(Finding("stall-in-operating-range", "warning",
+                           f"The coil stalls below {s.load_fraction:.0%} load{where}: the coil pressure falls to "
+                           f"{p(s.coil_pressure)} and the trap can no longer discharge "
+                           f"{q.show(s.condensate, 'mass_flow', system)} of condensate. Condensate backs up, "
+                           f"which brings water hammer and corrosion. Drain it with a "
+                           f"{r.drainage.required} (see drainage)."))
+    if not r.drainage.adequate:
+        out.append(Finding("drainage-inadequate", "danger" if s.load_fraction and s.load_fraction >= 1 else "warning",
+                           f"The installed {r.drainage.installed} is not enough: {r.drainage.reasons[0]}. "
+                           f"Install a {r.drainage.required}."))
+    if in_range and r.medium == "air":
+        freezing = _freeze_exposure(unit, r)
+        if freezing:
+            out.append(Finding("freeze-risk", "danger", freezing))
+    if in_range and unit.drain.lift > 0:
+        out.append(Finding("lift-after-trap", "warning",
+                           f"Condensate is lifted {q.show(unit.drain.lift, 'length', system)} straight after the trap "
+                           f"of a coil that stalls: the lift adds to the back pressure and floods the coil at low "
+                           f"load (common practice: never lift directly after the trap of a modulating coil). "
+                           f"Drain by gravity to a vented receiver and pump from there, or use a pump-trap."))
+    if in_range and unit.drain.trap in POOR_AT_LOW_DIFFERENTIAL:
+        out.append(Finding("trap-type-modulating", "warning",
+                           f"The coil runs at low differential, and {POOR_AT_LOW_DIFFERENTIAL[unit.drain.trap]}. "
+                           f"Use a float-and-thermostatic trap on modulating coils (common practice; "
+                           f"VA HVAC Design Manual)."))
+    v = r.valve
+    if v is not None:
+        if not v.capacity_ok:
+            out.append(Finding("valve-too-small", "warning",
+                               f"The valve needs Cv {v.required_cv_design:.3g} at design but has Cv {v.cv:.3g}: "
+                               f"wide open it holds the coil at {p(v.limited_coil_pressure)} and delivers "
+                               f"{v.limited_load_fraction:.0%} of the design load. Fit a larger valve or raise "
+                               f"the supply pressure."))
+        elif v.opening_design < 0.5:
+            out.append(Finding("valve-oversized", "info",
+                               f"At design the valve is only {v.opening_design:.0%} open (Cv {v.required_cv_design:.3g} "
+                               f"needed of {v.cv:.3g}): it works near its seat at low load, where it hunts and cycles "
+                               f"the coil pressure. A smaller valve controls better."))
+        floor = max(r.minimum_load, 0.10)
+        if v.min_controllable_load > floor:
+            out.append(Finding("valve-low-load-control", "warning",
+                               f"Below about {v.min_controllable_load:.0%} load the valve needs less than its smallest "
+                               f"controllable Cv (Cv/rangeability = {v.cv / v.rangeability:.2g}): it opens and shuts "
+                               f"instead of modulating, and each opening can drive condensate as a slug. Use a "
+                               f"smaller valve, or two valves in sequence (1/3 and 2/3)."))
+        elif v.min_controllable_load > r.minimum_load:
+            out.append(Finding("valve-low-load-control", "info",
+                               f"Below about {v.min_controllable_load:.0%} load the valve cannot modulate "
+                               f"(Cv/rangeability = {v.cv / v.rangeability:.2g}) and will cycle."))
+    order = {"danger": 0, "warning": 1, "info": 2}
+    return tuple(sorted(out, key=lambda f: order[f.severity]))
+
+
+def _freeze_exposure(unit: Unit, r: Result) -> str | None:
+    """The freeze-risk message where the coil stalls with entering air below freezing."""
+    s = r.stall
+    system = r.system
+    if r.varies == "inlet-temperature":
+        if s.inlet_temperature is None or s.inlet_temperature >= FREEZING:
+            return None
+        span = (f"from {q.show(s.inlet_temperature, 'temperature', system)} up to "
+                f"{q.show(FREEZING, 'temperature', system)}")
+    else:
+        if unit.design.inlet_temperature >= FREEZING:
+            return None
+        span = f"at {q.show(unit.design.inlet_temperature, 'temperature', system)}"
+    hours = ""
+    if unit.load.bins and r.varies == "inlet-temperature":
+        at_risk = sum(b.hours for b in unit.load.bins
+                      if b.inlet_temperature is not None and s.inlet_temperature <= b.inlet_temperature < FREEZING)
+        hours = f" The load bins put {at_risk:,.0f} h a year in that band."
+    return (f"The coil stalls while the entering air is below freezing ({span}): condensate held in "
+            f"the tubes can freeze and split them.{hours} Drain it so it cannot hold water at any load "
+            f"(a pump-trap, or a vacuum breaker where gravity suffices), and consider a preheat coil "
+            f"or face-and-bypass control with the steam valve held open.")

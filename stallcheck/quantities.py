@@ -1,0 +1,310 @@
+"""The one place that converts units: unit-file strings in, SI out, and back for display.
+
+Every dimensional value in a unit file is a string ``"<number> <unit>"``. This
+module parses it with pint's registry (extended once here with gauge and absolute
+pressure spellings and a few trade abbreviations), checks its dimension, and
+returns a float in SI: Pa (absolute), K, m, kg/s, m³/s.
+
+Gauge pressures need the site's atmospheric pressure, so they come back as a
+:class:`Pressure` that remembers whether it was gauge; :mod:`stallcheck.unitfile`
+resolves it once the site is known.
+
+pint is imported on first use, not with the package: ``stallcheck --help`` must stay
+fast.
+"""
+
+from __future__ import annotations
+
+import math
+import re
+from dataclasses import dataclass
+from functools import lru_cache
+
+from stallcheck.errors import InputError
+
+#: Standard atmosphere at sea level [Pa].
+STANDARD_ATMOSPHERE = 101_325.0
+#: Standard gravity [m/s²].
+GRAVITY = 9.80665
+#: Standard air density used for air volume flows [kg/m³]: dry air at 20 °C, 101.325 kPa.
+STANDARD_AIR_DENSITY = 1.204
+
+# Pressure spellings. Gauge and absolute are separate units in the registry so the
+# parsed unit tells which was written.
+_GAUGE = {"psig": "psi", "barg": "bar", "kPag": "kPa"}
+_ABSOLUTE = {"psia": "psi", "bara": "bar", "kPaa": "kPa"}
+_SPELLINGS = {"kPa(g)": "kPag", "kPa(abs)": "kPaa", "kpa(g)": "kPag", "kpa(abs)": "kPaa"}
+_DIFFERENTIAL_UNITS = ("psi", "bar", "kPa", "inH2O")
+_US_UNITS = {"psig", "psia", "psi", "degF", "degree_Fahrenheit", "inch", "foot", "pound / hour",
+             "cubic_foot / minute", "gallon / minute", "inch_H2O", "cfm", "gpm"}
+
+_NUMBER_UNIT = re.compile(r"^\s*([-+]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][-+]?\d+)?)\s*(\S.*?)\s*$")
+
+
+@lru_cache(maxsize=1)
+def registry():
+    """The project's pint registry, built once.
+
+    Returns
+    -------
+    pint.UnitRegistry
+    """
+    import pint
+
+    ureg = pint.UnitRegistry(autoconvert_offset_to_baseunit=True)
+    for name, base in {**_GAUGE, **_ABSOLUTE}.items():
+        ureg.define(f"{name} = {base}")
+    # Trade abbreviations pint lacks or reads otherwise ("cfm" would be centi-fermi).
+    ureg.define("cfm = foot ** 3 / minute")
+    ureg.define("gpm = gallon / minute")
+    ureg.define("m3 = meter ** 3")
+    return ureg
+
+
+@dataclass(frozen=True)
+class Pressure:
+    """A pressure as written: its value in Pa and whether it was gauge.
+
+    Attributes
+    ----------
+    pascal : float
+        The number converted to pascal, before any atmospheric offset. [Pa]
+    gauge : bool
+        True where the file said gauge (``psig``, ``barg``, ``kPag``, ``kPa(g)``).
+    """
+
+    pascal: float
+    gauge: bool
+
+    def absolute(self, atmospheric: float) -> float:
+        """Absolute pressure [Pa] given the site's atmospheric pressure [Pa]."""
+        return self.pascal + atmospheric if self.gauge else self.pascal
+
+
+def _split(key: str, text, example: str) -> tuple[float, str]:
+    if isinstance(text, bool) or not isinstance(text, str):
+        kind = {bool: "true/false", int: "bare number", float: "bare number", list: "list",
+                dict: "table"}.get(type(text), type(text).__name__)
+        raise InputError(key, f"expected a quantity string such as \"{example}\", got a {kind} ({text!r}); "
+                              "write the number and its unit inside quotes.")
+    for spelled, name in _SPELLINGS.items():
+        text = text.replace(spelled, name)
+    low = text.strip().lower()
+    if any(word in low for word in ("nan", "inf")) and not _NUMBER_UNIT.match(text):
+        raise InputError(key, f"'{text}' is not a finite number; write a value such as \"{example}\".")
+    match = _NUMBER_UNIT.match(text)
+    if not match:
+        raise InputError(key, f"'{text}' is not '<number> <unit>'; write it as \"{example}\".")
+    value = float(match.group(1))
+    if not math.isfinite(value):
+        raise InputError(key, f"'{text}' is not a finite number; write a value such as \"{example}\".")
+    return value, match.group(2)
+
+
+def _quantity(key: str, text, dimension: str, example: str, accepted: str, also: str | None = None):
+    value, unit_text = _split(key, text, example)
+    ureg = registry()
+    import pint
+
+    try:
+        units = ureg.parse_units(unit_text)
+    except (pint.errors.UndefinedUnitError, pint.errors.DefinitionSyntaxError, AttributeError,
+            TypeError, ValueError, SyntaxError):
+        raise InputError(key, f"unknown unit '{unit_text}' in '{text}'; accepted: {accepted}.") from None
+    wanted = [ureg.parse_units(d).dimensionality for d in (dimension, also) if d]
+    if units.dimensionality not in wanted:
+        what = _DIMENSION_WORDS[dimension] + (f" or {_DIMENSION_WORDS[also]}" if also else "")
+        raise InputError(key, f"'{text}' is not a {what}; accepted: {accepted}.")
+    return ureg.Quantity(value, units), str(units)
+
+
+_DIMENSION_WORDS = {
+    "Pa": "pressure", "K": "temperature", "m": "length", "kg/s": "mass flow",
+    "m**3/s": "volume flow", "dimensionless": "fraction", "kg": "mass",
+}
+
+
+def _magnitude(key: str, text: str, q, si: str) -> float:
+    value = float(q.to(si).magnitude)
+    if not math.isfinite(value) or abs(value) > 1e15:
+        raise InputError(key, f"'{text}' is out of any sensible range.")
+    return value
+
+
+def pressure(key: str, text) -> Pressure:
+    """Parse a gauge or absolute pressure.
+
+    Parameters
+    ----------
+    key : str
+        Dotted unit-file key, for messages.
+    text : str
+        ``"<number> <unit>"`` with one of psig psia barg bara kPag kPaa kPa(g) kPa(abs).
+
+    Returns
+    -------
+    Pressure
+        Value in Pa and whether it was gauge.
+    """
+    accepted = "psig, psia, barg, bara, kPag, kPaa, kPa(g), kPa(abs)"
+    q, unit = _quantity(key, text, "Pa", "15 psig", accepted)
+    if unit not in _GAUGE and unit not in _ABSOLUTE:
+        number = _split(key, text, "15 psig")[0]
+        raise InputError(key, f"'{text}' does not say gauge or absolute; write "
+                              f"\"{number:g} psig\" (gauge) or \"{number:g} psia\" (absolute), "
+                              f"or in SI \"barg\"/\"bara\", \"kPag\"/\"kPaa\".")
+    return Pressure(_magnitude(key, text, q, "Pa"), unit in _GAUGE)
+
+
+def differential(key: str, text) -> float:
+    """Parse a pressure difference [Pa]: plain ``psi``, ``bar``, ``kPa`` or ``inH2O``."""
+    accepted = "psi, bar, kPa, inH2O"
+    q, unit = _quantity(key, text, "Pa", "0.25 psi", accepted)
+    if unit in _GAUGE or unit in _ABSOLUTE:
+        base = _GAUGE.get(unit) or _ABSOLUTE[unit]
+        raise InputError(key, f"'{text}' is a difference of pressures, so it is neither gauge "
+                              f"nor absolute; write it in plain {base}.")
+    return _magnitude(key, text, q, "Pa")
+
+
+def temperature(key: str, text) -> float:
+    """Parse a temperature [K]: ``degC``, ``degF`` or ``K``."""
+    q, _ = _quantity(key, text, "K", "50 degF", "degC, degF, K")
+    return _magnitude(key, text, q, "K")
+
+
+def length(key: str, text) -> float:
+    """Parse a length [m]: ``in``, ``ft``, ``mm`` or ``m``."""
+    q, _ = _quantity(key, text, "m", "18 in", "in, ft, mm, m")
+    return _magnitude(key, text, q, "m")
+
+
+def fraction(key: str, text) -> float:
+    """Parse a fraction written with ``%`` [-], e.g. ``"30 %"`` → 0.30."""
+    q, _ = _quantity(key, text, "dimensionless", "30 %", "% (for example \"30 %\")")
+    return _magnitude(key, text, q, "dimensionless")
+
+
+@dataclass(frozen=True)
+class Flow:
+    """A flow as written: mass [kg/s] or volume [m³/s]."""
+
+    value: float
+    is_mass: bool
+
+
+def flow(key: str, text) -> Flow:
+    """Parse a mass flow (``kg/h kg/s lb/h``) or volume flow (``m3/h m3/s L/s gpm cfm``)."""
+    accepted = "kg/h, kg/s, lb/h (mass) or m3/h, m3/s, L/s, gpm, cfm (volume)"
+    q, _ = _quantity(key, text, "kg/s", "6000 cfm", accepted, also="m**3/s")
+    if q.dimensionality == registry().parse_units("kg/s").dimensionality:
+        return Flow(_magnitude(key, text, q, "kg/s"), True)
+    return Flow(_magnitude(key, text, q, "m**3/s"), False)
+
+
+def mass_flow(key: str, text) -> float:
+    """Parse a mass flow [kg/s]: ``kg/h kg/s lb/h``."""
+    q, _ = _quantity(key, text, "kg/s", "900 lb/h", "kg/h, kg/s, lb/h")
+    return _magnitude(key, text, q, "kg/s")
+
+
+def is_us(text) -> bool:
+    """True where a quantity string is written in US customary units."""
+    if not isinstance(text, str):
+        return False
+    try:
+        _, unit = _split("", text, "")
+    except InputError:
+        return False
+    unit = _SPELLINGS.get(unit, unit).strip()
+    return unit in _US_UNITS or unit in ("lb/h", "degF", "in", "ft", "inH2O")
+
+
+def atmosphere_at(elevation: float) -> float:
+    """Atmospheric pressure at an elevation, standard atmosphere [Pa].
+
+    .. math:: p = 101325\\,(1 - 2.25577\\times10^{-5} z)^{5.25588}
+
+    Parameters
+    ----------
+    elevation : float
+        Height above sea level [m], valid in the troposphere (below 11 000 m).
+
+    References
+    ----------
+    .. [1] ISO 2533:1975, Standard Atmosphere (troposphere, lapse rate 6.5 K/km).
+    """
+    return STANDARD_ATMOSPHERE * (1.0 - 2.25577e-5 * elevation) ** 5.25588
+
+
+# --- display ---------------------------------------------------------------------
+
+#: Display units per system: (pint unit, label, decimals).
+DISPLAY = {
+    "si": {
+        "pressure": ("bar", "barg", 2),
+        "pressure_abs": ("kPa", "kPa(abs)", 1),
+        "differential": ("kPa", "kPa", 1),
+        "temperature": ("degC", "°C", 0),
+        "mass_flow": ("kg/h", "kg/h", 0),
+        "length": ("m", "m", 2),
+        "power": ("kW", "kW", 0),
+    },
+    "us": {
+        "pressure": ("psi", "psig", 1),
+        "pressure_abs": ("psi", "psia", 1),
+        "differential": ("psi", "psi", 2),
+        "temperature": ("degF", "°F", 0),
+        "mass_flow": ("lb/h", "lb/h", 0),
+        "length": ("ft", "ft", 1),
+        "power": ("Btu/h", "Btu/h", 0),
+    },
+}
+
+_SI_UNIT = {"pressure": "Pa", "pressure_abs": "Pa", "differential": "Pa", "temperature": "K",
+            "mass_flow": "kg/s", "length": "m", "power": "W"}
+
+
+def convert(value: float, kind: str, system: str, atmospheric: float = STANDARD_ATMOSPHERE) -> float:
+    """Convert an SI value to the display unit of ``kind`` in ``system`` ("si" or "us").
+
+    ``pressure`` is shown gauge: the site's ``atmospheric`` pressure [Pa] is taken off.
+    """
+    if kind == "pressure":
+        value = value - atmospheric
+    unit = DISPLAY[system][kind][0]
+    ureg = registry()
+    return float(ureg.Quantity(value, _SI_UNIT[kind]).to(unit).magnitude)
+
+
+def convert_array(values, kind: str, system: str, atmospheric: float = STANDARD_ATMOSPHERE):
+    """:func:`convert` for a sequence; returns a list of floats."""
+    if not len(values):
+        return []
+    import numpy as np
+
+    scale_zero = convert(0.0, kind, system, atmospheric)
+    scale_one = convert(1.0, kind, system, atmospheric)
+    arr = np.asarray(values, dtype=float)
+    return list(scale_zero + (scale_one - scale_zero) * arr)
+
+
+def label(kind: str, system: str) -> str:
+    """The unit label shown after a number of ``kind``."""
+    return DISPLAY[system][kind][1]
+
+
+def show(value: float | None, kind: str, system: str, atmospheric: float = STANDARD_ATMOSPHERE,
+         decimals: int | None = None) -> str:
+    """Format an SI value for people: converted, rounded as a gauge is read, with its unit."""
+    if value is None or (isinstance(value, float) and not math.isfinite(value)):
+        return "—"
+    number = convert(value, kind, system, atmospheric)
+    places = DISPLAY[system][kind][2] if decimals is None else decimals
+    if kind in ("mass_flow", "power") and abs(number) >= 100:
+        number = float(f"{number:.3g}")
+        places = 0
+    text = f"{number:,.{places}f}"
+    if text.startswith("-") and float(text.replace(",", "")) == 0:
+        text = text[1:]
+    return f"{text} {label(kind, system)}"

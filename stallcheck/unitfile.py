@@ -1,0 +1,430 @@
+"""Unit file (TOML, format 1) → a validated :class:`~stallcheck.inputs.Unit`.
+
+Every input error is raised here, before any physics, as an
+:class:`~stallcheck.errors.InputError` that names the file, the key and what is
+accepted. Checks that need steam properties (the set point against the steam
+temperature) are made in :mod:`stallcheck.analysis`, still as ``InputError``.
+The format is fixed in the README's "Unit file" section.
+"""
+
+from __future__ import annotations
+
+import difflib
+import math
+import re
+import tomllib
+from pathlib import Path
+
+from stallcheck import quantities as q
+from stallcheck.errors import InputError
+from stallcheck.inputs import (ARRANGEMENTS, CHARACTERISTICS, MEDIA, METHODS, TRAPS, VARIES,
+                               CapacityPoint, Design, Drain, Geometry, Load, LoadBin, Site, Unit,
+                               Valve)
+
+#: Largest unit file read [bytes]. A unit file is a page of text.
+MAX_FILE_BYTES = 1_000_000
+#: Kv → Cv (IEC 60534-1: Cv = 1.156 Kv).
+CV_PER_KV = 1.156
+
+_KNOWN = {
+    "": {"format", "unit", "site", "design", "steam", "valve", "load", "drain", "geometry"},
+    "unit": {"name", "tag"},
+    "site": {"elevation", "atmospheric_pressure"},
+    "design": {"medium", "concentration", "flow", "inlet_temperature", "outlet_temperature",
+               "steam_pressure", "ua_flow_exponent", "method"},
+    "steam": {"supply_pressure"},
+    "valve": {"cv", "kv", "characteristic", "rangeability", "xt"},
+    "load": {"varies", "minimum", "bins"},
+    "load.bins": {"inlet_temperature", "hours", "load"},
+    "drain": {"arrangement", "trap", "fill_head", "lift", "return_pressure",
+              "trap_min_differential", "capacity"},
+    "drain.capacity": {"differential", "flow"},
+    "geometry": {"tubes", "supply_feed", "distributing_tubes", "pitched_to_return",
+                 "coils_per_trap", "drop_to_trap", "drop_vented", "drip_before_valve"},
+}
+
+
+def read_text(path: str | Path) -> str:
+    """Read a unit file's text, turning every file-system problem into an InputError."""
+    path = Path(path)
+    name = str(path)
+    try:
+        if path.is_dir():
+            raise InputError("", "is a folder, not a unit file; give the path of a .toml file.", file=name)
+        size = path.stat().st_size
+        if size > MAX_FILE_BYTES:
+            raise InputError("", f"is {size / 1e6:.1f} MB; a unit file is at most "
+                                 f"{MAX_FILE_BYTES / 1e6:.0f} MB of TOML text.", file=name)
+        raw = path.read_bytes()
+    except FileNotFoundError:
+        raise InputError("", "no such file; give the path of a .toml unit file.", file=name) from None
+    except PermissionError:
+        raise InputError("", "cannot be read (permission denied).", file=name) from None
+    except OSError as exc:
+        raise InputError("", f"cannot be read ({exc.strerror or exc}).", file=name) from None
+    if b"\x00" in raw:
+        raise InputError("", "is a binary file, not a TOML unit file.", file=name)
+    try:
+        return raw.decode("utf-8")
+    except UnicodeDecodeError as exc:
+        line = raw[: exc.start].count(b"\n") + 1
+        raise InputError("", "is not UTF-8 text; save it as UTF-8.", file=name, line=line) from None
+
+
+def load(path: str | Path) -> Unit:
+    """Read and validate a unit file.
+
+    Parameters
+    ----------
+    path : str or Path
+
+    Returns
+    -------
+    Unit
+
+    Raises
+    ------
+    InputError
+        For anything in the file that cannot be accepted; names file and key.
+    """
+    text = read_text(path)
+    return parse(text, source=str(path))
+
+
+def parse(text: str, source: str = "unit file") -> Unit:
+    """Validate the text of a unit file (see :func:`load`)."""
+    try:
+        data = tomllib.loads(text)
+    except tomllib.TOMLDecodeError as exc:
+        msg = str(exc)
+        match = re.search(r"line (\d+)", msg)
+        detail = re.sub(r"\s*\(at line \d+, column \d+\)", "", msg)
+        detail = re.sub(r"\s*\(at end of document\)", " (at the end of the file)", detail)
+        raise InputError("", f"is not valid TOML: {detail}.", file=source,
+                         line=int(match.group(1)) if match else None) from None
+    try:
+        return _build(data, source)
+    except InputError as exc:
+        raise exc.in_file(source) from None
+
+
+# --- helpers -----------------------------------------------------------------------
+
+
+class _Reader:
+    """Walks the TOML tables, recording unknown keys and defaults taken."""
+
+    def __init__(self, data: dict):
+        self.data = data
+        self.warnings: list[str] = []
+        self.defaults: list[str] = []
+        self.us_votes = 0
+        self.si_votes = 0
+
+    def table(self, name: str, required: bool = True) -> dict | None:
+        value = self.data.get(name)
+        if value is None:
+            if required:
+                raise InputError(name, f"section [{name}] is missing; see the README's unit-file format.")
+            return None
+        if not isinstance(value, dict):
+            raise InputError(name, f"must be a table [{name}], not a {_kind(value)}.")
+        self.unknown(value, name)
+        return value
+
+    def unknown(self, table: dict, name: str) -> None:
+        known = _KNOWN[name]
+        for key in table:
+            if key not in known:
+                full = f"{name}.{key}" if name else key
+                near = difflib.get_close_matches(key, sorted(known), n=1, cutoff=0.6)
+                hint = f"; did you mean '{near[0]}'?" if near else f"; known keys here: {', '.join(sorted(known))}."
+                self.warnings.append(f"unknown key '{full}' ignored{hint}")
+
+    def vote(self, text) -> None:
+        if q.is_us(text):
+            self.us_votes += 1
+        else:
+            self.si_votes += 1
+
+    def quantity(self, table: dict, section: str, key: str, parse, default=None, note: str = ""):
+        full = f"{section}.{key}"
+        if key not in table:
+            if default is None:
+                raise InputError(full, f"is required; {note or 'see the README for its units.'}")
+            self.defaults.append(f"{full} = \"{default}\" (not given)")
+            return parse(full, default)
+        self.vote(table[key])
+        return parse(full, table[key])
+
+    def choice(self, table: dict, section: str, key: str, choices, default=None):
+        full = f"{section}.{key}"
+        if key not in table:
+            if default is None:
+                raise InputError(full, f"is required; one of: {', '.join(choices)}.")
+            self.defaults.append(f"{full} = \"{default}\" (not given)")
+            return default
+        value = table[key]
+        if value not in choices:
+            near = difflib.get_close_matches(str(value), choices, n=1)
+            hint = f" Did you mean '{near[0]}'?" if near else ""
+            raise InputError(full, f"'{value}' is not one of: {', '.join(choices)}.{hint}")
+        return value
+
+    def number(self, table: dict, section: str, key: str, low: float, high: float, default=None,
+               low_open: bool = False, high_open: bool = False):
+        full = f"{section}.{key}"
+        if key not in table:
+            if default is None:
+                raise InputError(full, f"is required: a plain number from {low:g} to {high:g}.")
+            self.defaults.append(f"{full} = {default:g} (not given)")
+            return float(default)
+        value = table[key]
+        if isinstance(value, str):
+            raise InputError(full, f"takes a plain number with no unit, got \"{value}\".")
+        if isinstance(value, bool) or not isinstance(value, (int, float)):
+            raise InputError(full, f"takes a plain number, got a {_kind(value)}.")
+        value = float(value)
+        below = value <= low if low_open else value < low
+        above = value >= high if high_open else value > high
+        if not math.isfinite(value) or below or above:
+            lo = "above" if low_open else "from"
+            hi = "below" if high_open else "to"
+            raise InputError(full, f"{value:g} is out of range; accepted: {lo} {low:g} {hi} {high:g}.")
+        return value
+
+    def flag(self, table: dict, section: str, key: str):
+        if key not in table:
+            return None
+        value = table[key]
+        if not isinstance(value, bool):
+            raise InputError(f"{section}.{key}", f"takes true or false, got {value!r}.")
+        return value
+
+
+def _kind(value) -> str:
+    return {dict: "table", list: "list", str: "string", bool: "true/false", int: "number",
+            float: "number"}.get(type(value), type(value).__name__)
+
+
+def _require_positive(key: str, value: float, text: str = "") -> float:
+    if value <= 0:
+        raise InputError(key, f"must be greater than zero{text}.")
+    return value
+
+
+# --- the file ------------------------------------------------------------------------
+
+
+def _build(data: dict, source: str) -> Unit:
+    r = _Reader(data)
+    r.unknown(data, "")
+    fmt = data.get("format")
+    if fmt is None:
+        raise InputError("format", "is missing; write format = 1 at the top of the file.")
+    if isinstance(fmt, bool) or fmt != 1:
+        raise InputError("format", f"{fmt!r} is not a format this version reads; accepted: 1.")
+
+    unit = r.table("unit")
+    name = unit.get("name")
+    if not isinstance(name, str) or not name.strip():
+        raise InputError("unit.name", "is required: the unit's name as a string.")
+    tag = unit.get("tag", "")
+    if not isinstance(tag, str):
+        raise InputError("unit.tag", "takes a string, such as \"AHU-2 PHC\".")
+
+    site = _site(r)
+    atm = site.atmospheric_pressure
+    design = _design(r, atm)
+    steam = r.table("steam")
+    supply = r.quantity(steam, "steam", "supply_pressure", q.pressure).absolute(atm)
+    _absolute_positive("steam.supply_pressure", supply, steam["supply_pressure"])
+    if supply <= design.steam_pressure:
+        raise InputError("steam.supply_pressure",
+                         f"\"{steam['supply_pressure']}\" is not above the design coil pressure "
+                         f"design.steam_pressure; the valve needs a pressure drop to pass steam. "
+                         f"Raise the supply or lower the design steam pressure.")
+    valve = _valve(r)
+    load = _load(r, design)
+    drain = _drain(r, atm)
+    geometry = _geometry(r)
+    system = "us" if r.us_votes > r.si_votes else "si"
+    return Unit(name=name.strip(), tag=tag.strip(), site=site, design=design, supply_pressure=supply,
+                load=load, drain=drain, valve=valve, geometry=geometry, source=source,
+                system=system, defaults=tuple(r.defaults), warnings=tuple(r.warnings))
+
+
+def _absolute_positive(key: str, value: float, text) -> None:
+    if value <= 0:
+        raise InputError(key, f"\"{text}\" is at or below absolute zero pressure; "
+                              "check the gauge/absolute spelling and the sign.")
+
+
+def _site(r: _Reader) -> Site:
+    site = r.table("site", required=False)
+    if not site:
+        r.defaults.append("atmospheric pressure 101.325 kPa (sea level; no [site] given)")
+        return Site(q.STANDARD_ATMOSPHERE, "101.325 kPa (standard, sea level)")
+    if "elevation" in site and "atmospheric_pressure" in site:
+        raise InputError("site", "give either elevation or atmospheric_pressure, not both.")
+    if "atmospheric_pressure" in site:
+        r.vote(site["atmospheric_pressure"])
+        p = q.pressure("site.atmospheric_pressure", site["atmospheric_pressure"])
+        if p.gauge:
+            raise InputError("site.atmospheric_pressure", "is an absolute pressure; write it in psia, bara or kPaa.")
+        if not 30e3 <= p.pascal <= 110e3:
+            raise InputError("site.atmospheric_pressure",
+                             f"\"{site['atmospheric_pressure']}\" is out of range; accepted: 30 to 110 kPaa.")
+        return Site(p.pascal, f"{p.pascal / 1000:.2f} kPa (given)")
+    if "elevation" in site:
+        r.vote(site["elevation"])
+        z = q.length("site.elevation", site["elevation"])
+        if not -500 <= z <= 9000:
+            raise InputError("site.elevation", f"\"{site['elevation']}\" is out of range; accepted: -500 m to 9000 m.")
+        p = q.atmosphere_at(z)
+        return Site(p, f"{p / 1000:.2f} kPa (standard atmosphere at {z:.0f} m)")
+    r.defaults.append("atmospheric pressure 101.325 kPa (sea level; [site] gives neither key)")
+    return Site(q.STANDARD_ATMOSPHERE, "101.325 kPa (standard, sea level)")
+
+
+def _design(r: _Reader, atm: float) -> Design:
+    d = r.table("design")
+    medium = r.choice(d, "design", "medium", MEDIA)
+    concentration = None
+    if medium.endswith("glycol"):
+        if "concentration" not in d:
+            raise InputError("design.concentration", f"is required for {medium}: the mass fraction, such as \"30 %\".")
+        concentration = q.fraction("design.concentration", d["concentration"])
+        if not 0.0 < concentration <= 0.6:
+            raise InputError("design.concentration", f"\"{d['concentration']}\" is out of range; accepted: above 0 % to 60 %.")
+    elif "concentration" in d:
+        r.warnings.append(f"design.concentration ignored: {medium} is not a glycol")
+    flow = r.quantity(d, "design", "flow", q.flow)
+    _require_positive("design.flow", flow.value, f", got \"{d['flow']}\"")
+    t_in = r.quantity(d, "design", "inlet_temperature", q.temperature)
+    t_out = r.quantity(d, "design", "outlet_temperature", q.temperature)
+    for key, t in (("design.inlet_temperature", t_in), ("design.outlet_temperature", t_out)):
+        if t <= 0:
+            raise InputError(key, f"\"{d[key.split('.')[1]]}\" is below absolute zero.")
+    if t_out <= t_in:
+        raise InputError("design.outlet_temperature",
+                         f"\"{d['outlet_temperature']}\" is not above the inlet temperature "
+                         f"\"{d['inlet_temperature']}\"; a steam coil heats, so the set point must be higher.")
+    if medium != "air" and t_in <= 273.15:
+        raise InputError("design.inlet_temperature",
+                         f"\"{d['inlet_temperature']}\" is at or below freezing for a liquid; accepted: above 0 °C.")
+    p = r.quantity(d, "design", "steam_pressure", q.pressure).absolute(atm)
+    _absolute_positive("design.steam_pressure", p, d["steam_pressure"])
+    if p > 2.0e6:
+        raise InputError("design.steam_pressure", f"\"{d['steam_pressure']}\" is above 2 MPa (about 275 psig); "
+                                                  "coils on modulating valves run far lower. Check the units.")
+    n = r.number(d, "design", "ua_flow_exponent", 0.0, 1.0, default=0.0)
+    method = r.choice(d, "design", "method", METHODS, default="ntu")
+    return Design(medium, concentration, flow.value, flow.is_mass, t_in, t_out, p, n, method)
+
+
+def _valve(r: _Reader) -> Valve | None:
+    v = r.table("valve", required=False)
+    if v is None:
+        return None
+    if ("cv" in v) == ("kv" in v):
+        raise InputError("valve.cv", "give exactly one of cv or kv (a plain number).")
+    if "cv" in v:
+        cv = r.number(v, "valve", "cv", 0.0, 1e5, low_open=True)
+    else:
+        cv = CV_PER_KV * r.number(v, "valve", "kv", 0.0, 1e5, low_open=True)
+    char = r.choice(v, "valve", "characteristic", CHARACTERISTICS)
+    rangeability = r.number(v, "valve", "rangeability", 1.0, 1000.0, default=50.0, low_open=True)
+    xt = r.number(v, "valve", "xt", 0.0, 1.0, default=0.70, low_open=True)
+    return Valve(cv, char, rangeability, xt)
+
+
+def _load(r: _Reader, design: Design) -> Load:
+    table = r.table("load", required=False) or {}
+    default_varies = "inlet-temperature" if design.medium == "air" else "flow"
+    if "varies" not in table:
+        r.defaults.append(f"load.varies = \"{default_varies}\" (not given; usual for {design.medium})")
+        varies = default_varies
+    else:
+        varies = r.choice(table, "load", "varies", VARIES)
+    minimum = r.number(table, "load", "minimum", 0.0, 1.0, default=0.0, high_open=True) \
+        if "minimum" in table else 0.0
+    bins_raw = table.get("bins", [])
+    if not isinstance(bins_raw, list) or not all(isinstance(b, dict) for b in bins_raw):
+        raise InputError("load.bins", "must be an array of tables: [[load.bins]] blocks.")
+    bins = []
+    for i, b in enumerate(bins_raw, start=1):
+        section = f"load.bins[{i}]"
+        r.unknown(b, "load.bins")
+        hours = r.number(b, section, "hours", 0.0, 8784.0)
+        if varies == "inlet-temperature":
+            if "inlet_temperature" not in b:
+                raise InputError(f"{section}.inlet_temperature",
+                                 "is required: bins are by entering temperature where load.varies = \"inlet-temperature\".")
+            t = r.quantity(b, section, "inlet_temperature", q.temperature)
+            bins.append(LoadBin(hours=hours, inlet_temperature=t))
+        else:
+            if "load" not in b:
+                raise InputError(f"{section}.load", "is required: bins are by load fraction where load.varies = \"flow\".")
+            bins.append(LoadBin(hours=hours, load=r.number(b, section, "load", 0.0, 1.0)))
+    return Load(varies, minimum, tuple(bins))
+
+
+def _drain(r: _Reader, atm: float) -> Drain:
+    d = r.table("drain")
+    arrangement = r.choice(d, "drain", "arrangement", ARRANGEMENTS)
+    trap = r.choice(d, "drain", "trap", TRAPS, default="float-thermostatic")
+    fill = r.quantity(d, "drain", "fill_head", q.length, default="0 in",
+                      note="height from the coil outlet down to the trap inlet, such as \"18 in\".")
+    lift = r.quantity(d, "drain", "lift", q.length, default="0 ft")
+    for key, value in (("drain.fill_head", fill), ("drain.lift", lift)):
+        if value < 0:
+            raise InputError(key, "cannot be negative; give the height as a positive length.")
+        if value > 100:
+            raise InputError(key, "is over 100 m; check the units.")
+    ret = r.quantity(d, "drain", "return_pressure", q.pressure, default="0 psig").absolute(atm)
+    _absolute_positive("drain.return_pressure", ret, d.get("return_pressure"))
+    dpmin = r.quantity(d, "drain", "trap_min_differential", q.differential, default="0 psi")
+    if dpmin < 0:
+        raise InputError("drain.trap_min_differential", "cannot be negative.")
+    rows = d.get("capacity", [])
+    if not isinstance(rows, list) or not all(isinstance(b, dict) for b in rows):
+        raise InputError("drain.capacity", "must be an array of tables: [[drain.capacity]] blocks.")
+    capacity = []
+    for i, row in enumerate(rows, start=1):
+        section = f"drain.capacity[{i}]"
+        r.unknown(row, "drain.capacity")
+        dp = r.quantity(row, section, "differential", q.differential)
+        w = r.quantity(row, section, "flow", q.mass_flow)
+        _require_positive(f"{section}.differential", dp)
+        _require_positive(f"{section}.flow", w)
+        capacity.append(CapacityPoint(dp, w))
+    if len(capacity) == 1:
+        raise InputError("drain.capacity", "has one row; give at least two [[drain.capacity]] rows "
+                                           "(differential and flow) so capacity can be read between them.")
+    for a, b in zip(capacity, capacity[1:]):
+        if b.differential <= a.differential:
+            raise InputError("drain.capacity", "differentials must increase from row to row.")
+    return Drain(arrangement, trap, fill, lift, ret, dpmin, tuple(capacity))
+
+
+def _geometry(r: _Reader) -> Geometry | None:
+    g = r.table("geometry", required=False)
+    if g is None:
+        return None
+    tubes = r.choice(g, "geometry", "tubes", ("horizontal", "vertical")) if "tubes" in g else None
+    feed = r.choice(g, "geometry", "supply_feed", ("end", "center")) if "supply_feed" in g else None
+    coils = None
+    if "coils_per_trap" in g:
+        coils = g["coils_per_trap"]
+        if isinstance(coils, bool) or not isinstance(coils, int) or coils < 1:
+            raise InputError("geometry.coils_per_trap", f"takes a whole number of 1 or more, got {coils!r}.")
+    drop = r.quantity(g, "geometry", "drop_to_trap", q.length) if "drop_to_trap" in g else None
+    if drop is not None and drop < 0:
+        raise InputError("geometry.drop_to_trap", "cannot be negative.")
+    return Geometry(tubes=tubes, supply_feed=feed,
+                    distributing_tubes=r.flag(g, "geometry", "distributing_tubes"),
+                    pitched_to_return=r.flag(g, "geometry", "pitched_to_return"),
+                    coils_per_trap=coils, drop_to_trap=drop,
+                    drop_vented=r.flag(g, "geometry", "drop_vented"),
+                    drip_before_valve=r.flag(g, "geometry", "drip_before_valve"))
