@@ -113,7 +113,7 @@ def analyse(unit: Unit, system: str | None = None, method: str | None = None) ->
         varies=unit.load.varies, medium=d.medium, minimum_load=unit.load.minimum,
         atmospheric_pressure=atm, return_pressure=dr.return_pressure, back_pressure=back,
         fill_head_pressure=fill, trap_min_differential=dr.trap_min_differential,
-        supply_pressure=unit.supply_pressure, design=design, stall=stall, points=points,
+        lift=dr.lift, fill_head=dr.fill_head, supply_pressure=unit.supply_pressure, design=design, stall=stall, points=points,
         stalled_hours=stalled_hours, total_hours=total_hours, drainage=drain, valve=valve_result,
         findings=(), assumptions=_assumptions(unit, clipped), warnings=unit.warnings)
     return replace(result, findings=findings.core(unit, result, system))

@@ -308,3 +308,28 @@ def show(value: float | None, kind: str, system: str, atmospheric: float = STAND
     if text.startswith("-") and float(text.replace(",", "")) == 0:
         text = text[1:]
     return f"{text} {label(kind, system)}"
+
+
+# --- the JSON contract's units ------------------------------------------------------
+# The result contract is SI with fixed units: kPa absolute, °C, kg/h, kW. These are
+# exact scale factors, kept here with the other conversions.
+
+
+def kpa(pascal):
+    """Pa → kPa (absolute stays absolute)."""
+    return None if pascal is None else pascal / 1000.0
+
+
+def celsius(kelvin):
+    """K → °C."""
+    return None if kelvin is None else kelvin - 273.15
+
+
+def kg_h(kg_s):
+    """kg/s → kg/h."""
+    return None if kg_s is None else kg_s * 3600.0
+
+
+def kw(watt):
+    """W → kW."""
+    return None if watt is None else watt / 1000.0

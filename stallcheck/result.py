@@ -161,7 +161,12 @@ class ValveResult:
 
 @dataclass(frozen=True)
 class Result:
-    """Everything ``check`` reports about one unit."""
+    """Everything ``check`` reports about one unit.
+
+    Pressures [Pa] absolute; ``back_pressure`` is return pressure plus the lift head,
+    ``fill_head_pressure`` the head of the fill height [Pa]; ``lift`` and ``fill_head``
+    are heights [m].
+    """
 
     unit: str
     tag: str
@@ -176,6 +181,8 @@ class Result:
     back_pressure: float
     fill_head_pressure: float
     trap_min_differential: float
+    lift: float
+    fill_head: float
     supply_pressure: float
     design: DesignPoint
     stall: StallPoint

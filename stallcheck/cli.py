@@ -1,0 +1,138 @@
+"""Command line: parse options, call the core, hand the result to a presenter.
+
+No physics here. The core (and with it CoolProp and pint) is imported inside the
+commands that need it, so ``stallcheck --help`` starts fast.
+"""
+
+from __future__ import annotations
+
+import sys
+from enum import Enum
+from pathlib import Path
+from typing import Optional
+
+import typer
+
+from stallcheck import __version__
+from stallcheck.errors import InputError, StallcheckError
+
+app = typer.Typer(
+    name="stallcheck",
+    help=("Will a steam coil on a modulating valve drain its condensate at every load? "
+          "Reads a TOML unit file and reports the stall point, the drainage it needs, "
+          "the control valve figures and a stall chart. A screening aid: local codes, "
+          "makers' data and licensed practice govern."),
+    no_args_is_help=True,
+    add_completion=False,
+    pretty_exceptions_enable=False,
+    rich_markup_mode=None,
+)
+
+
+class Units(str, Enum):
+    si = "si"
+    us = "us"
+
+
+class Method(str, Enum):
+    ntu = "ntu"
+    mean_temperature = "mean-temperature"
+
+
+class XAxis(str, Enum):
+    load = "load"
+    inlet = "inlet"
+
+
+UNIT_ARG = typer.Argument(..., help="Unit file (TOML, format 1).", show_default=False)
+UNITS_OPT = typer.Option(None, "--units", help="Display units: si or us. Default: those the file is written in.")
+METHOD_OPT = typer.Option(None, "--method", help="Heat-transfer method, overriding the file's.")
+JSON_OPT = typer.Option(False, "--json", help="Print the result contract as JSON (SI units) and nothing else.")
+
+
+def _fail(message: str) -> None:
+    typer.echo(f"stallcheck: {message}", err=True)
+    raise typer.Exit(2)
+
+
+def _run(path: Path, units: Optional[Units], method: Optional[Method]):
+    """Load and analyse a unit; input errors become one message and exit 2."""
+    from stallcheck import analysis, unitfile
+
+    try:
+        unit = unitfile.load(path)
+        result = analysis.analyse(unit, system=units.value if units else None,
+                                  method=method.value if method else None)
+    except InputError as exc:
+        _fail(str(exc if exc.file else exc.in_file(str(path))))
+    except StallcheckError as exc:
+        _fail(f"{path}: {exc}")
+    return result
+
+
+def _show_check(result, as_json: bool) -> None:
+    if as_json:
+        from stallcheck.render import json as json_out
+
+        sys.stdout.write(json_out.dumps(result) + "\n")
+        for warning in result.warnings:
+            typer.echo(f"stallcheck: {result.source}: {warning}", err=True)
+    else:
+        from stallcheck.render import terminal
+
+        out = terminal.console()
+        terminal.emit(out, terminal.report(result, result.system, width=out.width))
+    raise typer.Exit(result.exit_status)
+
+
+@app.command()
+def check(unit: Path = UNIT_ARG, units: Optional[Units] = UNITS_OPT,
+          method: Optional[Method] = METHOD_OPT, json: bool = JSON_OPT) -> None:
+    """Analyse one unit: stall point, drainage verdict, valve, findings and the stall chart.
+
+    Exit status 0: drains at every load it runs at, nothing at warning or above;
+    1: drainage not adequate or a warning; 2: bad input.
+    """
+    _show_check(_run(unit, units, method), json)
+
+
+@app.command()
+def chart(unit: Path = UNIT_ARG, units: Optional[Units] = UNITS_OPT,
+          method: Optional[Method] = METHOD_OPT,
+          x: Optional[XAxis] = typer.Option(None, "--x", help="x axis: load (%) or inlet (entering "
+                                            "temperature). Default: inlet where the load follows it.")) -> None:
+    """Print the stall chart alone."""
+    from stallcheck.render import terminal
+
+    result = _run(unit, units, method)
+    axis = x.value if x else ("inlet" if result.varies == "inlet-temperature" else "load")
+    out = terminal.console()
+    terminal.emit(out, terminal.chart_text(result, result.system, width=out.width - 2, x_axis=axis))
+    raise typer.Exit(result.exit_status)
+
+
+@app.command()
+def demo(units: Optional[Units] = UNITS_OPT, json: bool = JSON_OPT) -> None:
+    """Analyse the example unit shipped with stallcheck (an invented air preheat coil)."""
+    from importlib.resources import as_file, files
+
+    with as_file(files("stallcheck") / "data" / "demo.toml") as path:
+        result = _run(path, units, None)
+    _show_check(result, json)
+
+
+def _version(value: bool) -> None:
+    if value:
+        typer.echo(f"stallcheck {__version__}")
+        raise typer.Exit()
+
+
+@app.callback()
+def _main(version: bool = typer.Option(False, "--version", callback=_version, is_eager=True,
+                                       help="Print the version and exit.")) -> None:
+    """stallcheck"""
+
+
+def main() -> None:
+    """Console-script entry point."""
+    app()

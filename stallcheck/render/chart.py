@@ -1,0 +1,183 @@
+"""The stall chart as text: coil steam pressure against load (or entering temperature).
+
+Marks, chosen to read without colour:
+
+    *   steam pressure the coil needs at that load
+    -   back pressure on the trap (return pressure plus lift)
+    ~   atmospheric pressure (0 gauge), where it is not the back-pressure line
+    X   the stall point
+    .   the stalled zone: loads where the trap cannot discharge
+    |   the minimum load the unit runs at (when above zero)
+
+The chart is returned as lines of (text, style) runs so that the terminal presenter
+can colour it and the plain presenters can join it.
+"""
+
+from __future__ import annotations
+
+import numpy as np
+
+from stallcheck import quantities as q
+from stallcheck.result import Result
+
+#: Style names the terminal maps to colours.
+STYLES = {"*": "curve", "-": "back", "~": "atmos", "X": "stall", ".": "zone", "|": "minimum"}
+
+LEGEND = [
+    ("*", "steam pressure the coil needs"),
+    ("-", "back pressure on the trap"),
+    ("~", "atmospheric (0 gauge)"),
+    ("X", "stall point"),
+    (".", "stalled: the trap cannot discharge"),
+    ("|", "minimum load"),
+]
+
+
+def _nice_step(span: float, target: int) -> float:
+    raw = span / max(target, 1)
+    power = 10 ** np.floor(np.log10(raw))
+    for m in (1, 2, 2.5, 5, 10):
+        if m * power >= raw:
+            return float(m * power)
+    return float(10 * power)
+
+
+def render(result: Result, system: str, width: int = 78, height: int = 15,
+           x_axis: str = "load") -> list[list[tuple[str, str | None]]]:
+    """Draw the stall chart.
+
+    Parameters
+    ----------
+    result : Result
+    system : str
+        ``"si"`` or ``"us"`` display units.
+    width : int
+        Total characters per line (≥ 50).
+    height : int
+        Rows of plot area.
+    x_axis : str
+        ``"load"`` (0–100 %) or ``"inlet"`` (entering temperature; only where the load
+        follows it).
+
+    Returns
+    -------
+    list of list of (str, str or None)
+        Lines of runs of text with a style name from :data:`STYLES`.
+    """
+    atm = result.atmospheric_pressure
+    pts = result.points
+    pressure = np.array(q.convert_array(pts.coil_pressure, "pressure", system, atm))
+    back = q.convert(result.back_pressure, "pressure", system, atm)
+    unit = q.label("pressure", system)
+    by_inlet = x_axis == "inlet" and result.varies == "inlet-temperature"
+
+    label_w = 7
+    plot_w = max(width - label_w - 2, 30)
+    x_data = np.array(q.convert_array(pts.inlet_temperature, "temperature", system)) if by_inlet \
+        else pts.load_fraction * 100.0
+    x_lo, x_hi = float(np.min(x_data)), float(np.max(x_data))
+
+    def col(x):
+        return int(round((x - x_lo) / (x_hi - x_lo) * (plot_w - 1)))
+
+    y_lo = min(float(pressure.min()), back, 0.0)
+    y_hi = max(float(pressure.max()), back)
+    step = _nice_step(y_hi - y_lo, 5)
+    y_lo = np.floor(y_lo / step + 1e-6) * step
+    y_hi = np.ceil(y_hi / step - 1e-6) * step
+    if y_hi - y_lo < step:
+        y_hi = y_lo + step
+
+    def row(y):
+        return int(round((y_hi - y) / (y_hi - y_lo) * (height - 1)))
+
+    grid = [[" "] * plot_w for _ in range(height)]
+    # stalled zone: every column whose load is stalled, from the axis up to the curve
+    x_fine = np.linspace(x_lo, x_hi, plot_w)
+    stalled_fine = np.interp(x_fine, x_data[np.argsort(x_data)], pts.stalled[np.argsort(x_data)].astype(float)) > 0.5
+    p_fine = np.interp(x_fine, x_data[np.argsort(x_data)], pressure[np.argsort(x_data)])
+    for c in range(plot_w):
+        if stalled_fine[c]:
+            top = row(p_fine[c])
+            for r in range(top + 1, height):
+                if (r + c) % 2 == 0:
+                    grid[r][c] = "."
+    # atmospheric and back pressure lines
+    if abs(back) > (y_hi - y_lo) / (height - 1) / 2:
+        r0 = row(0.0)
+        for c in range(plot_w):
+            if c % 2 == 0:
+                grid[r0][c] = "~"
+    rb = row(back)
+    for c in range(plot_w):
+        grid[rb][c] = "-"
+    # minimum load
+    if result.minimum_load > 0:
+        xm = float(q.convert_array([float(np.interp(result.minimum_load, pts.load_fraction, pts.inlet_temperature))],
+                                   "temperature", system)[0]) if by_inlet else result.minimum_load * 100
+        cm = col(xm)
+        for r in range(height):
+            if grid[r][cm] in " .~":
+                grid[r][cm] = "|"
+    # the curve
+    for c in range(plot_w):
+        grid[row(p_fine[c])][c] = "*"
+    # stall point
+    s = result.stall
+    if s.occurs:
+        xs = q.convert(s.inlet_temperature, "temperature", system) if by_inlet else s.load_fraction * 100
+        ys = q.convert(s.coil_pressure, "pressure", system, atm)
+        grid[row(ys)][col(xs)] = "X"
+
+    lines: list[list[tuple[str, str | None]]] = []
+    decimals = 0 if step >= 1 else (1 if step >= 0.1 else 2)
+    tick_rows = {row(y): y for y in np.arange(y_lo, y_hi + step / 2, step)}
+    lines.append([(f"{unit:>{label_w}}", None)])
+    for r in range(height):
+        text = f"{tick_rows[r]:{label_w}.{decimals}f} +" if r in tick_rows else " " * label_w + " |"
+        runs: list[tuple[str, str | None]] = [(text, None)]
+        for ch in grid[r]:
+            style = STYLES.get(ch)
+            if runs and runs[-1][1] == style:
+                runs[-1] = (runs[-1][0] + ch, style)
+            else:
+                runs.append((ch, style))
+        lines.append(runs)
+    # x axis
+    axis = [" "] * plot_w
+    labels = [" "] * (plot_w + 6)
+    if by_inlet:
+        x_step = _nice_step(x_hi - x_lo, 6)
+        ticks = np.arange(np.ceil(x_lo / x_step) * x_step, x_hi + 1e-9, x_step)
+    else:
+        ticks = np.arange(0.0, 100.1, 20.0)
+    for x in ticks:
+        c = col(x)
+        if c > 0:
+            axis[c] = "+"
+        tick = f"{x:.0f}"
+        start = max(0, min(c - len(tick) // 2, len(labels) - len(tick)))
+        labels[start:start + len(tick)] = list(tick)
+    lines.append([(" " * label_w + " +" + "".join(axis).replace(" ", "-"), None)])
+    lines.append([(" " * (label_w + 2) + "".join(labels).rstrip(), None)])
+    x_name = (f"entering temperature, {q.label('temperature', system)} (load falls to the right)"
+              if by_inlet else "load, % of design")
+    lines.append([(" " * (label_w + 2) + x_name.center(plot_w).rstrip(), None)])
+    used = {ch for line in grid for ch in line}
+    legend = [(m, words) for m, words in LEGEND if m in used]
+    legend_runs: list[tuple[str, str | None]] = [("  ", None)]
+    line_len = 2
+    for mark, words in legend:
+        piece = f"{words}   "
+        if line_len + len(piece) + 2 > width:
+            lines.append(legend_runs)
+            legend_runs, line_len = [("  ", None)], 2
+        legend_runs += [(mark, STYLES[mark]), (" " + piece, None)]
+        line_len += len(piece) + 2
+    lines.append(legend_runs)
+    return lines
+
+
+def plain(lines: list[list[tuple[str, str | None]]]) -> str:
+    """Join chart lines to plain text."""
+    return "\n".join("".join(text for text, _ in line).rstrip() for line in lines)

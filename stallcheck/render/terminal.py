@@ -1,0 +1,174 @@
+"""The ``check`` report for people, printed with rich.
+
+Reads well at 80 columns with and without colour: every mark and verdict is also a
+word, so nothing depends on colour (``NO_COLOR`` and piped output print plain text).
+"""
+
+from __future__ import annotations
+
+from rich.console import Console, Group
+from rich.padding import Padding
+from rich.table import Table
+from rich.text import Text
+
+from stallcheck import quantities as q
+from stallcheck.render import chart
+from stallcheck.result import Result
+
+CHART_COLOURS = {"curve": "bold cyan", "back": "yellow", "atmos": "dim", "stall": "bold red",
+                 "zone": "red", "minimum": "magenta"}
+SEVERITY_STYLE = {"danger": "bold red", "warning": "yellow", "info": "cyan"}
+SEVERITY_WORD = {"danger": "DANGER", "warning": "WARNING", "info": "note"}
+
+
+def _heading(text: str) -> Text:
+    return Text(text.upper(), style="bold")
+
+
+def chart_text(result: Result, system: str, width: int, x_axis: str = "load") -> Text:
+    """The stall chart as a rich Text, coloured by mark."""
+    out = Text()
+    for i, line in enumerate(chart.render(result, system, width=width, x_axis=x_axis)):
+        if i:
+            out.append("\n")
+        for text, style in line:
+            out.append(text, style=CHART_COLOURS.get(style) if style else None)
+    return out
+
+
+def _para(text: Text | str, indent: int = 2) -> Padding:
+    """A paragraph wrapped with every line indented."""
+    return Padding(text if isinstance(text, Text) else Text(text), (0, 0, 0, indent))
+
+
+def _bullets(items, style=None) -> Table:
+    """Items with a hanging indent, so wrapped lines stay under their text."""
+    grid = Table.grid(padding=(0, 1))
+    grid.add_column(width=3, justify="right")
+    grid.add_column()
+    for item in items:
+        grid.add_row("-", Text(item, style=style))
+    return grid
+
+
+def report(result: Result, system: str, width: int = 80) -> Group:
+    """Everything ``check`` prints, in reading order.
+
+    Parameters
+    ----------
+    result : Result
+    system : str
+        ``"si"`` or ``"us"``.
+    width : int
+        Columns available (the chart is drawn to fit).
+    """
+    r = result
+    atm = r.atmospheric_pressure
+
+    def p(pa):
+        return q.show(pa, "pressure", system, atm)
+
+    def t(k):
+        return q.show(k, "temperature", system)
+
+    def w(kg_s):
+        return q.show(kg_s, "mass_flow", system)
+
+    parts: list = []
+    title = Text(r.unit, style="bold")
+    if r.tag:
+        title.append(f"  ({r.tag})")
+    parts += [title, Text(r.source, style="dim"),
+              Text(f"{r.medium}; load varies with {r.varies}; method {r.method}", style="dim"), Text("")]
+
+    d = r.design
+    fill_note = (f"fill head {q.show(r.fill_head, 'length', system)} = "
+                 f"{q.show(r.fill_head_pressure, 'differential', system)}")
+    parts += [
+        _heading("Design (full load)"),
+        _para(f"load {q.show(d.load, 'power', system)}, steam {w(d.steam_flow)} "
+              f"at {p(d.coil_pressure)} ({t(d.steam_temperature)}); supply {p(r.supply_pressure)}"),
+        _para(f"back pressure on the trap {p(r.back_pressure)} (return {p(r.return_pressure)} plus "
+              f"{q.show(r.lift, 'length', system)} lift); "
+              f"{fill_note}"),
+        Text(""),
+    ]
+
+    s = r.stall
+    parts.append(_heading("Stall point"))
+    if not s.occurs:
+        parts.append(_para(Text(f"none: the coil pressure stays above {p(s.threshold_pressure)}, the pressure at "
+                          f"which the trap stops discharging, at every load.", style="green")))
+    else:
+        if s.load_fraction >= 1.0:
+            lead = Text("  stalled at every load, full load included", style="bold red")
+        else:
+            lead = Text(f"  stalls below {s.load_fraction:.0%} load", style="bold")
+            if s.inlet_temperature is not None:
+                lead.append(f": entering {t(s.inlet_temperature)} and warmer")
+        parts.append(lead)
+        parts.append(_para(f"coil pressure {p(s.coil_pressure)}, steam {t(s.steam_temperature)}, "
+                          f"condensate {w(s.condensate)}"))
+        if s.load_fraction < 1.0 and s.load_fraction <= r.minimum_load:
+            parts.append(_para(Text(f"below the minimum load of {r.minimum_load:.0%}: it never runs there.",
+                                   style="green")))
+    if r.stalled_hours is not None:
+        parts.append(_para(f"stalled {r.stalled_hours:,.0f} h of {r.total_hours:,.0f} h in the load bins"))
+    parts.append(Text(""))
+
+    dr = r.drainage
+    verdict = Text("  ")
+    verdict.append(f"installed {dr.installed}, required {dr.required}: ")
+    verdict.append("adequate" if dr.adequate else "NOT ADEQUATE",
+                   style="bold green" if dr.adequate else "bold red")
+    parts += [_heading("Drainage"), verdict, _bullets(dr.reasons), Text("")]
+
+    v = r.valve
+    if v is not None:
+        parts.append(_heading("Control valve"))
+        opening = "more than fully open" if v.opening_design > 1 else f"{v.opening_design:.0%} open"
+        parts.append(_para(f"Cv {v.cv:.3g} installed ({v.characteristic}, rangeability {v.rangeability:g}); "
+                          f"Cv {v.required_cv_design:.3g} needed at design, {opening}"
+                          + ("; choked" if v.choked_at_design else "")))
+        if not v.capacity_ok:
+            parts.append(_para(Text(f"too small: wide open it holds {p(v.limited_coil_pressure)} and delivers "
+                              f"{v.limited_load_fraction:.0%} of design load", style="yellow")))
+        parts.append(_para(f"controls down to about {v.min_controllable_load:.0%} load; below that it cycles"))
+        parts.append(Text(""))
+
+    parts.append(_heading("Findings"))
+    if not r.findings:
+        parts.append(Text("  none", style="green"))
+    for f in r.findings:
+        line = Text("  ")
+        line.append(f"{SEVERITY_WORD[f.severity]}", style=SEVERITY_STYLE[f.severity])
+        line.append(f"  {f.code}", style="dim")
+        parts += [line, _para(f.message, 4)]
+    parts.append(Text(""))
+
+    parts += [_heading("Stall chart"), chart_text(r, system, width=min(width, 100) - 2), Text("")]
+
+    parts += [_heading("Assumptions"), _bullets(r.assumptions, style="dim"), Text("")]
+    if r.warnings:
+        parts += [_heading("Input warnings"), _bullets(r.warnings, style="yellow"), Text("")]
+    parts += [_heading("Caution"), _bullets(r.cautions)]
+    return Group(*parts)
+
+
+def emit(out: Console, renderable) -> None:
+    """Print; where the output is not a terminal, without the padding rich adds to line ends."""
+    if out.is_terminal:
+        out.print(renderable)
+        return
+    with out.capture() as captured:
+        out.print(renderable)
+    text = "\n".join(line.rstrip() for line in captured.get().split("\n"))
+    out.file.write(text)
+
+
+def console(stderr: bool = False) -> Console:
+    """A console that honours NO_COLOR and plain output when piped; at most 100 columns."""
+    c = Console(stderr=stderr, highlight=False, soft_wrap=False)
+    if c.width > 100:
+        c = Console(stderr=stderr, highlight=False, width=100)
+    return c
