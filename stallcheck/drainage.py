@@ -95,16 +95,18 @@ def requirement(stall_fraction: float, minimum: float, stall_pressure_: float,
         else:
             why = "the coil pressure stays above the back pressure at every load, so a trap alone drains it"
         return Requirement("trap", why)
+    where = (f"it stalls below {stall_fraction:.0%} load, where the coil pressure falls to "
+             f"{words(stall_pressure_)}" if stall_fraction < 1 else
+             f"it stalls at every load: the trap needs the coil above {words(stall_pressure_)}, "
+             f"more than it has at full load")
     if stall_pressure_ <= atmospheric:
         return Requirement(
             "trap-vacuum-breaker",
-            f"it stalls below {min(stall_fraction, 1):.0%} load, where the coil needs "
-            f"{words(stall_pressure_)} or less; that is below atmospheric, so a vacuum breaker "
+            f"{where}; that is below atmospheric, so a vacuum breaker "
             f"can hold the coil at atmospheric pressure and the fill head then drains it by gravity")
     return Requirement(
         "pump-trap",
-        f"it stalls below {min(stall_fraction, 1):.0%} load, where the coil pressure falls to "
-        f"{words(stall_pressure_)}, still above atmospheric; a vacuum breaker cannot help against "
+        f"{where}; that is above atmospheric, and a vacuum breaker cannot help against "
         f"that back pressure, so a pump-trap (or pump and receiver) must lift the condensate")
 
 

@@ -57,12 +57,14 @@ def core(unit: Unit, r: Result, system: str) -> tuple[Finding, ...]:
         where = ""
         if s.inlet_temperature is not None:
             where = f" (entering {t(s.inlet_temperature)} and warmer)"
-        out.append(Finding("stall-in-operating-range", "warning",
+        handled = r.drainage.adequate
+        out.append(Finding("stall-in-operating-range", "info" if handled else "warning",
                            f"The coil stalls below {s.load_fraction:.0%} load{where}: the coil pressure falls to "
                            f"{p(s.coil_pressure)} and the trap can no longer discharge "
                            f"{q.show(s.condensate, 'mass_flow', system)} of condensate. Condensate backs up, "
-                           f"which brings water hammer and corrosion. Drain it with a "
-                           f"{r.drainage.required} (see drainage)."))
+                           f"which brings water hammer and corrosion. "
+                           + (f"The installed {r.drainage.installed} handles this; keep it working."
+                              if handled else f"Drain it with a {r.drainage.required} (see drainage).")))
     if not r.drainage.adequate:
         out.append(Finding("drainage-inadequate", "danger" if s.load_fraction and s.load_fraction >= 1 else "warning",
                            f"The installed {r.drainage.installed} is not enough: {r.drainage.reasons[0]}. "
@@ -70,7 +72,7 @@ def core(unit: Unit, r: Result, system: str) -> tuple[Finding, ...]:
     if in_range and r.medium == "air":
         freezing = _freeze_exposure(unit, r)
         if freezing:
-            out.append(Finding("freeze-risk", "danger", freezing))
+            out.append(Finding("freeze-risk", "danger" if not r.drainage.adequate else "info", freezing))
     if in_range and unit.drain.lift > 0:
         out.append(Finding("lift-after-trap", "warning",
                            f"Condensate is lifted {q.show(unit.drain.lift, 'length', system)} straight after the trap "
