@@ -22,9 +22,10 @@ import CoolProp.CoolProp as CP
 from stallcheck.errors import PropertyRangeError
 
 _IF97 = "IF97::Water"
-#: Lowest saturation state of IF97 region 4: 273.15 K, 611.213 Pa.
-T_MIN = 273.15
-P_MIN = 611.213
+#: Lowest saturation state used: the triple point, 273.16 K, 611.65 Pa (CoolProp's IF97
+#: refuses the very bottom of region 4, 611.213 Pa).
+T_MIN = 273.16
+P_MIN = 611.65
 #: Critical point, the top of the saturation line [K], [Pa].
 T_CRIT = 647.096
 P_CRIT = 22.064e6

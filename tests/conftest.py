@@ -1,0 +1,50 @@
+"""Shared helpers for the tests.
+
+Tiers, as DEVELOPERS.md explains: *published* (a standard's table or a handbook's worked
+example, named beside the check), *independent* (a reference library from the package
+registry, or a hand calculation written out), *regression* (marked as such).
+"""
+
+from __future__ import annotations
+
+from pathlib import Path
+
+import pytest
+
+ROOT = Path(__file__).resolve().parent.parent
+SAMPLES = sorted((ROOT / "sample_units").glob("*.toml"))
+
+
+@pytest.fixture
+def write_unit(tmp_path):
+    """Write unit-file text to a temporary file and return its path."""
+
+    def _write(text: str, name: str = "unit.toml") -> Path:
+        path = tmp_path / name
+        path.write_text(text, encoding="utf-8")
+        return path
+
+    return _write
+
+
+BASE_UNIT = """
+format = 1
+[unit]
+name = "Test coil"
+[design]
+medium = "air"
+flow = "6000 cfm"
+inlet_temperature = "-10 degF"
+outlet_temperature = "50 degF"
+steam_pressure = "5 psig"
+[steam]
+supply_pressure = "15 psig"
+[valve]
+cv = 10
+characteristic = "equal-percentage"
+[drain]
+arrangement = "trap"
+fill_head = "18 in"
+lift = "0 ft"
+return_pressure = "0 psig"
+"""
