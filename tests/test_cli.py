@@ -1,0 +1,103 @@
+"""The command line: exit status, the JSON contract, plain output, fast start."""
+
+import json
+import os
+import subprocess
+import sys
+
+import pytest
+from typer.testing import CliRunner
+
+from stallcheck.cli import app
+from conftest import BASE_UNIT, SAMPLES
+
+runner = CliRunner()
+
+CONTRACT = ["format", "unit", "method", "back_pressure_kpa", "design", "stall", "stalled_hours", "points",
+            "drainage", "valve", "findings"]
+
+
+def test_help_does_not_import_heavy_modules():
+    code = ("import sys\nfrom stallcheck.cli import app\n"
+            "from typer.testing import CliRunner\n"
+            "r = CliRunner().invoke(app, ['--help'])\nassert r.exit_code == 0, r.output\n"
+            "heavy = [m for m in ('CoolProp', 'scipy', 'pint') if m in sys.modules]\n"
+            "print(','.join(heavy))")
+    out = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True, check=True)
+    assert out.stdout.strip() == ""
+
+
+@pytest.mark.parametrize("sample", SAMPLES, ids=lambda p: p.name)
+def test_every_sample_checks_with_contract_json(sample):
+    result = runner.invoke(app, ["check", str(sample), "--json"])
+    assert result.exit_code in (0, 1), result.output
+    data = json.loads(result.stdout)
+    for key in CONTRACT:
+        assert key in data
+    for key in ("load_kw", "steam_kg_h", "coil_pressure_kpa"):
+        assert key in data["design"]
+    for key in ("occurs", "load_fraction", "coil_pressure_kpa", "steam_temperature_c", "condensate_kg_h",
+                "inlet_temperature_c"):
+        assert key in data["stall"]
+    for key in ("installed", "required", "adequate", "reasons"):
+        assert key in data["drainage"]
+    for key in ("required_cv_design", "opening_design", "capacity_ok", "limited_load_fraction",
+                "limited_coil_pressure_kpa"):
+        assert key in data["valve"]
+    point = data["points"][50]
+    for key in ("load_fraction", "coil_pressure_kpa", "steam_temperature_c", "steam_kg_h",
+                "drain_differential_kpa", "stalled", "valve_opening"):
+        assert key in point
+    assert all(f["severity"] in ("info", "warning", "danger") for f in data["findings"])
+    # exit status follows the contract
+    worst_bad = any(f["severity"] != "info" for f in data["findings"])
+    assert result.exit_code == (1 if worst_bad or not data["drainage"]["adequate"] else 0)
+
+
+def test_check_prints_plain_text_at_80_columns(tmp_path):
+    env = dict(os.environ, NO_COLOR="1", COLUMNS="80")
+    out = subprocess.run([sys.executable, "-m", "stallcheck", "check", str(SAMPLES[0])],
+                         capture_output=True, text=True, env=env)
+    assert out.returncode in (0, 1)
+    assert "\x1b[" not in out.stdout
+    assert max(len(line) for line in out.stdout.splitlines()) <= 80
+    for heading in ("STALL POINT", "DRAINAGE", "FINDINGS", "STALL CHART", "CAUTION"):
+        assert heading in out.stdout
+    assert "local codes" in " ".join(out.stdout.split())
+
+
+def test_bad_file_exits_2_without_traceback(tmp_path):
+    path = tmp_path / "bad.toml"
+    path.write_text(BASE_UNIT.replace('"5 psig"', '"5 psi"'))
+    result = runner.invoke(app, ["check", str(path)])
+    assert result.exit_code == 2
+    assert "bad.toml" in result.stderr and "design.steam_pressure" in result.stderr
+    assert "Traceback" not in result.output
+
+
+def test_missing_file_exits_2():
+    result = runner.invoke(app, ["check", "no/such/unit.toml"])
+    assert result.exit_code == 2 and "no such file" in result.stderr
+
+
+def test_units_option_switches_display(tmp_path):
+    path = tmp_path / "u.toml"
+    path.write_text(BASE_UNIT)
+    us = runner.invoke(app, ["check", str(path)])
+    si = runner.invoke(app, ["check", str(path), "--units", "si"])
+    assert "psig" in us.stdout and "barg" in si.stdout and "psig" not in si.stdout
+
+
+def test_chart_command_uses_entering_temperature_axis(tmp_path):
+    path = tmp_path / "u.toml"
+    path.write_text(BASE_UNIT)
+    result = runner.invoke(app, ["chart", str(path)])
+    assert "entering temperature" in result.stdout and "X" in result.stdout
+    loads = runner.invoke(app, ["chart", str(path), "--x", "load"])
+    assert "load, % of design" in loads.stdout
+
+
+def test_demo_runs():
+    result = runner.invoke(app, ["demo", "--json"])
+    assert result.exit_code in (0, 1)
+    assert json.loads(result.stdout)["unit"].startswith("Harrow Street")
