@@ -130,7 +130,11 @@ def _freeze_exposure(unit: Unit, r: Result) -> str | None:
         at_risk = sum(b.hours for b in unit.load.bins
                       if b.inlet_temperature is not None and s.inlet_temperature <= b.inlet_temperature < FREEZING)
         hours = f" The load bins put {at_risk:,.0f} h a year in that band."
-    return (f"The coil stalls while the entering air is below freezing ({span}): condensate held in "
-            f"the tubes can freeze and split them.{hours} Drain it so it cannot hold water at any load "
-            f"(a pump-trap, or a vacuum breaker where gravity suffices), and consider a preheat coil "
-            f"or face-and-bypass control with the steam valve held open.")
+    lead = (f"The coil stalls while the entering air is below freezing ({span}): condensate held in "
+            f"the tubes can freeze and split them.{hours} ")
+    if r.drainage.adequate:
+        return lead + (f"The installed {r.drainage.installed} drains it; test it before each winter, and keep "
+                       f"a low-limit (freezestat) on the leaving air.")
+    return lead + ("Drain it so it cannot hold water at any load (a pump-trap, or a vacuum breaker "
+                   "where gravity suffices), and consider a preheat coil or face-and-bypass control "
+                   "with the steam valve held open.")
