@@ -174,7 +174,14 @@ def _valve(unit: Unit, coil, design: DesignPoint, f, coil_p, steam_flow):
         low = max(float(properties.saturation_pressure(max(coil.inlet_design, properties.T_MIN))),
                   properties.P_MIN)
         limited_p = float(bisect(excess, low, design.coil_pressure))
-        limited_f = float(coilmod.delivered_fraction(coil, properties.saturation_temperature(limited_p)))
+        if np.isfinite(limited_p):
+            limited_f = float(coilmod.delivered_fraction(coil, properties.saturation_temperature(limited_p)))
+        else:
+            # Even with the coil at the bottom of the steam tables the open valve passes
+            # less than the coil would condense: it delivers what its steam carries.
+            limited_p = low
+            passed = float(valvemod.steam_flow(v.cv, p1, low, rho1, v.xt))
+            limited_f = passed * float(properties.latent_heat(low)) / design.load
 
     cv_min = v.cv / v.rangeability
 
