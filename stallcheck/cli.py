@@ -44,7 +44,7 @@ class XAxis(str, Enum):
     inlet = "inlet"
 
 
-UNIT_ARG = typer.Argument(..., help="Unit file (TOML, format 1).", show_default=False)
+UNIT_ARG = typer.Argument(..., help="Unit file (TOML, format 1).", show_default=False, metavar="UNIT.toml")
 UNITS_OPT = typer.Option(None, "--units", help="Display units: si or us. Default: those the file is written in.")
 METHOD_OPT = typer.Option(None, "--method", help="Heat-transfer method, overriding the file's.")
 JSON_OPT = typer.Option(False, "--json", help="Print the result contract as JSON (SI units) and nothing else.")
