@@ -86,8 +86,9 @@ def analyse(unit: Unit, system: str | None = None, method: str | None = None) ->
 
     # --- the load range ------------------------------------------------------------
     f = LOAD_GRID
-    steam_t = np.clip(coilmod.steam_temperature(coil, f), properties.T_MIN, None)
-    clipped = bool(np.any(coilmod.steam_temperature(coil, f) < properties.T_MIN))
+    steam_t_needed = coilmod.steam_temperature(coil, f)
+    clipped = bool(np.any(steam_t_needed < properties.T_MIN))
+    steam_t = np.clip(steam_t_needed, properties.T_MIN, None)
     coil_p = properties.saturation_pressure(steam_t)
     steam_flow = f * load_design / properties.latent_heat(coil_p)
     differential = coil_p + fill - back

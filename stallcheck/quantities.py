@@ -35,8 +35,8 @@ _GAUGE = {"psig": "psi", "barg": "bar", "kPag": "kPa"}
 _ABSOLUTE = {"psia": "psi", "bara": "bar", "kPaa": "kPa"}
 _SPELLINGS = {"kPa(g)": "kPag", "kPa(abs)": "kPaa", "kpa(g)": "kPag", "kpa(abs)": "kPaa"}
 _DIFFERENTIAL_UNITS = ("psi", "bar", "kPa", "inH2O")
-_US_UNITS = {"psig", "psia", "psi", "degF", "degree_Fahrenheit", "inch", "foot", "pound / hour",
-             "cubic_foot / minute", "gallon / minute", "inch_H2O", "cfm", "gpm"}
+#: Unit spellings that mark a file as written in US customary units.
+_US_UNITS = {"psig", "psia", "psi", "degF", "in", "ft", "lb/h", "cfm", "gpm", "inH2O"}
 
 _NUMBER_UNIT = re.compile(r"^\s*([-+]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][-+]?\d+)?)\s*(\S.*?)\s*$")
 
@@ -216,8 +216,7 @@ def is_us(text) -> bool:
         _, unit = _split("", text, "")
     except InputError:
         return False
-    unit = _SPELLINGS.get(unit, unit).strip()
-    return unit in _US_UNITS or unit in ("lb/h", "degF", "in", "ft", "inH2O")
+    return unit in _US_UNITS
 
 
 def atmosphere_at(elevation: float) -> float:

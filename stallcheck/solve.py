@@ -29,10 +29,7 @@ def bisect(function, low, high, iterations: int = 60):
     ndarray
         x with function(x) ≈ 0, NaN where the bracket holds no sign change.
     """
-    lo = np.array(low, dtype=float, copy=True)
-    hi = np.array(high, dtype=float, copy=True)
-    lo, hi = np.broadcast_arrays(lo, hi)
-    lo, hi = lo.copy(), hi.copy()
+    lo, hi = (np.array(a, dtype=float) for a in np.broadcast_arrays(low, high))
     f_lo = np.asarray(function(lo), dtype=float)
     f_hi = np.asarray(function(hi), dtype=float)
     valid = np.sign(f_lo) * np.sign(f_hi) <= 0

@@ -347,8 +347,7 @@ def _load(r: _Reader, design: Design) -> Load:
         varies = default_varies
     else:
         varies = r.choice(table, "load", "varies", VARIES)
-    minimum = r.number(table, "load", "minimum", 0.0, 1.0, default=0.0, high_open=True) \
-        if "minimum" in table else 0.0
+    minimum = r.number(table, "load", "minimum", 0.0, 1.0, default=0.0, high_open=True)
     bins_raw = table.get("bins", [])
     if not isinstance(bins_raw, list) or not all(isinstance(b, dict) for b in bins_raw):
         raise InputError("load.bins", "must be an array of tables: [[load.bins]] blocks.")
