@@ -86,11 +86,8 @@ def analyse(unit: Unit, system: str | None = None, method: str | None = None) ->
 
     # --- the load range ------------------------------------------------------------
     f = LOAD_GRID
-    steam_t_needed = coilmod.steam_temperature(coil, f)
-    clipped = bool(np.any(steam_t_needed < properties.T_MIN))
-    steam_t = np.clip(steam_t_needed, properties.T_MIN, None)
-    coil_p = properties.saturation_pressure(steam_t)
-    steam_flow = f * load_design / properties.latent_heat(coil_p)
+    clipped = bool(np.any(coilmod.steam_temperature(coil, f) < properties.T_MIN))
+    steam_t, coil_p, steam_flow = _steam_at(coil, f, load_design)
     differential = coil_p + fill - back
     stalled = differential <= dr.trap_min_differential
 
@@ -114,7 +111,8 @@ def analyse(unit: Unit, system: str | None = None, method: str | None = None) ->
         varies=unit.load.varies, medium=d.medium, minimum_load=unit.load.minimum,
         atmospheric_pressure=atm, return_pressure=dr.return_pressure, back_pressure=back,
         fill_head_pressure=fill, trap_min_differential=dr.trap_min_differential,
-        lift=dr.lift, fill_head=dr.fill_head, supply_pressure=unit.supply_pressure, design=design, stall=stall, points=points,
+        lift=dr.lift, fill_head=dr.fill_head, supply_pressure=unit.supply_pressure, design=design,
+        stall=stall, points=points,
         stalled_hours=stalled_hours, total_hours=total_hours, drainage=drain, valve=valve_result,
         findings=(), assumptions=_assumptions(unit, clipped), warnings=unit.warnings)
     return replace(result, findings=findings.core(unit, result, system))
@@ -135,6 +133,16 @@ def _medium_flow(unit: Unit) -> tuple[float, float]:
     if d.flow_is_mass:
         return d.flow, cp
     return d.flow * properties.medium_density(d.medium, d.concentration, mean), cp
+
+
+def _steam_at(coil, load, load_design: float):
+    """Steam temperature [K], coil pressure [Pa] and steam flow [kg/s] at load fractions.
+
+    Temperatures the coil model asks for below the triple point are held there.
+    """
+    steam_t = np.clip(coilmod.steam_temperature(coil, load), properties.T_MIN, None)
+    coil_p = properties.saturation_pressure(steam_t)
+    return steam_t, coil_p, load * load_design / properties.latent_heat(coil_p)
 
 
 def _stall_point(coil, threshold: float, load_design: float, design_pressure: float) -> StallPoint:
@@ -187,9 +195,7 @@ def _valve(unit: Unit, coil, design: DesignPoint, f, coil_p, steam_flow):
     cv_min = v.cv / v.rangeability
 
     def above_min(load):
-        t = np.clip(coilmod.steam_temperature(coil, load), properties.T_MIN, None)
-        p = properties.saturation_pressure(t)
-        w = load * design.load / properties.latent_heat(p)
+        _, p, w = _steam_at(coil, load, design.load)
         return valvemod.required_cv(w, p1, p, rho1, v.xt) - cv_min
 
     min_load = float(bisect(above_min, 1e-9, 1.0))

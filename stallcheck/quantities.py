@@ -34,7 +34,6 @@ STANDARD_AIR_DENSITY = 1.204
 _GAUGE = {"psig": "psi", "barg": "bar", "kPag": "kPa"}
 _ABSOLUTE = {"psia": "psi", "bara": "bar", "kPaa": "kPa"}
 _SPELLINGS = {"kPa(g)": "kPag", "kPa(abs)": "kPaa", "kpa(g)": "kPag", "kpa(abs)": "kPaa"}
-_DIFFERENTIAL_UNITS = ("psi", "bar", "kPa", "inH2O")
 #: Unit spellings that mark a file as written in US customary units.
 _US_UNITS = {"psig", "psia", "psi", "degF", "in", "ft", "lb/h", "cfm", "gpm", "inH2O"}
 
