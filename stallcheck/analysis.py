@@ -11,7 +11,7 @@ from dataclasses import replace
 import numpy as np
 
 from stallcheck import coil as coilmod
-from stallcheck import drainage, findings, properties, valve as valvemod
+from stallcheck import devices, drainage, findings, properties, remedies, valve as valvemod
 from stallcheck import quantities as q
 from stallcheck.errors import InputError
 from stallcheck.inputs import Unit
@@ -95,16 +95,33 @@ def analyse(unit: Unit, system: str | None = None, method: str | None = None) ->
     if unit.valve is not None:
         valve_result, opening = _valve(unit, coil, design, f, coil_p, steam_flow)
 
-    points = Points(load_fraction=f, inlet_temperature=coilmod.inlet_temperature(coil, f),
-                    coil_pressure=coil_p, steam_temperature=steam_t, steam_flow=steam_flow,
-                    drain_differential=differential, stalled=stalled, valve_opening=opening)
-
     stall_fraction = stall.load_fraction or 0.0
     need = drainage.requirement(stall_fraction, unit.load.minimum, threshold, atm, words_p)
     ok, why = drainage.adequacy(dr.arrangement, need.required)
     drain = Drainage(dr.arrangement, need.required, ok, (need.reason, why))
 
-    stalled_hours, total_hours = _hours(unit, coil, stall_fraction)
+    # --- drain devices -------------------------------------------------------------
+    def state(load):
+        _, p, w = _steam_at(coil, load, load_design)
+        return p, w
+
+    effective = dr.arrangement if ok else need.required
+    trap, capacity = devices.trap_figures(
+        unit, effective, state, stall, lambda load: coilmod.inlet_temperature(coil, load), back, fill, atm,
+        design.steam_flow, d.steam_pressure)
+    bin_loads, bin_hours = _bin_loads(unit, coil)
+    pump = devices.pump_trap_figures(unit, need.required, stall, back, unit.supply_pressure, unit.source)
+    purge = devices.purge_figures(unit, state, back, d.steam_pressure, bin_loads, bin_hours)
+    flash = devices.flash_figures(unit, d.steam_pressure, design.steam_flow)
+    p_min = float(state(np.array([unit.load.minimum]))[0][0])
+    fixes = remedies.solve(unit, coil, p_min, system)
+
+    points = Points(load_fraction=f, inlet_temperature=coilmod.inlet_temperature(coil, f),
+                    coil_pressure=coil_p, steam_temperature=steam_t, steam_flow=steam_flow,
+                    drain_differential=differential, stalled=stalled, valve_opening=opening,
+                    trap_capacity=capacity(differential, coil_p + fill))
+
+    stalled_hours, total_hours = _hours(unit, stall_fraction, bin_loads, bin_hours)
 
     result = Result(
         unit=unit.name, tag=unit.tag, source=unit.source, system=system, method=d.method,
@@ -114,7 +131,8 @@ def analyse(unit: Unit, system: str | None = None, method: str | None = None) ->
         lift=dr.lift, fill_head=dr.fill_head, supply_pressure=unit.supply_pressure, design=design,
         stall=stall, points=points,
         stalled_hours=stalled_hours, total_hours=total_hours, drainage=drain, valve=valve_result,
-        findings=(), assumptions=_assumptions(unit, clipped), warnings=unit.warnings)
+        findings=(), assumptions=_assumptions(unit, clipped, trap), trap=trap, pump_trap=pump, purge=purge,
+        flash=flash, remedies=fixes, warnings=unit.warnings)
     return replace(result, findings=findings.core(unit, result, system))
 
 
@@ -209,8 +227,8 @@ def _valve(unit: Unit, coil, design: DesignPoint, f, coil_p, steam_flow):
     return result, opening
 
 
-def _hours(unit: Unit, coil, stall_fraction: float) -> tuple[float | None, float | None]:
-    """Hours stalled and total hours from the load bins (None without bins)."""
+def _bin_loads(unit: Unit, coil) -> tuple[np.ndarray | None, np.ndarray | None]:
+    """Load fraction [-] and hours [h] of each load bin (None without bins)."""
     bins = unit.load.bins
     if not bins:
         return None, None
@@ -219,6 +237,13 @@ def _hours(unit: Unit, coil, stall_fraction: float) -> tuple[float | None, float
         load = coilmod.load_at_inlet_temperature(coil, np.array([b.inlet_temperature for b in bins]))
     else:
         load = np.array([b.load for b in bins])
+    return load, hours
+
+
+def _hours(unit: Unit, stall_fraction: float, load, hours) -> tuple[float | None, float | None]:
+    """Hours stalled and total hours from the load bins (None without bins)."""
+    if load is None:
+        return None, None
     running = load > 0
     # A unit asked for less than its minimum load runs at the minimum; more than full
     # load, at full load.
@@ -227,7 +252,7 @@ def _hours(unit: Unit, coil, stall_fraction: float) -> tuple[float | None, float
     return float(hours[stalled].sum()), float(hours.sum())
 
 
-def _assumptions(unit: Unit, clipped: bool) -> tuple[str, ...]:
+def _assumptions(unit: Unit, clipped: bool, trap) -> tuple[str, ...]:
     d = unit.design
     method = ("NTU: condensing steam, ε = 1 − exp(−NTU), UA fixed by the design point"
               if d.method == "ntu" else
@@ -247,8 +272,22 @@ def _assumptions(unit: Unit, clipped: bool) -> tuple[str, ...]:
         out.append("Liquid cp (and density, for volume flows) at the mean design temperature (CoolProp).")
     if unit.valve is not None:
         out.append("Valve: IEC 60534-2-1 with γ = 1.30 for steam, F_P = 1, inherent characteristic.")
+    out.append(_trap_basis(unit, trap))
     if clipped:
         out.append("At the lowest loads the steam temperature the model asks for is below 0 °C; "
                    "those points are held at the bottom of the steam tables (0 °C, 0.61 kPa(abs)).")
     out.extend(f"Default: {text}." for text in unit.defaults)
     return tuple(out)
+
+
+def _trap_basis(unit: Unit, trap) -> str:
+    """Where the trap's capacity comes from, in words."""
+    if trap.basis == "table":
+        return ("Trap capacity: the [[drain.capacity]] table, read on log-log axes, scaled as the square "
+                "root of differential below its lowest row and never extrapolated above its highest.")
+    model = ("a sharp-edged orifice, C_d 0.6, passing saturated condensate, reduced for flashing by "
+             "Fauske's non-equilibrium model (5 mm seat) with the omega method's equilibrium flux")
+    if trap.basis == "orifice":
+        return f"Trap capacity: the seat bore given, as {model}."
+    return (f"Trap capacity: none given, so a trap selected by the usual rule ({trap.margin:g} x full-load "
+            f"condensate at the working differential, at least 1/4 psi), modelled as {model}.")

@@ -160,3 +160,25 @@ def delivered_fraction(coil: CoilModel, temperature):
     """
     t = np.asarray(temperature, dtype=float)
     return (t - coil.inlet_design) / (coil.steam_design - coil.inlet_design)
+
+
+def design_steam_temperature_for(coil: CoilModel, load: float, temperature: float) -> float:
+    """Design steam temperature [K] at which the coil needs exactly ``temperature`` [K]
+    at ``load`` [-]: a coil of the same duty, larger or smaller, run at another design
+    pressure. The inverse of :func:`steam_temperature` in its design temperature.
+
+    NaN where no design temperature does it (a zero load, or a steam temperature at or
+    below what the load needs with an infinitely large coil).
+    """
+    f = float(load)
+    if f <= 0.0 or temperature <= coil.outlet:
+        return float("nan")
+    if coil.varies == "inlet-temperature":
+        return coil.outlet + (temperature - coil.outlet) / f
+    n = coil.ua_exponent
+    if coil.method == "ntu":
+        dt = coil.outlet - coil.inlet_design
+        eps = dt / (temperature - coil.inlet_design)
+        ntu_design = -np.log1p(-eps) * f ** (1.0 - n)
+        return float(coil.inlet_design + dt / -np.expm1(-ntu_design))
+    return float(coil.mean_design + (temperature - coil.mean_design) / f ** (1.0 - n))

@@ -7,6 +7,8 @@ Codes are stable (scripts filter on them); the README lists them with their sour
 from __future__ import annotations
 
 from stallcheck import quantities as q
+from stallcheck.devices import MOTIVE_MARGIN
+from stallcheck.flash import VELOCITY_LIMIT
 from stallcheck.inputs import Unit
 from stallcheck.result import Finding, Result
 
@@ -108,8 +110,97 @@ def core(unit: Unit, r: Result, system: str) -> tuple[Finding, ...]:
             out.append(Finding("valve-low-load-control", "info",
                                f"Below about {v.min_controllable_load:.0%} load the valve cannot modulate "
                                f"(Cv/rangeability = {v.cv / v.rangeability:.2g}) and will cycle."))
+    out.extend(_devices(unit, r, system))
     order = {"danger": 0, "warning": 1, "info": 2}
     return tuple(sorted(out, key=lambda f: order[f.severity]))
+
+
+def _devices(unit: Unit, r: Result, system: str) -> list[Finding]:
+    """Findings on the trap, pump-trap, purge and return line."""
+    atm = r.atmospheric_pressure
+
+    def p(pa, kind="pressure"):
+        return q.show(pa, kind, system, atm)
+
+    def w(kg_s):
+        return q.show(kg_s, "mass_flow", system)
+
+    out: list[Finding] = []
+    trap = r.trap
+    if trap is not None and trap.basis != "selected":
+        if trap.limit_load is not None and trap.limit_load > r.minimum_load and trap.limit_load > (
+                r.stall.load_fraction or 0.0) + 0.005:
+            out.append(Finding(
+                "trap-capacity-short", "warning",
+                f"Below {trap.limit_load:.0%} load the trap cannot pass the condensate at the differential "
+                f"it has there ({p(trap.limit_differential, 'differential')} for "
+                f"{w(trap.limit_condensate)}), before the stall proper"
+                + (f" at {r.stall.load_fraction:.0%}" if r.stall.occurs else "")
+                + ": condensate backs into the coil from there down. Fit a trap rated for "
+                  f"{w(trap.required_capacity)} at {p(trap.working_differential, 'differential')}, "
+                  f"or give it more fill head."))
+        if trap.capacity_ok is False:
+            out.append(Finding(
+                "trap-undersized", "warning",
+                f"At its working differential ({p(trap.working_differential, 'differential')}) the trap passes "
+                f"{w(trap.installed_capacity)}; common practice for modulating coils asks "
+                f"{trap.margin:g} x the full-load condensate, {w(trap.required_capacity)} (VA HVAC Design "
+                f"Manual: 1.5-2 x; NAVFAC MO-209: 2-4 x). Select a larger trap on its hot-condensate rating."))
+    pt = r.pump_trap
+    if pt is not None and pt.installed:
+        margin = pt.motive_pressure - pt.back_pressure
+        if margin < MOTIVE_MARGIN:
+            source = "" if pt.motive_given else " (the supply pressure; drain.motive_pressure not given)"
+            out.append(Finding(
+                "pump-trap-motive-low", "danger" if margin <= 0 else "warning",
+                f"The pump-trap's motive pressure {p(pt.motive_pressure)}{source} is only "
+                f"{p(max(margin, 0.0), 'differential')} above the back pressure it pumps against "
+                f"({p(pt.back_pressure)}); it wants about {p(MOTIVE_MARGIN, 'differential')} more "
+                f"(common practice; the maker's table governs). Raise the motive pressure or cut the lift."))
+        if pt.fill_head < pt.required_fill_head - 1e-9:
+            source = "its maker asks" if pt.fill_head_given else "common practice asks about"
+            out.append(Finding(
+                "pump-trap-fill-head-low", "warning",
+                f"The pump-trap has {q.show(pt.fill_head, 'length', system)} of fill head; {source} "
+                f"{q.show(pt.required_fill_head, 'length', system)}. With less, condensate cannot run into "
+                f"its body fast enough and backs into the coil. Set it lower below the coil."))
+        if pt.capacity is not None and pt.capacity < pt.condensate:
+            out.append(Finding(
+                "pump-trap-undersized", "warning",
+                f"The pump-trap is rated for {w(pt.capacity)} at this duty, but must move {w(pt.condensate)} "
+                f"at the stall point ({pt.load_fraction:.0%} load). Select a larger one, or two in parallel."))
+    if r.drainage.installed == "constant-purge":
+        if r.purge is None:
+            out.append(Finding(
+                "purge-size-unknown", "info",
+                "A constant purge is installed but neither drain.purge_orifice nor drain.purge_rate is "
+                "given, so its steam and cost are not worked out."))
+    if r.purge is not None and not r.purge.holds_differential:
+        out.append(Finding(
+            "purge-cannot-hold", "warning",
+            f"At the minimum load the coil pressure falls to the back pressure ({p(r.back_pressure)}) or "
+            f"below: the purge stops bleeding there and cannot hold a differential on its own. Lower the "
+            f"back pressure, or drain with a vacuum breaker or pump-trap as required."))
+    fl = r.flash
+    if fl is not None:
+        if fl.velocity is not None and fl.velocity > VELOCITY_LIMIT:
+            out.append(Finding(
+                "return-velocity-high", "warning",
+                f"Flash steam ({fl.fraction:.1%} of the condensate at full load) moves at "
+                f"{q.show(fl.velocity, 'velocity', system)} in the {q.show(fl.line_diameter, 'diameter', system)} "
+                f"return line, above about {q.show(VELOCITY_LIMIT, 'velocity', system)} (common practice): it can "
+                f"drive condensate waves into slugs that hammer. Enlarge the line or flash the condensate "
+                f"in a vented receiver first."))
+        if (fl.return_temperature is not None and fl.fraction > 0
+                and fl.return_temperature < fl.return_saturation_temperature - 5.0):
+            out.append(Finding(
+                "flash-into-cool-return", "warning",
+                f"The trap discharges hot condensate that flashes ({fl.fraction:.1%} at full load) into a return "
+                f"at {q.show(fl.return_temperature, 'temperature', system)}, below its saturation "
+                f"{q.show(fl.return_saturation_temperature, 'temperature', system)}: steam bubbles collapse in "
+                f"the cooler water and hammer. Discharge along the direction of flow through a sparging "
+                f"fitting, or into a vented receiver."))
+    return out
 
 
 def _freeze_exposure(unit: Unit, r: Result) -> str | None:

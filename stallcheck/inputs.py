@@ -27,10 +27,22 @@ class Site:
         Atmospheric pressure used for every gauge value. [Pa]
     basis : str
         How it was found, in words, for the assumptions list.
+    hours_per_year : float or None
+        Hours a year the unit runs, for yearly purge figures (load bins override). [h]
+    steam_price : float or None
+        Money per ``steam_price_per`` of steam. [currency]
+    steam_price_per : float or None
+        The quantity of steam the price is for (set wherever a price is). [kg]
+    currency : str
+        The price's currency, as written (shown beside costs).
     """
 
     atmospheric_pressure: float
     basis: str
+    hours_per_year: float | None = None
+    steam_price: float | None = None
+    steam_price_per: float | None = None
+    currency: str = ""
 
 
 @dataclass(frozen=True)
@@ -146,6 +158,25 @@ class Drain:
     trap_min_differential : float
         Smallest differential at which the trap still opens. [Pa]
     capacity : tuple of CapacityPoint
+        The trap's rated capacity against differential, differentials increasing.
+    capacity_margin : float
+        Margin on the full-load condensing rate when selecting the trap. [-]
+    trap_orifice : float or None
+        Bore of the trap seat, used where no capacity table is given. [m]
+    motive_pressure : float or None
+        Steam or air pressure driving a pump-trap; None: the supply pressure. [Pa]
+    pump_fill_head : float or None
+        Filling head the pump-trap's maker asks for. [m]
+    pump_capacity : float or None
+        Pump-trap capacity from the maker's table at this unit's motive pressure,
+        back pressure and fill head. [kg/s]
+    purge_orifice, purge_rate : float or None
+        A constant purge's bore [m], or its stated steam rate [kg/s].
+    return_line : float or None
+        Inside diameter of the line the trap discharges into. [m]
+    return_temperature : float or None
+        Temperature of the condensate already in that line (a pumped or flooded
+        return runs below saturation). [K]
     """
 
     arrangement: str
@@ -155,6 +186,15 @@ class Drain:
     return_pressure: float
     trap_min_differential: float
     capacity: tuple[CapacityPoint, ...] = ()
+    capacity_margin: float = 2.0
+    trap_orifice: float | None = None
+    motive_pressure: float | None = None
+    pump_fill_head: float | None = None
+    pump_capacity: float | None = None
+    purge_orifice: float | None = None
+    purge_rate: float | None = None
+    return_line: float | None = None
+    return_temperature: float | None = None
 
 
 @dataclass(frozen=True)

@@ -88,6 +88,11 @@ def vapour_density(pressure):
     return _props("D", "P", _check_p(pressure), "Q", 1.0)
 
 
+def liquid_cp(pressure):
+    """Isobaric specific heat of saturated liquid water [J/(kg·K)] at an absolute pressure [Pa]."""
+    return _props("C", "P", _check_p(pressure), "Q", 0.0)
+
+
 def _medium_fluid(medium: str, concentration: float | None) -> str:
     if medium == "water":
         return "HEOS::Water"

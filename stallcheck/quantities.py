@@ -178,6 +178,12 @@ def length(key: str, text) -> float:
     return _magnitude(key, text, q, "m")
 
 
+def mass(key: str, text) -> float:
+    """Parse a mass [kg]: ``kg``, ``t``, ``lb`` (for prices per quantity of steam)."""
+    q, _ = _quantity(key, text, "kg", "1000 lb", "kg, t, lb")
+    return _magnitude(key, text, q, "kg")
+
+
 def fraction(key: str, text) -> float:
     """Parse a fraction written with ``%`` [-], e.g. ``"30 %"`` → 0.30."""
     q, _ = _quantity(key, text, "dimensionless", "30 %", "% (for example \"30 %\")")
@@ -247,6 +253,10 @@ DISPLAY = {
         "mass_flow": ("kg/h", "kg/h", 0),
         "length": ("m", "m", 2),
         "power": ("kW", "kW", 0),
+        "diameter": ("mm", "mm", 1),
+        "velocity": ("m/s", "m/s", 1),
+        "volume_flow": ("m**3/h", "m³/h", 1),
+        "mass": ("t", "t", 1),
     },
     "us": {
         "pressure": ("psi", "psig", 1),
@@ -256,11 +266,16 @@ DISPLAY = {
         "mass_flow": ("lb/h", "lb/h", 0),
         "length": ("ft", "ft", 1),
         "power": ("Btu/h", "Btu/h", 0),
+        "diameter": ("in", "in", 2),
+        "velocity": ("ft/s", "ft/s", 0),
+        "volume_flow": ("ft**3/min", "cfm", 1),
+        "mass": ("lb", "lb", 0),
     },
 }
 
 _SI_UNIT = {"pressure": "Pa", "pressure_abs": "Pa", "differential": "Pa", "temperature": "K",
-            "mass_flow": "kg/s", "length": "m", "power": "W"}
+            "mass_flow": "kg/s", "length": "m", "power": "W", "diameter": "m", "velocity": "m/s",
+            "volume_flow": "m**3/s", "mass": "kg"}
 
 
 def convert(value: float, kind: str, system: str, atmospheric: float = STANDARD_ATMOSPHERE) -> float:
@@ -299,7 +314,7 @@ def show(value: float | None, kind: str, system: str, atmospheric: float = STAND
         return "—"
     number = convert(value, kind, system, atmospheric)
     places = DISPLAY[system][kind][2] if decimals is None else decimals
-    if kind in ("mass_flow", "power") and abs(number) >= 100:
+    if kind in ("mass_flow", "power", "mass", "volume_flow") and abs(number) >= 100:
         number = float(f"{number:.3g}")
         places = 0
     text = f"{number:,.{places}f}"

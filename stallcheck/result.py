@@ -103,6 +103,8 @@ class Points:
     stalled : ndarray of bool
     valve_opening : ndarray or None
         Travel 0–1 needed; above 1 where the open valve cannot pass the flow. [-]
+    trap_capacity : ndarray or None
+        What the trap passes at the differential it has there. [kg/s]
     """
 
     load_fraction: np.ndarray
@@ -113,6 +115,7 @@ class Points:
     drain_differential: np.ndarray
     stalled: np.ndarray
     valve_opening: np.ndarray | None = None
+    trap_capacity: np.ndarray | None = None
 
 
 @dataclass(frozen=True)
@@ -160,6 +163,181 @@ class ValveResult:
 
 
 @dataclass(frozen=True)
+class TrapFigures:
+    """What the trap must pass, what it can, and where it falls short.
+
+    Attributes
+    ----------
+    basis : str
+        Where its capacity comes from: ``"table"`` (the maker's rows), ``"orifice"``
+        (the seat bore given) or ``"selected"`` (nothing given: a trap selected by the
+        usual rule, margin × full-load condensate at the working differential).
+    bore : float or None
+        Seat bore used by the orifice model (given, or the selected trap's). [m]
+    margin : float
+        Margin on the full-load condensate. [-]
+    design_condensate, design_differential : float
+        At full load. [kg/s], [Pa]
+    working_load, working_condensate, working_differential : float
+        The lowest differential the trap must still drain at, as arranged (or as the
+        required arrangement would have it), with the load and condensate there.
+        [-], [kg/s], [Pa]
+    required_capacity : float
+        margin × design condensate, to be passed at ``working_differential``. [kg/s]
+    installed_capacity : float or None
+        What the trap passes at ``working_differential`` (None when selected). [kg/s]
+    limit_load : float or None
+        Drainage limit: the highest load at which the trap cannot pass the condensate
+        at the differential available there (None where it keeps up at every load). [-]
+    limit_coil_pressure, limit_differential, limit_condensate, limit_inlet_temperature :
+        float or None
+        At the drainage limit. [Pa], [Pa], [kg/s], [K]
+    """
+
+    basis: str
+    bore: float | None
+    margin: float
+    design_condensate: float
+    design_differential: float
+    working_load: float
+    working_condensate: float
+    working_differential: float
+    required_capacity: float
+    installed_capacity: float | None
+    limit_load: float | None
+    limit_coil_pressure: float | None = None
+    limit_differential: float | None = None
+    limit_condensate: float | None = None
+    limit_inlet_temperature: float | None = None
+
+    @property
+    def capacity_ok(self) -> bool | None:
+        """Installed capacity at least the required (None when not known)."""
+        if self.installed_capacity is None:
+            return None
+        return self.installed_capacity >= self.required_capacity * (1 - 1e-9)
+
+
+@dataclass(frozen=True)
+class PumpTrapFigures:
+    """A pump-trap's duty, where one is installed or required.
+
+    Attributes
+    ----------
+    installed : bool
+    condensate : float
+        The largest flow it must pump: the condensate at the stall point. [kg/s]
+    load_fraction : float
+        Where that is (the stall point). [-]
+    back_pressure : float
+        What it pumps against: return pressure plus lift head. [Pa]
+    motive_pressure : float  [Pa]
+    motive_given : bool
+        False where the supply pressure was taken.
+    fill_head, required_fill_head : float
+        Available, and asked for by the maker (or common practice). [m]
+    fill_head_given : bool
+    capacity : float or None
+        Rated pumping capacity at this duty. [kg/s]
+    """
+
+    installed: bool
+    condensate: float
+    load_fraction: float
+    back_pressure: float
+    motive_pressure: float
+    motive_given: bool
+    fill_head: float
+    required_fill_head: float
+    fill_head_given: bool
+    capacity: float | None
+
+
+@dataclass(frozen=True)
+class PurgeFigures:
+    """A constant purge's steam and cost.
+
+    Attributes
+    ----------
+    basis : str
+        ``"orifice"`` or ``"rate"``.
+    bore : float or None  [m]
+    design_rate, minimum_rate : float
+        Steam bled at full load and at the minimum load. [kg/s]
+    holds_differential : bool
+        False where the coil pressure falls to the back pressure within the
+        operating range (a purge cannot bleed then).
+    hours, yearly_mass, yearly_cost : float or None
+        Hours a year, steam bled a year [kg], and its cost [currency].
+    hours_basis : str
+        ``"bins"``, ``"site"`` or ``""`` (no hours known).
+    currency : str
+    """
+
+    basis: str
+    bore: float | None
+    design_rate: float
+    minimum_rate: float
+    holds_differential: bool
+    hours: float | None
+    yearly_mass: float | None
+    yearly_cost: float | None
+    hours_basis: str
+    currency: str
+
+
+@dataclass(frozen=True)
+class FlashFigures:
+    """Flash steam at the trap outlet at full load.
+
+    Attributes
+    ----------
+    fraction : float  [-]
+    flow : float  [kg/s]
+    volume_flow : float  [m³/s]
+    line_diameter, velocity : float or None
+        Return line bore [m] and mixture velocity in it [m/s], where the bore is given.
+    return_temperature : float or None  [K]
+    return_saturation_temperature : float  [K]
+    """
+
+    fraction: float
+    flow: float
+    volume_flow: float
+    line_diameter: float | None
+    velocity: float | None
+    return_temperature: float | None
+    return_saturation_temperature: float
+
+
+@dataclass(frozen=True)
+class Remedy:
+    """One change that moves the stall point down to the minimum load.
+
+    Attributes
+    ----------
+    key : str
+        The unit-file key to change.
+    kind : str
+        Display kind of its value (``"length"``, ``"pressure"``, ``"differential"``).
+    current : float
+        Its value now (SI).
+    value : float or None
+        The limit: the largest (lift, return pressure, trap differential) or smallest
+        (fill head, design steam pressure) value that keeps the unit draining down to
+        the minimum load (SI); None where no value does.
+    note : str
+        Plain words: what it means, or why no value works.
+    """
+
+    key: str
+    kind: str
+    current: float
+    value: float | None
+    note: str
+
+
+@dataclass(frozen=True)
 class Result:
     """Everything ``check`` reports about one unit.
 
@@ -193,6 +371,11 @@ class Result:
     valve: ValveResult | None
     findings: tuple[Finding, ...]
     assumptions: tuple[str, ...]
+    trap: TrapFigures | None = None
+    pump_trap: PumpTrapFigures | None = None
+    purge: PurgeFigures | None = None
+    flash: FlashFigures | None = None
+    remedies: tuple[Remedy, ...] = ()
     warnings: tuple[str, ...] = ()
     cautions: tuple[str, ...] = field(default=CAUTIONS)
     format: int = 1

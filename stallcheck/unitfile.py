@@ -13,6 +13,7 @@ import difflib
 import math
 import re
 import tomllib
+from dataclasses import replace
 from pathlib import Path
 
 from stallcheck import quantities as q
@@ -29,7 +30,8 @@ CV_PER_KV = 1.156
 _KNOWN = {
     "": {"format", "unit", "site", "design", "steam", "valve", "load", "drain", "geometry"},
     "unit": {"name", "tag"},
-    "site": {"elevation", "atmospheric_pressure"},
+    "site": {"elevation", "atmospheric_pressure", "hours_per_year", "steam_price", "steam_price_per",
+             "currency"},
     "design": {"medium", "concentration", "flow", "inlet_temperature", "outlet_temperature",
                "steam_pressure", "ua_flow_exponent", "method"},
     "steam": {"supply_pressure"},
@@ -37,7 +39,9 @@ _KNOWN = {
     "load": {"varies", "minimum", "bins"},
     "load.bins": {"inlet_temperature", "hours", "load"},
     "drain": {"arrangement", "trap", "fill_head", "lift", "return_pressure",
-              "trap_min_differential", "capacity"},
+              "trap_min_differential", "capacity", "capacity_margin", "trap_orifice",
+              "motive_pressure", "pump_fill_head", "pump_capacity", "purge_orifice", "purge_rate",
+              "return_line", "return_temperature"},
     "drain.capacity": {"differential", "flow"},
     "geometry": {"tubes", "supply_feed", "distributing_tubes", "pitched_to_return",
                  "coils_per_trap", "drop_to_trap", "drop_vented", "drip_before_valve"},
@@ -157,6 +161,13 @@ class _Reader:
         self.vote(table[key])
         return parse(full, table[key])
 
+    def optional(self, table: dict, section: str, key: str, parse):
+        """A quantity the file may leave out: None when absent."""
+        if key not in table:
+            return None
+        self.vote(table[key])
+        return parse(f"{section}.{key}", table[key])
+
     def choice(self, table: dict, section: str, key: str, choices, default=None):
         full = f"{section}.{key}"
         if key not in table:
@@ -249,6 +260,10 @@ def _build(data: dict, source: str) -> Unit:
     drain = _drain(r, atm)
     geometry = _geometry(r)
     system = "us" if r.us_votes > r.si_votes else "si"
+    if site.steam_price is not None and site.steam_price_per is None:
+        per = "1000 lb" if system == "us" else "1 t"
+        site = replace(site, steam_price_per=q.mass("site.steam_price_per", per))
+        r.defaults.append(f"site.steam_price_per = \"{per}\" (not given)")
     return Unit(name=name.strip(), tag=tag.strip(), site=site, design=design, supply_pressure=supply,
                 load=load, drain=drain, valve=valve, geometry=geometry, source=source,
                 system=system, defaults=tuple(r.defaults), warnings=tuple(r.warnings))
@@ -262,8 +277,34 @@ def _absolute_positive(key: str, value: float, text) -> None:
 
 def _site(r: _Reader) -> Site:
     site = r.table("site", required=False)
-    if not site:
-        r.defaults.append("atmospheric pressure 101.325 kPa (sea level; no [site] given)")
+    where = _where(r, site)
+    return replace(where, **_costs(r, site or {}))
+
+
+def _costs(r: _Reader, site: dict) -> dict:
+    """Hours and steam price, for yearly purge figures."""
+    out: dict = {}
+    if "hours_per_year" in site:
+        out["hours_per_year"] = r.number(site, "site", "hours_per_year", 0.0, 8784.0)
+    if "steam_price" in site:
+        out["steam_price"] = r.number(site, "site", "steam_price", 0.0, 1e6)
+        if "steam_price_per" in site:
+            per = r.quantity(site, "site", "steam_price_per", q.mass)
+            _require_positive("site.steam_price_per", per, f", got \"{site['steam_price_per']}\"")
+            out["steam_price_per"] = per
+    elif "steam_price_per" in site:
+        raise InputError("site.steam_price_per", "is given without site.steam_price; give both or neither.")
+    currency = site.get("currency", "")
+    if not isinstance(currency, str) or len(currency) > 12:
+        raise InputError("site.currency", "takes a short text such as \"USD\" or \"EUR\".")
+    out["currency"] = currency.strip()
+    return out
+
+
+def _where(r: _Reader, site: dict | None) -> Site:
+    if not site or not ({"elevation", "atmospheric_pressure"} & set(site)):
+        r.defaults.append("atmospheric pressure 101.325 kPa (sea level; [site] gives no elevation "
+                          "or atmospheric_pressure)")
         return Site(q.STANDARD_ATMOSPHERE, "101.325 kPa (standard, sea level)")
     if "elevation" in site and "atmospheric_pressure" in site:
         raise InputError("site", "give either elevation or atmospheric_pressure, not both.")
@@ -283,8 +324,6 @@ def _site(r: _Reader) -> Site:
             raise InputError("site.elevation", f"\"{site['elevation']}\" is out of range; accepted: -500 m to 9000 m.")
         p = q.atmosphere_at(z)
         return Site(p, f"{p / 1000:.2f} kPa (standard atmosphere at {z:.0f} m)")
-    r.defaults.append("atmospheric pressure 101.325 kPa (sea level; [site] gives neither key)")
-    return Site(q.STANDARD_ATMOSPHERE, "101.325 kPa (standard, sea level)")
 
 
 def _design(r: _Reader, atm: float) -> Design:
@@ -404,7 +443,46 @@ def _drain(r: _Reader, atm: float) -> Drain:
     for a, b in zip(capacity, capacity[1:]):
         if b.differential <= a.differential:
             raise InputError("drain.capacity", "differentials must increase from row to row.")
-    return Drain(arrangement, trap, fill, lift, ret, dpmin, tuple(capacity))
+    extra = _drain_devices(r, d, atm)
+    return Drain(arrangement, trap, fill, lift, ret, dpmin, tuple(capacity), **extra)
+
+
+def _drain_devices(r: _Reader, d: dict, atm: float) -> dict:
+    """The optional keys that size the trap, pump-trap, purge and return line."""
+    out: dict = {}
+    if "capacity_margin" in d:
+        out["capacity_margin"] = r.number(d, "drain", "capacity_margin", 1.0, 10.0)
+    for key in ("trap_orifice", "purge_orifice", "return_line"):
+        value = r.optional(d, "drain", key, q.length)
+        if value is not None:
+            _require_positive(f"drain.{key}", value, f", got \"{d[key]}\"")
+            if value > 1.0:
+                raise InputError(f"drain.{key}", f"\"{d[key]}\" is over 1 m; check the units.")
+            out[key] = value
+    for key in ("pump_capacity", "purge_rate"):
+        value = r.optional(d, "drain", key, q.mass_flow)
+        if value is not None:
+            _require_positive(f"drain.{key}", value, f", got \"{d[key]}\"")
+            out[key] = value
+    if "purge_orifice" in out and "purge_rate" in out:
+        raise InputError("drain.purge_orifice", "give either purge_orifice or purge_rate, not both.")
+    fill = r.optional(d, "drain", "pump_fill_head", q.length)
+    if fill is not None:
+        if not 0.0 <= fill <= 10.0:
+            raise InputError("drain.pump_fill_head", f"\"{d['pump_fill_head']}\" is out of range; "
+                                                     "accepted: 0 to 10 m.")
+        out["pump_fill_head"] = fill
+    motive = r.optional(d, "drain", "motive_pressure", q.pressure)
+    if motive is not None:
+        out["motive_pressure"] = motive.absolute(atm)
+        _absolute_positive("drain.motive_pressure", out["motive_pressure"], d["motive_pressure"])
+    t = r.optional(d, "drain", "return_temperature", q.temperature)
+    if t is not None:
+        if not 273.15 <= t <= 473.15:
+            raise InputError("drain.return_temperature", f"\"{d['return_temperature']}\" is out of range; "
+                                                         "accepted: 0 °C to 200 °C.")
+        out["return_temperature"] = t
+    return out
 
 
 def _geometry(r: _Reader) -> Geometry | None:

@@ -6,6 +6,8 @@ Marks, chosen to read without colour:
     -   back pressure on the trap (return pressure plus lift)
     ~   atmospheric pressure (0 gauge), where it is not the back-pressure line
     X   the stall point
+    D   the drainage limit: below it the trap cannot pass the condensate (shown where
+        it lies apart from the stall point)
     .   the stalled zone: loads where the trap cannot discharge
     |   the minimum load the unit runs at (when above zero)
 
@@ -21,13 +23,14 @@ from stallcheck import quantities as q
 from stallcheck.result import Result
 
 #: Style names the terminal maps to colours.
-STYLES = {"*": "curve", "-": "back", "~": "atmos", "X": "stall", ".": "zone", "|": "minimum"}
+STYLES = {"*": "curve", "-": "back", "~": "atmos", "X": "stall", "D": "limit", ".": "zone", "|": "minimum"}
 
 LEGEND = [
     ("*", "steam pressure the coil needs"),
     ("-", "back pressure on the trap"),
     ("~", "atmospheric (0 gauge)"),
     ("X", "stall point"),
+    ("D", "drainage limit: the trap falls short below it"),
     (".", "stalled: the trap cannot discharge"),
     ("|", "minimum load"),
 ]
@@ -122,6 +125,14 @@ def render(result: Result, system: str, width: int = 78, height: int = 15,
     # the curve
     for c in range(plot_w):
         grid[row(p_fine[c])][c] = "*"
+    # drainage limit
+    tr = result.trap
+    if tr is not None and tr.limit_load is not None:
+        if by_inlet and tr.limit_inlet_temperature is not None:
+            xl = q.convert(tr.limit_inlet_temperature, "temperature", system)
+        else:
+            xl = tr.limit_load * 100
+        grid[row(q.convert(tr.limit_coil_pressure, "pressure", system, atm))][col(xl)] = "D"
     # stall point
     s = result.stall
     if s.occurs:

@@ -36,6 +36,8 @@ def to_dict(r: Result) -> dict:
         }
         if pts.valve_opening is not None:
             point["valve_opening"] = _clean(float(pts.valve_opening[i]))
+        if pts.trap_capacity is not None:
+            point["trap_capacity_kg_h"] = float(q.kg_h(pts.trap_capacity[i]))
         points.append(point)
     s = r.stall
     v = r.valve
@@ -90,6 +92,13 @@ def to_dict(r: Result) -> dict:
             "characteristic": v.characteristic,
             "rangeability": v.rangeability,
         },
+        "trap": _trap(r),
+        "pump_trap": _pump_trap(r),
+        "purge": _purge(r),
+        "flash": _flash(r),
+        "remedies": [{"key": m.key, "current_si": m.current, "value_si": m.value,
+                      "unit_si": _SI_UNIT[m.kind], "achievable": m.value is not None, "note": m.note}
+                     for m in r.remedies],
         "findings": [{"code": f.code, "severity": f.severity, "message": f.message} for f in r.findings],
         "assumptions": list(r.assumptions),
         "warnings": list(r.warnings),
@@ -97,6 +106,86 @@ def to_dict(r: Result) -> dict:
         "exit_status": r.exit_status,
     }
     return out
+
+
+#: SI unit of each remedy's value: pressures absolute Pa, differentials Pa, heights m.
+_SI_UNIT = {"length": "m", "pressure": "Pa", "differential": "Pa"}
+
+
+def _trap(r: Result):
+    t = r.trap
+    if t is None:
+        return None
+    return {
+        "capacity_basis": t.basis,
+        "bore_mm": None if t.bore is None else t.bore * 1000.0,
+        "margin": t.margin,
+        "design_condensate_kg_h": q.kg_h(t.design_condensate),
+        "design_differential_kpa": q.kpa(t.design_differential),
+        "working_load_fraction": t.working_load,
+        "working_condensate_kg_h": q.kg_h(t.working_condensate),
+        "working_differential_kpa": q.kpa(t.working_differential),
+        "required_capacity_kg_h": q.kg_h(t.required_capacity),
+        "installed_capacity_kg_h": q.kg_h(t.installed_capacity),
+        "capacity_ok": t.capacity_ok,
+        "drainage_limit": None if t.limit_load is None else {
+            "load_fraction": t.limit_load,
+            "coil_pressure_kpa": q.kpa(t.limit_coil_pressure),
+            "differential_kpa": q.kpa(t.limit_differential),
+            "condensate_kg_h": q.kg_h(t.limit_condensate),
+            "inlet_temperature_c": q.celsius(t.limit_inlet_temperature),
+        },
+    }
+
+
+def _pump_trap(r: Result):
+    pt = r.pump_trap
+    if pt is None:
+        return None
+    return {
+        "installed": pt.installed,
+        "condensate_kg_h": q.kg_h(pt.condensate),
+        "load_fraction": pt.load_fraction,
+        "back_pressure_kpa": q.kpa(pt.back_pressure),
+        "motive_pressure_kpa": q.kpa(pt.motive_pressure),
+        "motive_given": pt.motive_given,
+        "fill_head_m": pt.fill_head,
+        "required_fill_head_m": pt.required_fill_head,
+        "capacity_kg_h": q.kg_h(pt.capacity),
+        "capacity_ok": None if pt.capacity is None else pt.capacity >= pt.condensate,
+    }
+
+
+def _purge(r: Result):
+    pu = r.purge
+    if pu is None:
+        return None
+    return {
+        "basis": pu.basis,
+        "bore_mm": None if pu.bore is None else pu.bore * 1000.0,
+        "design_kg_h": q.kg_h(pu.design_rate),
+        "minimum_load_kg_h": q.kg_h(pu.minimum_rate),
+        "holds_differential": pu.holds_differential,
+        "hours": pu.hours,
+        "hours_basis": pu.hours_basis or None,
+        "yearly_kg": pu.yearly_mass,
+        "yearly_cost": pu.yearly_cost,
+        "currency": pu.currency,
+    }
+
+
+def _flash(r: Result):
+    f = r.flash
+    if f is None:
+        return None
+    return {
+        "fraction": f.fraction,
+        "kg_h": q.kg_h(f.flow),
+        "m3_h": f.volume_flow * 3600.0,
+        "return_line_mm": None if f.line_diameter is None else f.line_diameter * 1000.0,
+        "velocity_m_s": f.velocity,
+        "return_temperature_c": q.celsius(f.return_temperature),
+    }
 
 
 def dumps(r: Result) -> str:

@@ -15,7 +15,7 @@ from stallcheck import quantities as q
 from stallcheck.render import chart
 from stallcheck.result import Result
 
-CHART_COLOURS = {"curve": "bold cyan", "back": "yellow", "atmos": "dim", "stall": "bold red",
+CHART_COLOURS = {"curve": "bold cyan", "back": "yellow", "atmos": "dim", "stall": "bold red", "limit": "bold magenta",
                  "zone": "red", "minimum": "magenta"}
 SEVERITY_STYLE = {"danger": "bold red", "warning": "yellow", "info": "cyan"}
 SEVERITY_WORD = {"danger": "DANGER", "warning": "WARNING", "info": "note"}
@@ -122,6 +122,7 @@ def report(result: Result, system: str, width: int = 80) -> Group:
     verdict.append("adequate" if dr.adequate else "NOT ADEQUATE",
                    style="bold green" if dr.adequate else "bold red")
     parts += [_heading("Drainage"), verdict, _bullets(dr.reasons), Text("")]
+    parts += _devices(r, system)
 
     v = r.valve
     if v is not None:
@@ -146,6 +147,7 @@ def report(result: Result, system: str, width: int = 80) -> Group:
         parts += [line, _para(f.message, 4)]
     parts.append(Text(""))
 
+    parts += _remedies(r, system)
     parts += [_heading("Stall chart"), chart_text(r, system, width=min(width, 100) - 2), Text("")]
 
     parts += [_heading("Assumptions"), _bullets(r.assumptions, style="dim"), Text("")]
@@ -153,6 +155,127 @@ def report(result: Result, system: str, width: int = 80) -> Group:
         parts += [_heading("Input warnings"), _bullets(r.warnings, style="yellow"), Text("")]
     parts += [_heading("Caution"), _bullets(r.cautions)]
     return Group(*parts)
+
+
+_BASIS = {"table": "capacity from the maker's table",
+          "orifice": "capacity from its seat bore",
+          "selected": "capacity not given: a trap selected by the usual rule"}
+
+
+def _devices(r: Result, system: str) -> list:
+    """Trap, pump-trap, purge and flash-steam sections."""
+    atm = r.atmospheric_pressure
+
+    def p(pa, kind="pressure"):
+        return q.show(pa, kind, system, atm)
+
+    def w(kg_s):
+        return q.show(kg_s, "mass_flow", system)
+
+    parts: list = []
+    tr = r.trap
+    if tr is not None:
+        parts.append(_heading("Trap"))
+        parts.append(Text(f"  {_BASIS[tr.basis]}"
+                          + (f" ({q.show(tr.bore, 'diameter', system)} bore)" if tr.basis != "table" else ""),
+                          style="dim"))
+        parts.append(_para(f"full load: {w(tr.design_condensate)} at {p(tr.design_differential, 'differential')} "
+                           f"differential"))
+        parts.append(_para(f"lowest working differential: {p(tr.working_differential, 'differential')} at "
+                           f"{tr.working_load:.0%} load, with {w(tr.working_condensate)}"))
+        select = Text(f"  select for {w(tr.required_capacity)} ({tr.margin:g} x full load, common practice) at "
+                      f"{p(tr.working_differential, 'differential')}")
+        if tr.installed_capacity is not None:
+            select.append(f"; it passes {w(tr.installed_capacity)} there: ")
+            select.append("enough" if tr.capacity_ok else "SHORT",
+                          style="bold green" if tr.capacity_ok else "bold red")
+        parts.append(select)
+        if tr.limit_load is None:
+            parts.append(_para("drainage limit: none, it keeps up at every load above zero"))
+        elif r.stall.occurs and tr.limit_load <= r.stall.load_fraction + 0.005:
+            parts.append(_para(f"drainage limit: at the stall point ({tr.limit_load:.0%} load); above it the "
+                               f"trap keeps up"))
+        else:
+            stall = f"; the stall proper is at {r.stall.load_fraction:.0%}" if r.stall.occurs else ""
+            where = f", entering {q.show(tr.limit_inlet_temperature, 'temperature', system)}" \
+                if tr.limit_inlet_temperature is not None else ""
+            parts.append(_para(f"drainage limit: {tr.limit_load:.0%} load{where} ({w(tr.limit_condensate)} at "
+                               f"{p(tr.limit_differential, 'differential')}); below it the trap falls short{stall}"))
+        parts.append(Text(""))
+    pt = r.pump_trap
+    if pt is not None:
+        parts.append(_heading("Pump-trap " + ("(installed)" if pt.installed else "(required)")))
+        if pt.condensate > 0:
+            parts.append(_para(f"must move {w(pt.condensate)} at the stall point ({pt.load_fraction:.0%} load) "
+                               f"against {p(pt.back_pressure)}"))
+        else:
+            parts.append(_para("the coil never stalls, so it only ever traps"))
+        source = "given" if pt.motive_given else "the supply; drain.motive_pressure not given"
+        parts.append(_para(f"motive {p(pt.motive_pressure)} ({source}): "
+                           f"{p(pt.motive_pressure - pt.back_pressure, 'differential')} above the back pressure"))
+        need = "the maker's figure" if pt.fill_head_given else "common practice"
+        parts.append(_para(f"fill head {q.show(pt.fill_head, 'length', system)}; needs "
+                           f"{q.show(pt.required_fill_head, 'length', system)} ({need})"))
+        if pt.capacity is not None:
+            parts.append(_para(f"rated {w(pt.capacity)} at this duty: "
+                               + ("enough" if pt.capacity >= pt.condensate else "SHORT")))
+        parts.append(Text(""))
+    pu = r.purge
+    if pu is not None:
+        parts.append(_heading("Constant purge"))
+        size = (f"orifice {q.show(pu.bore, 'diameter', system)} bleeds" if pu.basis == "orifice"
+                else "stated rate:")
+        parts.append(_para(f"{size} {w(pu.design_rate)} at full load, {w(pu.minimum_rate)} at the minimum load"))
+        if pu.yearly_mass is not None:
+            hours = "load bins" if pu.hours_basis == "bins" else "site.hours_per_year, at the full-load rate"
+            cost = ""
+            if pu.yearly_cost is not None:
+                cost = f", costing {pu.yearly_cost:,.0f} {pu.currency}".rstrip()
+            parts.append(_para(f"{pu.hours:,.0f} h a year ({hours}): {q.show(pu.yearly_mass, 'mass', system)} "
+                               f"of steam{cost}"))
+        else:
+            parts.append(_para("give site.hours_per_year (or load bins) and site.steam_price for its yearly cost",
+                               ))
+        parts.append(Text(""))
+    fl = r.flash
+    if fl is not None:
+        parts.append(_heading("Flash steam at the trap outlet"))
+        if fl.fraction > 0:
+            parts.append(_para(f"{fl.fraction:.1%} of the condensate at full load: {w(fl.flow)}, "
+                               f"{q.show(fl.volume_flow, 'volume_flow', system)} at the return pressure"))
+        else:
+            parts.append(_para("none at full load: the coil pressure is not above the return pressure"))
+        if fl.velocity is not None:
+            from stallcheck.flash import VELOCITY_LIMIT
+            parts.append(_para(f"return line {q.show(fl.line_diameter, 'diameter', system)} bore: "
+                               f"{q.show(fl.velocity, 'velocity', system)} (keep under about "
+                               f"{q.show(VELOCITY_LIMIT, 'velocity', system)})"))
+        parts.append(Text(""))
+    return parts
+
+
+def _remedies(r: Result, system: str) -> list:
+    """The 'what would fix it' section: one line per single change."""
+    if not r.remedies:
+        return []
+    stalls = r.stall.occurs and r.stall.load_fraction > r.minimum_load
+    title = ("What would fix it: any one of these moves the stall down" if stalls
+             else "Margins: how far each can go before it stalls")
+    parts: list = [_heading(title)]
+    if stalls:
+        parts.append(_para(Text(f"each, alone, puts the stall point at the minimum load "
+                                f"({r.minimum_load:.0%})", style="dim")))
+        if r.minimum_load == 0:
+            parts.append(_para(Text("load.minimum is 0, so these must drain it at no load at all; give the "
+                                    "lowest load the unit really runs at for figures that can be met",
+                                    style="dim")))
+    grid = Table.grid(padding=(0, 1))
+    grid.add_column(width=2)
+    grid.add_column()
+    for rem in r.remedies:
+        grid.add_row("", Text.assemble((rem.key, "bold"), ": ", rem.note))
+    parts += [grid, Text("")]
+    return parts
 
 
 def emit(out: Console, renderable) -> None:
