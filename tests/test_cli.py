@@ -101,3 +101,28 @@ def test_demo_runs():
     result = runner.invoke(app, ["demo", "--json"])
     assert result.exit_code in (0, 1)
     assert json.loads(result.stdout)["unit"].startswith("Harrow Street")
+
+
+def test_motive_pressure_below_back_pressure_exits_2(write_unit):
+    text = BASE_UNIT.replace('arrangement = "trap"', 'arrangement = "pump-trap"').replace(
+        'lift = "0 ft"', 'lift = "20 ft"') + 'motive_pressure = "3 psig"\n'
+    result = runner.invoke(app, ["check", str(write_unit(text))])
+    assert result.exit_code == 2
+    assert "drain.motive_pressure" in result.stderr and "back pressure" in result.stderr
+    assert "Traceback" not in result.output
+
+
+@pytest.mark.parametrize("sample", SAMPLES, ids=lambda p: p.name)
+def test_check_shows_drain_devices_and_remedies(sample):
+    result = runner.invoke(app, ["check", str(sample)], env={"NO_COLOR": "1", "COLUMNS": "80"})
+    out = result.stdout
+    assert "drainage limit:" in out
+    assert "FLASH STEAM AT THE TRAP OUTLET" in out
+    assert "WHAT WOULD FIX IT" in out or "MARGINS" in out
+    for key in ("drain.lift", "drain.return_pressure", "drain.trap_min_differential", "drain.fill_head",
+                "design.steam_pressure"):
+        assert key in out
+    data = json.loads(runner.invoke(app, ["check", str(sample), "--json"]).stdout)
+    assert {"trap", "pump_trap", "purge", "flash", "remedies"} <= set(data)
+    assert len(data["remedies"]) == 5
+    assert all("trap_capacity_kg_h" in p for p in data["points"])

@@ -103,3 +103,33 @@ def test_missing_file_and_folder(tmp_path):
         unitfile.load(tmp_path / "nope.toml")
     with pytest.raises(InputError, match="folder"):
         unitfile.load(tmp_path)
+
+
+DRAIN_END = 'return_pressure = "0 psig"'
+
+
+@pytest.mark.parametrize("extra, key, fragment", [
+    ('return_line = "0 in"', "drain.return_line", "greater than zero"),
+    ('trap_orifice = "-3 mm"', "drain.trap_orifice", "greater than zero"),
+    ('pump_capacity = "-100 lb/h"', "drain.pump_capacity", "greater than zero"),
+    ('motive_pressure = "50 psi"', "drain.motive_pressure", "psig"),
+    ('purge_orifice = "2 mm"\npurge_rate = "5 kg/h"', "drain.purge_orifice", "not both"),
+    ("capacity_margin = 0.5", "drain.capacity_margin", "out of range"),
+    ('return_temperature = "400 degC"', "drain.return_temperature", "out of range"),
+    ('[[drain.capacity]]\ndifferential = "1 psi"\nflow = "-900 lb/h"\n'
+     '[[drain.capacity]]\ndifferential = "2 psi"\nflow = "1200 lb/h"', "drain.capacity[1].flow", "greater than zero"),
+    ('[[drain.capacity]]\ndifferential = "2 psi"\nflow = "900 lb/h"\n'
+     '[[drain.capacity]]\ndifferential = "1 psi"\nflow = "1200 lb/h"', "drain.capacity", "increase"),
+])
+def test_bad_drain_device_keys_name_the_key(extra, key, fragment):
+    with pytest.raises(InputError, match=fragment) as err:
+        parse(**{DRAIN_END: DRAIN_END + "\n" + extra})
+    assert err.value.key == key
+
+
+def test_steam_price_basis_follows_the_file_units():
+    u = parse(**{"[design]": "[site]\nsteam_price = 15\n[design]"})
+    assert u.site.steam_price_per == pytest.approx(453.59237)  # 1000 lb: the file is in US units
+    assert any("steam_price_per" in d for d in u.defaults)
+    with pytest.raises(InputError, match="without site.steam_price"):
+        parse(**{"[design]": '[site]\nsteam_price_per = "1 t"\n[design]'})

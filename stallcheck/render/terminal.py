@@ -183,13 +183,13 @@ def _devices(r: Result, system: str) -> list:
                            f"differential"))
         parts.append(_para(f"lowest working differential: {p(tr.working_differential, 'differential')} at "
                            f"{tr.working_load:.0%} load, with {w(tr.working_condensate)}"))
-        select = Text(f"  select for {w(tr.required_capacity)} ({tr.margin:g} x full load, common practice) at "
+        select = Text(f"select for {w(tr.required_capacity)} ({tr.margin:g} x full load, common practice) at "
                       f"{p(tr.working_differential, 'differential')}")
         if tr.installed_capacity is not None:
             select.append(f"; it passes {w(tr.installed_capacity)} there: ")
             select.append("enough" if tr.capacity_ok else "SHORT",
                           style="bold green" if tr.capacity_ok else "bold red")
-        parts.append(select)
+        parts.append(_para(select))
         if tr.limit_load is None:
             parts.append(_para("drainage limit: none, it keeps up at every load above zero"))
         elif r.stall.occurs and tr.limit_load <= r.stall.load_fraction + 0.005:

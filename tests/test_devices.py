@@ -1,0 +1,338 @@
+"""Drain devices: trap capacity, flash steam, purge steam, pump-trap duty, and the
+single changes that move the stall point. Each check names its source."""
+
+import math
+from dataclasses import replace
+
+import numpy as np
+import pytest
+from iapws import IAPWS97
+
+from stallcheck import analysis, flash, properties, purge, traps, unitfile
+from conftest import BASE_UNIT
+
+PSI = 6894.757293168
+ATM = 101325.0
+LB_H = 0.45359237 / 3600.0
+INCH = 0.0254
+FT = 0.3048
+
+
+def unit(text=BASE_UNIT, extra="", **replace_):
+    for old, new in replace_.items():
+        text = text.replace(old, new)
+    return unitfile.parse(text + extra, "test.toml")
+
+
+# --- trap seat as an orifice ----------------------------------------------------------
+
+
+def test_seat_without_flashing_is_the_liquid_orifice_of_fluids():
+    # Independent: fluids.flow_meter.flow_meter_discharge (ISO 5167 orifice equation,
+    # m = C/√(1-β⁴)·π/4·d²·√(2ρΔp)) for a 5 mm bore in a line so large that β → 0.
+    fluids_flow_meter = pytest.importorskip("fluids.flow_meter")
+    p0, p1 = 2.0e5, 2.0e5 - 7.0e3
+    rho = IAPWS97(P=p0 / 1e6, x=0).rho
+    expected = fluids_flow_meter.flow_meter_discharge(D=1.0, Do=0.005, P1=p0, P2=p1, rho=rho, C=0.6)
+    got = 0.25 * math.pi * 0.005 ** 2 * float(traps.seat_mass_flux(p0, p1, seat_length=0.0))
+    assert got == pytest.approx(expected, rel=1e-4)
+
+
+@pytest.mark.parametrize("p0, p_out", [(2.0e5, 1.931e5), (2.0e5, ATM), (5.0e5, ATM), (1.1e5, ATM)])
+def test_equilibrium_flux_matches_homogeneous_flashing_from_iapws(p0, p_out):
+    # Independent hand calculation: homogeneous equilibrium flow of saturated water,
+    # G = max over p of ρ(p, s₀)·√(2·(h₀ − h(p, s₀))), isentropic expansion in the iapws
+    # package's IAPWS-IF97. The omega method approximates it (API 520 Annex C expects
+    # a few per cent).
+    inlet = IAPWS97(P=p0 / 1e6, x=0)
+    best = 0.0
+    for p in np.linspace(p_out, p0, 300)[:-1]:
+        st = IAPWS97(P=p / 1e6, s=inlet.s)
+        best = max(best, st.rho * math.sqrt(2e3 * (inlet.h - st.h)))
+    assert float(traps.flashing_mass_flux(p0, p_out)) == pytest.approx(best, rel=0.03)
+
+
+def test_omega_by_hand_at_one_atmosphere():
+    # Independent hand calculation from the IAPWS-IF97 saturation values at 101.325 kPa
+    # (iapws): ω = cp·T·p·ρ_l·(v_lg/h_lg)², Leung (1986).
+    s_l, s_g = IAPWS97(P=0.101325, x=0), IAPWS97(P=0.101325, x=1)
+    v_lg = 1 / s_g.rho - 1 / s_l.rho
+    expected = s_l.cp * 1e3 * s_l.T * ATM * s_l.rho * (v_lg / ((s_g.h - s_l.h) * 1e3)) ** 2
+    assert float(traps.omega(ATM)) == pytest.approx(expected, rel=2e-3)
+
+
+def test_hot_condensate_passes_less_than_cold_water_more_so_at_higher_differential():
+    # Fact of the trade (common practice): a trap's hot-condensate capacity is below its
+    # cold-water capacity, the more so the higher the differential.
+    dps = np.array([0.1, 1.0, 10.0, 50.0]) * PSI
+    ratio = [float(traps.seat_mass_flux(ATM + dp, ATM)) / (0.6 * math.sqrt(2 * properties.liquid_density(ATM + dp) * dp))
+             for dp in dps]
+    assert all(r <= 1.0 for r in ratio)
+    assert ratio == sorted(ratio, reverse=True)
+    assert ratio[0] > 0.95 and ratio[-1] < 0.8
+
+
+def test_capacity_table_reading_by_hand():
+    # Hand calculation: rows (1 psi, 900 lb/h) and (4 psi, 1800 lb/h). On log-log axes,
+    # 2 psi lies half-way, so 900·√2 = 1272.8 lb/h; below the table, orifice scaling,
+    # 0.25 psi → 900·√0.25 = 450 lb/h; above it, held at 1800 lb/h.
+    dp = [1 * PSI, 4 * PSI]
+    w = [900 * LB_H, 1800 * LB_H]
+    got = traps.table_capacity(np.array([2, 0.25, 10, 0]) * PSI, dp, w) / LB_H
+    assert got == pytest.approx([900 * math.sqrt(2), 450, 1800, 0], rel=1e-9)
+
+
+# --- flash steam ------------------------------------------------------------------------
+
+
+def test_flash_fraction_published_doe_tip_sheet_12():
+    # Published: US DOE Steam Tip Sheet #12, 150 psig to 30 psig: 10.3 % flashes.
+    x = flash.flash_fraction(150 * PSI + ATM, 30 * PSI + ATM)
+    assert float(x) == pytest.approx(0.103, abs=0.002)
+
+
+def test_flash_fraction_by_hand_from_if97_tables():
+    # Independent: the enthalpy balance by hand with the iapws package's IF97 (REFERENCES:
+    # 13.3 % from 100 psig to 0 psig, computed).
+    hi, lo = IAPWS97(P=(100 * PSI + ATM) / 1e6, x=0), IAPWS97(P=ATM / 1e6, x=0)
+    lo_g = IAPWS97(P=ATM / 1e6, x=1)
+    expected = (hi.h - lo.h) / (lo_g.h - lo.h)
+    got = float(flash.flash_fraction(100 * PSI + ATM, ATM))
+    assert got == pytest.approx(expected, rel=1e-4)
+    assert got == pytest.approx(0.133, abs=0.001)
+
+
+def test_return_velocity_by_hand():
+    # Hand calculation: 1000 lb/h of condensate flashing 10 % into a 1.5 in bore at
+    # 0 psig; volume = W·(x/ρ_g + (1−x)/ρ_f) from IF97 (iapws), over the bore area.
+    w = 1000 * LB_H
+    rho_g, rho_f = IAPWS97(P=ATM / 1e6, x=1).rho, IAPWS97(P=ATM / 1e6, x=0).rho
+    expected = w * (0.1 / rho_g + 0.9 / rho_f) / (math.pi / 4 * (1.5 * INCH) ** 2)
+    assert float(flash.mixture_velocity(w, 0.1, ATM, 1.5 * INCH)) == pytest.approx(expected, rel=1e-4)
+
+
+# --- purge steam ------------------------------------------------------------------------
+
+
+def test_purge_orifice_against_doe_steam_leak_formula():
+    # Published: US DOE Steam Tip Sheet #1, steam loss through an orifice
+    # W = 24.24 · P · D² (lb/h, psia, in), choked flow into atmosphere.
+    d, p1 = 0.125, 100.0
+    expected = 24.24 * p1 * d ** 2
+    got = float(purge.steam_orifice_flow(d * INCH, p1 * PSI, ATM)) / LB_H
+    assert got == pytest.approx(expected, rel=0.003)
+
+
+def test_purge_orifice_against_api520_steam_sizing_in_fluids():
+    # Independent: fluids.safety_valve.API520_A_steam, API 520 Part I's Napier-based
+    # steam sizing (51.5·A·P₁·K_d, lb/h, in², psia), with K_d = 0.6: the area it returns
+    # for our flow must be our orifice's area. Choked flow: 50 psig into atmosphere.
+    sv = pytest.importorskip("fluids.safety_valve")
+    p1 = 50 * PSI + ATM
+    d = 3.0e-3
+    w = float(purge.steam_orifice_flow(d, p1, ATM))
+    t1 = float(properties.saturation_temperature(p1))
+    area = sv.API520_A_steam(m=w, T=t1, P1=p1, Kd=0.6)
+    assert area == pytest.approx(math.pi / 4 * d ** 2, rel=0.003)
+
+
+def test_purge_flow_falls_to_zero_as_the_differential_vanishes():
+    # Saint-Venant–Wantzel: the flow function is zero at p₂ = p₁ and full below the
+    # critical ratio (0.577 for γ = 1.135).
+    p1 = 2.0e5
+    assert float(purge.steam_orifice_flow(0.003, p1, p1)) == 0.0
+    choked = float(purge.steam_orifice_flow(0.003, p1, 0.5 * p1))
+    assert float(purge.steam_orifice_flow(0.003, p1, purge.CRITICAL_RATIO * p1)) == pytest.approx(choked)
+    assert purge.CRITICAL_RATIO == pytest.approx(0.577, abs=0.001)
+    assert 0 < float(purge.steam_orifice_flow(0.003, p1, 0.9 * p1)) < choked
+
+
+PURGE_UNIT = BASE_UNIT.replace('arrangement = "trap"', 'arrangement = "constant-purge"').replace(
+    "[drain]", '[site]\nhours_per_year = 4000\nsteam_price = 15\ncurrency = "USD"\n[drain]')
+
+
+def test_purge_yearly_cost_by_hand():
+    # Hand calculation: hours × the full-load bleed (the stated basis without bins)
+    # × price per 1000 lb.
+    r = analysis.analyse(unit(PURGE_UNIT, 'purge_orifice = "0.0625 in"\n'))
+    pu = r.purge
+    rate = float(purge.steam_orifice_flow(0.0625 * INCH, r.design.coil_pressure, r.back_pressure))
+    assert pu.design_rate == pytest.approx(rate)
+    assert pu.yearly_mass == pytest.approx(rate * 4000 * 3600)
+    assert pu.yearly_cost == pytest.approx(rate * 4000 * 3600 / (1000 * 0.45359237) * 15)
+    assert pu.currency == "USD"
+
+
+def test_purge_cannot_hold_where_the_coil_falls_to_the_back_pressure():
+    # Physics: a purge only bleeds while the coil is above what it discharges into.
+    r = analysis.analyse(unit(PURGE_UNIT, 'purge_rate = "10 lb/h"\n[load]\nminimum = 0.3\n'))
+    assert not r.purge.holds_differential and r.purge.minimum_rate == 0.0
+    assert "purge-cannot-hold" in {f.code for f in r.findings}
+
+
+def test_purge_without_a_size_says_so():
+    r = analysis.analyse(unit(PURGE_UNIT))
+    assert r.purge is None
+    assert "purge-size-unknown" in {f.code for f in r.findings}
+
+
+# --- the drainage limit -------------------------------------------------------------------
+
+TABLE = """
+[[drain.capacity]]
+differential = "0.25 psi"
+flow = "150 lb/h"
+[[drain.capacity]]
+differential = "2 psi"
+flow = "420 lb/h"
+"""
+
+
+def test_drainage_limit_balances_capacity_and_condensate_by_hand():
+    # Hand calculation at the reported limit: condensate = f·Q_design/h_fg(p_coil) with
+    # IF97 (iapws), differential = p_coil + ρ·g·fill − back, and the table read by hand on
+    # log-log axes; the two must meet there.
+    r = analysis.analyse(unit(extra=TABLE))
+    t = r.trap
+    assert t.basis == "table"
+    assert t.limit_load >= r.stall.load_fraction
+    sat = IAPWS97(P=t.limit_coil_pressure / 1e6, x=0)
+    h_fg = (IAPWS97(P=t.limit_coil_pressure / 1e6, x=1).h - sat.h) * 1e3
+    need = t.limit_load * r.design.load / h_fg
+    dp = t.limit_differential / PSI
+    slope = math.log(420 / 150) / math.log(2 / 0.25)
+    cap = (150 * (dp / 0.25) ** slope if dp >= 0.25 else 150 * math.sqrt(dp / 0.25)) * LB_H
+    assert need == pytest.approx(cap, rel=0.01)
+    assert t.limit_condensate == pytest.approx(need, rel=0.01)
+
+
+@pytest.mark.parametrize("bore, short", [("0.5 in", False), ("0.15 in", True)])
+def test_small_seat_falls_short_above_the_stall(bore, short):
+    # Physics: a seat too small for the condensate at low differential drains only down to
+    # a load well above the stall point; a generous one keeps up almost to the stall.
+    r = analysis.analyse(unit(extra=f'trap_orifice = "{bore}"\n'))
+    assert r.trap.basis == "orifice"
+    gap = r.trap.limit_load - r.stall.load_fraction
+    assert gap >= 0
+    assert (gap > 0.02) == short
+    assert ("trap-capacity-short" in {f.code for f in r.findings}) == short
+
+
+def test_selection_rule_va_design_manual():
+    # VA HVAC Design Manual (common practice): size for 1.5-2 × the condensing rate; the
+    # default margin is 2 and the user may override it.
+    r = analysis.analyse(unit())
+    assert r.trap.required_capacity == pytest.approx(2.0 * r.design.steam_flow)
+    r = analysis.analyse(unit(extra="capacity_margin = 1.5\n"))
+    assert r.trap.required_capacity == pytest.approx(1.5 * r.design.steam_flow)
+    r = analysis.analyse(unit(extra=TABLE))
+    assert r.trap.capacity_ok is False and "trap-undersized" in {f.code for f in r.findings}
+
+
+# --- pump-trap ----------------------------------------------------------------------------
+
+PUMP_UNIT = BASE_UNIT.replace('arrangement = "trap"', 'arrangement = "pump-trap"').replace(
+    'lift = "0 ft"', 'lift = "12 ft"')
+
+
+def test_pump_trap_duty_is_the_condensate_at_the_stall_point():
+    r = analysis.analyse(unit(PUMP_UNIT, 'motive_pressure = "50 psig"\npump_fill_head = "12 in"\n'
+                                         'pump_capacity = "2000 lb/h"\n'))
+    pt = r.pump_trap
+    assert pt.installed and pt.condensate == pytest.approx(r.stall.condensate)
+    assert pt.back_pressure == pytest.approx(r.back_pressure)
+    codes = {f.code for f in r.findings}
+    assert not codes & {"pump-trap-motive-low", "pump-trap-fill-head-low", "pump-trap-undersized"}
+
+
+def test_pump_trap_shortfalls_each_give_a_finding():
+    r = analysis.analyse(unit(PUMP_UNIT, 'motive_pressure = "8 psig"\npump_fill_head = "24 in"\n'
+                                         'pump_capacity = "100 lb/h"\n'))
+    codes = {f.code for f in r.findings}
+    assert {"pump-trap-motive-low", "pump-trap-fill-head-low", "pump-trap-undersized"} <= codes
+
+
+def test_pump_trap_motive_defaults_to_the_supply():
+    r = analysis.analyse(unit(PUMP_UNIT))
+    assert r.pump_trap.motive_pressure == pytest.approx(r.supply_pressure)
+    assert not r.pump_trap.motive_given
+    assert r.pump_trap.required_fill_head == pytest.approx(0.3)
+
+
+# --- remedies -----------------------------------------------------------------------------
+
+REMEDY_UNITS = [
+    # stalls in its operating range
+    dict(lift="6 ft", ret="0 psig", steam="10 psig", minimum=0.7),
+    dict(lift="6 ft", ret="1 psig", steam="5 psig", minimum=0.9),
+    # drains down to its minimum load: the figures are its margins
+    dict(lift="10 ft", ret="0 psig", steam="12 psig", minimum=0.95),
+]
+
+
+def _remedy_unit(lift, ret, steam, minimum):
+    return unit(BASE_UNIT.replace('lift = "0 ft"', f'lift = "{lift}"')
+                .replace('return_pressure = "0 psig"', f'return_pressure = "{ret}"')
+                .replace('steam_pressure = "5 psig"', f'steam_pressure = "{steam}"')
+                .replace('supply_pressure = "15 psig"', 'supply_pressure = "100 psig"'),
+                f"\n[load]\nminimum = {minimum}\n")
+
+
+def _with(u, key, value):
+    section, name = key.split(".")
+    if section == "drain":
+        return replace(u, drain=replace(u.drain, **{name: value}))
+    return replace(u, design=replace(u.design, **{name: value}))
+
+
+def test_each_remedy_puts_the_stall_point_at_the_minimum_load():
+    # Independent of the closed forms: re-run the whole analysis with each proposed
+    # value; the stall point must land on load.minimum.
+    achieved = set()
+    for spec in REMEDY_UNITS:
+        u = _remedy_unit(**spec)
+        for m in analysis.analyse(u).remedies:
+            if m.value is None:
+                continue
+            again = analysis.analyse(_with(u, m.key, m.value))
+            if m.key == "drain.fill_head" and m.value == 0.0:
+                # no fill head at all is needed: it drains below the minimum load without any
+                assert again.stall.load_fraction < spec["minimum"]
+                continue
+            achieved.add(m.key)
+            assert again.stall.load_fraction == pytest.approx(spec["minimum"], abs=1e-6), m.key
+    assert achieved == {"drain.lift", "drain.return_pressure", "drain.trap_min_differential",
+                        "drain.fill_head", "design.steam_pressure"}
+
+
+def test_lift_remedy_by_hand():
+    # Hand calculation with IF97 (iapws): for a fixed-flow air coil the steam temperature
+    # is T_out + f·(T_s,design − T_out); at f = 0.95 the coil pressure is p_sat of that;
+    # the largest lift is (p + ρ·g·fill − p_return)/(ρ·g), ρ of saturated water at the return.
+    u = _remedy_unit(**REMEDY_UNITS[2])
+    t_out = (50 - 32) / 1.8 + 273.15
+    p_design = 12 * PSI + ATM
+    t_design = IAPWS97(P=p_design / 1e6, x=0).T
+    t = t_out + 0.95 * (t_design - t_out)
+    p = IAPWS97(T=t, x=0).P * 1e6
+    rho = IAPWS97(P=ATM / 1e6, x=0).rho
+    expected = (p + rho * 9.80665 * 18 * INCH - ATM) / (rho * 9.80665)
+    lift = next(m for m in analysis.analyse(u).remedies if m.key == "drain.lift")
+    assert lift.value == pytest.approx(expected, rel=1e-4)
+
+
+def test_impossible_remedy_says_so_in_words():
+    u = _remedy_unit(lift="6 ft", ret="1 psig", steam="5 psig", minimum=0.9)
+    lift = next(m for m in analysis.analyse(u).remedies if m.key == "drain.lift")
+    assert lift.value is None
+    assert lift.note.startswith("no lift keeps this unit draining below 90% load")
+
+
+def test_more_lift_never_lowers_the_largest_lift_remedy_below_zero_margin():
+    # Physics: the lift remedy is the same whatever lift is installed now (it depends on
+    # the coil, the return and the fill head only).
+    a = _remedy_unit(**REMEDY_UNITS[2])
+    b = _with(a, "drain.lift", 0.0)
+    la = next(m for m in analysis.analyse(a).remedies if m.key == "drain.lift").value
+    lb = next(m for m in analysis.analyse(b).remedies if m.key == "drain.lift").value
+    assert la == pytest.approx(lb)
