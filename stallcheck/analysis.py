@@ -73,8 +73,7 @@ def analyse(unit: Unit, system: str | None = None, method: str | None = None) ->
     design = DesignPoint(load=load_design, steam_flow=load_design / h_fg_design,
                          coil_pressure=d.steam_pressure, steam_temperature=steam_t_design,
                          medium_mass_flow=mass_flow, medium_cp=cp)
-    coil = coilmod.CoilModel(d.method, unit.load.varies, d.inlet_temperature, d.outlet_temperature,
-                             steam_t_design, d.ua_flow_exponent)
+    coil = coil_of(unit, steam_t_design)
 
     # --- stall threshold and stall point -------------------------------------------
     dr = unit.drain
@@ -134,6 +133,22 @@ def analyse(unit: Unit, system: str | None = None, method: str | None = None) ->
         findings=(), assumptions=_assumptions(unit, clipped, trap), trap=trap, pump_trap=pump, purge=purge,
         flash=flash, remedies=fixes, warnings=unit.warnings)
     return replace(result, findings=findings.core(unit, result, system))
+
+
+def coil_of(unit: Unit, steam_t_design: float | None = None) -> coilmod.CoilModel:
+    """The coil model of a unit (its design steam temperature from the design pressure)."""
+    d = unit.design
+    if steam_t_design is None:
+        steam_t_design = float(properties.saturation_temperature(d.steam_pressure))
+    return coilmod.CoilModel(d.method, unit.load.varies, d.inlet_temperature, d.outlet_temperature,
+                             steam_t_design, d.ua_flow_exponent)
+
+
+def state_at(unit: Unit, result: Result, load):
+    """Steam temperature [K], coil pressure [Pa] and condensate [kg/s] the unit needs at
+    load fractions [-], as in the analysis."""
+    coil = coil_of(unit.with_method(result.method), result.design.steam_temperature)
+    return _steam_at(coil, np.asarray(load, dtype=float), result.design.load)
 
 
 def _medium_flow(unit: Unit) -> tuple[float, float]:

@@ -121,6 +121,96 @@ def demo(units: Optional[Units] = UNITS_OPT, json: bool = JSON_OPT) -> None:
     _show_check(result, json)
 
 
+#: What diagnose asks for, in order: (option, field, question).
+QUESTIONS = (
+    ("--coil-pressure", "coil_pressure", "Steam pressure read at the coil inlet (such as 3 psig), blank if not read"),
+    ("--return-pressure", "return_pressure", "Return or receiver pressure (such as 0 psig), blank if not read"),
+    ("--load", "load", "Present load as a fraction or % of design, blank if not known"),
+    ("--inlet-temperature", "inlet_temperature", "Entering temperature now (such as 35 degF), blank if not read"),
+    ("--outlet-temperature", "outlet_temperature", "Leaving temperature reached (such as 48 degF), blank if not read"),
+    ("--noise", "noise", "When does it bang? start-up, low-load, mild-weather, valve-opens, all-the-time, none "
+                         "(comma-separated)"),
+    ("--trap-outlet", "trap_outlet", "What does the trap outlet look like? cold, hot-passing, blowing-steam "
+                                     "(blank if not looked at)"),
+)
+
+
+def _ask_missing(unit, given: dict) -> dict:
+    """Ask for each reading not given, again after a bad answer (rich prompts on stderr)."""
+    from rich.prompt import Prompt
+
+    from stallcheck import readings
+    from stallcheck.render import terminal
+
+    err = terminal.console(stderr=True)
+    answers = dict(given)
+    for option, field, question in QUESTIONS:
+        if answers.get(field) is not None:
+            continue
+        while True:
+            text = Prompt.ask(question, console=err, default="", show_default=False)
+            try:
+                readings.parse(unit, **{field: text or None})
+            except InputError as exc:
+                err.print(f"  {exc}", highlight=False)
+                continue
+            answers[field] = text or None
+            break
+    return answers
+
+
+@app.command()
+def diagnose(unit: Path = UNIT_ARG,
+             coil_pressure: Optional[str] = typer.Option(None, "--coil-pressure", help="Gauge at the coil inlet, "
+                                                         "such as '3 psig'."),
+             return_pressure: Optional[str] = typer.Option(None, "--return-pressure",
+                                                           help="Return or receiver pressure."),
+             load: Optional[str] = typer.Option(None, "--load", help="Present load: 0.4 or '40 %'."),
+             inlet_temperature: Optional[str] = typer.Option(None, "--inlet-temperature",
+                                                             help="Entering temperature now."),
+             outlet_temperature: Optional[str] = typer.Option(None, "--outlet-temperature",
+                                                              help="Leaving temperature reached."),
+             noise: Optional[str] = typer.Option(None, "--noise", help="When it bangs: start-up, low-load, "
+                                                 "mild-weather, valve-opens, all-the-time, none (comma-separated)."),
+             trap_outlet: Optional[str] = typer.Option(None, "--trap-outlet", help="cold, hot-passing or "
+                                                       "blowing-steam."),
+             ask: Optional[bool] = typer.Option(None, "--ask/--no-ask", help="Ask for readings not given. "
+                                                "Default: ask when input is a terminal."),
+             units: Optional[Units] = UNITS_OPT, json: bool = JSON_OPT) -> None:
+    """Diagnose a unit in service from gauge readings and symptoms: the operating point,
+    whether it is stalled now, and the likely causes ranked with how to confirm each.
+
+    Exit status as for check, and 1 where the unit is stalled now; 2: bad input.
+    """
+    from stallcheck import diagnosis, readings
+
+    result = _run(unit, units, None)
+    from stallcheck import unitfile
+
+    unit_obj = unitfile.load(unit)
+    given = dict(coil_pressure=coil_pressure, return_pressure=return_pressure, load=load,
+                 inlet_temperature=inlet_temperature, outlet_temperature=outlet_temperature, noise=noise,
+                 trap_outlet=trap_outlet)
+    if ask is None:
+        ask = sys.stdin.isatty() and not json
+    try:
+        if ask:
+            given = _ask_missing(unit_obj, given)
+        found = diagnosis.diagnose(unit_obj, result, readings.parse(unit_obj, **given))
+    except InputError as exc:
+        _fail(str(exc if exc.file else exc.in_file(str(unit))))
+    from stallcheck.render import diagnosis as show
+
+    if json:
+        sys.stdout.write(show.dumps(found) + "\n")
+    else:
+        from stallcheck.render import terminal
+
+        out = terminal.console()
+        terminal.emit(out, show.report(found, result.system))
+    raise typer.Exit(found.exit_status)
+
+
 def _version(value: bool) -> None:
     if value:
         typer.echo(f"stallcheck {__version__}")

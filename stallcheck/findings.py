@@ -6,6 +6,7 @@ Codes are stable (scripts filter on them); the README lists them with their sour
 
 from __future__ import annotations
 
+from stallcheck import layout
 from stallcheck import quantities as q
 from stallcheck.devices import MOTIVE_MARGIN
 from stallcheck.flash import VELOCITY_LIMIT
@@ -111,6 +112,7 @@ def core(unit: Unit, r: Result, system: str) -> tuple[Finding, ...]:
                                f"Below about {v.min_controllable_load:.0%} load the valve cannot modulate "
                                f"(Cv/rangeability = {v.cv / v.rangeability:.2g}) and will cycle."))
     out.extend(_devices(unit, r, system))
+    out.extend(layout.rules(unit, r, system))
     order = {"danger": 0, "warning": 1, "info": 2}
     return tuple(sorted(out, key=lambda f: order[f.severity]))
 
