@@ -57,6 +57,11 @@ def _fail(message: str) -> None:
 
 def _run(path: Path, units: Optional[Units], method: Optional[Method]):
     """Load and analyse a unit; input errors become one message and exit 2."""
+    return _load(path, units, method)[1]
+
+
+def _load(path: Path, units: Optional[Units], method: Optional[Method]):
+    """The unit and its result (see :func:`_run`)."""
     from stallcheck import analysis, unitfile
 
     try:
@@ -67,7 +72,7 @@ def _run(path: Path, units: Optional[Units], method: Optional[Method]):
         _fail(str(exc if exc.file else exc.in_file(str(path))))
     except StallcheckError as exc:
         _fail(f"{path}: {exc}")
-    return result
+    return unit, result
 
 
 def _show_check(result, as_json: bool) -> None:
@@ -184,10 +189,7 @@ def diagnose(unit: Path = UNIT_ARG,
     """
     from stallcheck import diagnosis, readings
 
-    result = _run(unit, units, None)
-    from stallcheck import unitfile
-
-    unit_obj = unitfile.load(unit)
+    unit_obj, result = _load(unit, units, None)
     given = dict(coil_pressure=coil_pressure, return_pressure=return_pressure, load=load,
                  inlet_temperature=inlet_temperature, outlet_temperature=outlet_temperature, noise=noise,
                  trap_outlet=trap_outlet)

@@ -86,8 +86,8 @@ CAUSES = (
            "trap_blowing": -3, "noise_all_the_time": -1},
           "Read the coil gauge and the return gauge together at low load: the coil at or below the return "
           "pressure plus the lift head confirms it.",
-          "Drain it as the check requires (a vacuum breaker where the stall lies below atmospheric, else a "
-          "pump-trap), or make one of the changes under 'what would fix it'."),
+          "Drain it as the check requires (for this unit: {required}), or make one of the changes under 'what "
+          "would fix it'."),
     Cause("tube-fill-pattern", "Tubes fill from both ends and shut in steam pockets",
           {"centre_fed": 3, "noise_low_load": 1, "noise_valve_opens": 1, "noise_startup": 1,
            "stalled_model": 1, "stalls_in_range": 1, "trap_blowing": -2},
@@ -265,7 +265,7 @@ def diagnose(unit: Unit, result: Result, readings: Readings) -> Diagnosis:
 
     facts = _facts(unit, r, readings, load, model_p, condensate, back, fill, stalled_model, stalled_gauges,
                    agreement)
-    causes = rank(facts)
+    causes = rank(facts, required=r.drainage.required)
     return Diagnosis(readings, load, basis, model_p, back, stalled_model, stalled_gauges, agreement, facts,
                      causes, r, unit.design.outlet_temperature)
 
@@ -319,8 +319,11 @@ def _facts(unit, r, readings, load, model_p, condensate, back, fill, stalled_mod
     }
 
 
-def rank(facts: dict) -> tuple[RankedCause, ...]:
+def rank(facts: dict, **context) -> tuple[RankedCause, ...]:
     """Score every cause on the facts that hold; best first, unsupported causes left out.
+
+    ``context`` fills the placeholders of the remedies (``required``: the drainage the
+    check requires).
 
     Ties go to the cause with more supporting facts, then to the code's alphabetical
     order (so the result never depends on the table's order alone).
@@ -336,5 +339,5 @@ def rank(facts: dict) -> tuple[RankedCause, ...]:
             continue
         against = tuple(FACTS[f] for f, w in held if w < 0)
         out.append(RankedCause(cause.code, cause.title, score, support, against, cause.confirm,
-                               f"{cause.remedy} {WORK_CAUTION}"))
+                               f"{cause.remedy.format(**context)} {WORK_CAUTION}"))
     return tuple(sorted(out, key=lambda c: (-c.score, -len(c.evidence), c.code)))
