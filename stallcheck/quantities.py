@@ -100,8 +100,21 @@ def _split(key: str, text, example: str) -> tuple[float, str]:
     return value, match.group(2)
 
 
-def _quantity(key: str, text, dimension: str, example: str, accepted: str, also: str | None = None):
-    value, unit_text = _split(key, text, example)
+class _Parsed:
+    """A parsed quantity: its number, its unit's canonical name, and its dimension."""
+
+    __slots__ = ("value", "unit", "dimension")
+
+    def __init__(self, value: float, unit: str, dimension: str):
+        self.value = value
+        self.unit = unit
+        self.dimension = dimension
+
+
+@lru_cache(maxsize=1024)
+def _unit_info(unit_text: str) -> tuple[str, str] | None:
+    """(canonical unit name, dimensionality) of a unit as written; None if pint does not
+    know it. Cached: a survey meets the same few spellings thousands of times."""
     ureg = registry()
     import pint
 
@@ -109,12 +122,35 @@ def _quantity(key: str, text, dimension: str, example: str, accepted: str, also:
         units = ureg.parse_units(unit_text)
     except (pint.errors.UndefinedUnitError, pint.errors.DefinitionSyntaxError, AttributeError,
             TypeError, ValueError, SyntaxError):
-        raise InputError(key, f"unknown unit '{unit_text}' in '{text}'; accepted: {accepted}.") from None
-    wanted = [ureg.parse_units(d).dimensionality for d in (dimension, also) if d]
-    if units.dimensionality not in wanted:
+        return None
+    return str(units), str(units.dimensionality)
+
+
+@lru_cache(maxsize=64)
+def _dimension(si: str) -> str:
+    return str(registry().parse_units(si).dimensionality)
+
+
+@lru_cache(maxsize=1024)
+def _line(unit: str, si: str) -> tuple[float, float]:
+    """Offset and scale taking a value in ``unit`` to ``si`` (every unit here converts
+    linearly, temperatures with an offset)."""
+    ureg = registry()
+    zero = float(ureg.Quantity(0.0, unit).to(si).magnitude)
+    one = float(ureg.Quantity(1.0, unit).to(si).magnitude)
+    return zero, one - zero
+
+
+def _quantity(key: str, text, dimension: str, example: str, accepted: str, also: str | None = None):
+    value, unit_text = _split(key, text, example)
+    info = _unit_info(unit_text)
+    if info is None:
+        raise InputError(key, f"unknown unit '{unit_text}' in '{text}'; accepted: {accepted}.")
+    unit, dim = info
+    if dim not in [_dimension(d) for d in (dimension, also) if d]:
         what = _DIMENSION_WORDS[dimension] + (f" or {_DIMENSION_WORDS[also]}" if also else "")
         raise InputError(key, f"'{text}' is not a {what}; accepted: {accepted}.")
-    return ureg.Quantity(value, units), str(units)
+    return _Parsed(value, unit, dim), unit
 
 
 _DIMENSION_WORDS = {
@@ -123,8 +159,9 @@ _DIMENSION_WORDS = {
 }
 
 
-def _magnitude(key: str, text: str, q, si: str) -> float:
-    value = float(q.to(si).magnitude)
+def _magnitude(key: str, text: str, q: _Parsed, si: str) -> float:
+    offset, scale = _line(q.unit, si)
+    value = offset + scale * q.value
     if not math.isfinite(value) or abs(value) > 1e15:
         raise InputError(key, f"'{text}' is out of any sensible range.")
     return value
@@ -202,7 +239,7 @@ def flow(key: str, text) -> Flow:
     """Parse a mass flow (``kg/h kg/s lb/h``) or volume flow (``m3/h m3/s L/s gpm cfm``)."""
     accepted = "kg/h, kg/s, lb/h (mass) or m3/h, m3/s, L/s, gpm, cfm (volume)"
     q, _ = _quantity(key, text, "kg/s", "6000 cfm", accepted, also="m**3/s")
-    if q.dimensionality == registry().parse_units("kg/s").dimensionality:
+    if q.dimension == _dimension("kg/s"):
         return Flow(_magnitude(key, text, q, "kg/s"), True)
     return Flow(_magnitude(key, text, q, "m**3/s"), False)
 
@@ -285,9 +322,8 @@ def convert(value: float, kind: str, system: str, atmospheric: float = STANDARD_
     """
     if kind == "pressure":
         value = value - atmospheric
-    unit = DISPLAY[system][kind][0]
-    ureg = registry()
-    return float(ureg.Quantity(value, _SI_UNIT[kind]).to(unit).magnitude)
+    offset, scale = _line(_SI_UNIT[kind], DISPLAY[system][kind][0])
+    return offset + scale * value
 
 
 def convert_array(values, kind: str, system: str, atmospheric: float = STANDARD_ATMOSPHERE):
