@@ -1,19 +1,26 @@
-"""Run the physics in order for one unit and gather a :class:`~stallcheck.result.Result`.
+"""Run the physics in order for many units at once and gather a
+:class:`~stallcheck.result.Result` for each.
 
 unit → design point (properties) → coil model → stall threshold and stall point
-(closed form) → points across the load range → drainage verdict → valve → findings.
+(closed form) → points across the load range → drainage verdict → valve → drain
+devices → remedies → findings.
+
+Every step works on arrays with one row per unit, so the steam tables are called a
+handful of times for a whole survey rather than thousands of times per unit; a single
+``check`` is a survey of one, so the two give the same numbers. Only the words (the
+reasons, findings and notes) are built unit by unit.
 """
 
 from __future__ import annotations
 
-from dataclasses import replace
+from dataclasses import dataclass, replace
 
 import numpy as np
 
 from stallcheck import coil as coilmod
 from stallcheck import devices, drainage, findings, properties, remedies, valve as valvemod
 from stallcheck import quantities as q
-from stallcheck.errors import InputError
+from stallcheck.errors import InputError, StallcheckError
 from stallcheck.inputs import Unit
 from stallcheck.result import DesignPoint, Drainage, Points, Result, StallPoint, ValveResult
 from stallcheck.solve import bisect
@@ -22,6 +29,9 @@ from stallcheck.solve import bisect
 AIR_CP = 1006.0
 #: Load fractions at which the result tabulates the unit.
 LOAD_GRID = np.linspace(0.0, 1.0, 101)
+#: Bisection halvings for the valve's solves: brackets of at most the whole load range
+#: or pressure span shrink below 1e-15 of themselves.
+VALVE_STEPS = 50
 
 
 def analyse(unit: Unit, system: str | None = None, method: str | None = None) -> Result:
@@ -44,99 +54,199 @@ def analyse(unit: Unit, system: str | None = None, method: str | None = None) ->
     Raises
     ------
     InputError
-        Where the set point is not below the design steam temperature, or a pressure
-        is below the range of the steam tables.
+        Where the set point is not below the design steam temperature, a pressure is
+        outside the steam tables, or a pump-trap's motive pressure is not above the back
+        pressure.
+    """
+    out = analyse_many([unit], system=system, method=method)[0]
+    if isinstance(out, StallcheckError):
+        raise out
+    return out
+
+
+def analyse_many(units: list[Unit], system: str | None = None,
+                 method: str | None = None) -> list[Result | StallcheckError]:
+    """Analyse many units together.
+
+    Parameters
+    ----------
+    units : list of Unit
+    system : str, optional
+        Display units for the words; default each file's own.
+    method : str, optional
+        Override every file's heat-transfer method.
+
+    Returns
+    -------
+    list
+        For each unit in order, its :class:`Result`, or the :class:`InputError` that
+        stops it (the others are analysed all the same).
     """
     if method:
-        unit = unit.with_method(method)
-    system = system or unit.system
-    atm = unit.site.atmospheric_pressure
-    d = unit.design
+        units = [u.with_method(method) for u in units]
+    out: list = [None] * len(units)
+    good = []
+    for i, error in enumerate(_screen(units)):
+        if error is None:
+            good.append(i)
+        else:
+            out[i] = error
+    if good:
+        batch = [units[i] for i in good]
+        for i, result in zip(good, _analyse(batch, [system or u.system for u in batch])):
+            out[i] = result
+    return out
 
-    def words_p(pa: float) -> str:
-        return q.show(pa, "pressure", system, atm)
 
-    # --- design point -------------------------------------------------------------
-    steam_t_design = float(properties.saturation_temperature(d.steam_pressure))
-    if d.outlet_temperature >= steam_t_design - 0.5:
-        raise InputError("design.outlet_temperature",
-                         f"the set point {q.show(d.outlet_temperature, 'temperature', system)} is not below "
-                         f"the steam temperature at design.steam_pressure "
-                         f"({q.show(steam_t_design, 'temperature', system)}); the coil cannot heat to it. "
-                         f"Raise the design steam pressure or lower the set point.", file=unit.source)
-    if unit.drain.return_pressure < properties.P_MIN:
-        raise InputError("drain.return_pressure", "is below 0.61 kPa(abs), under the triple point of water; "
-                                                  "check the gauge/absolute spelling.", file=unit.source)
-    mass_flow, cp = _medium_flow(unit)
-    load_design = mass_flow * cp * (d.outlet_temperature - d.inlet_temperature)
-    h_fg_design = float(properties.latent_heat(d.steam_pressure))
-    design = DesignPoint(load=load_design, steam_flow=load_design / h_fg_design,
-                         coil_pressure=d.steam_pressure, steam_temperature=steam_t_design,
-                         medium_mass_flow=mass_flow, medium_cp=cp)
-    coil = coil_of(unit, steam_t_design)
+# --- screening: what stops a unit before the physics ---------------------------------
 
-    # --- stall threshold and stall point -------------------------------------------
-    dr = unit.drain
-    rho = float(properties.liquid_density(dr.return_pressure))
-    back = float(drainage.back_pressure(dr.return_pressure, dr.lift, rho))
-    fill = float(drainage.head(dr.fill_head, rho))
-    threshold = back + dr.trap_min_differential - fill
-    stall = _stall_point(coil, threshold, load_design, d.steam_pressure)
 
-    # --- the load range ------------------------------------------------------------
-    f = LOAD_GRID
-    clipped = bool(np.any(coilmod.steam_temperature(coil, f) < properties.T_MIN))
-    steam_t, coil_p, steam_flow = _steam_at(coil, f, load_design)
-    differential = coil_p + fill - back
-    stalled = differential <= dr.trap_min_differential
+def _screen(units: list[Unit]) -> list[InputError | None]:
+    """Per-unit input errors that need steam properties (vectorised)."""
+    n = len(units)
+    errors: list[InputError | None] = [None] * n
+    p_design = np.array([u.design.steam_pressure for u in units])
+    t_steam = properties.saturation_temperature(np.clip(p_design, properties.P_MIN, properties.P_CRIT))
+    for i, u in enumerate(units):
+        d = u.design
+        system = u.system
+        if u.supply_pressure > 0.9 * properties.P_CRIT:
+            errors[i] = InputError("steam.supply_pressure", "is near or above the critical pressure of water "
+                                   "(22.06 MPa); check the units.", file=u.source)
+        elif d.outlet_temperature >= t_steam[i] - 0.5:
+            errors[i] = InputError(
+                "design.outlet_temperature",
+                f"the set point {q.show(d.outlet_temperature, 'temperature', system)} is not below the steam "
+                f"temperature at design.steam_pressure ({q.show(float(t_steam[i]), 'temperature', system)}); the "
+                f"coil cannot heat to it. Raise the design steam pressure or lower the set point.", file=u.source)
+        elif u.drain.return_pressure < properties.P_MIN:
+            errors[i] = InputError("drain.return_pressure", "is below 0.61 kPa(abs), under the triple point of "
+                                   "water; check the gauge/absolute spelling.", file=u.source)
+        elif d.medium != "air" and 0.5 * (d.inlet_temperature + d.outlet_temperature) >= 423.15:
+            errors[i] = InputError("design.outlet_temperature", "liquid media are evaluated up to a mean "
+                                   "temperature of 150 °C; this unit's mean design temperature is higher.",
+                                   file=u.source)
+    motive = [i for i in range(n) if errors[i] is None and units[i].drain.motive_pressure is not None]
+    if motive:
+        ret = np.array([units[i].drain.return_pressure for i in motive])
+        lift = np.array([units[i].drain.lift for i in motive])
+        back = drainage.back_pressure(ret, lift, properties.liquid_density(ret))
+        for i, b in zip(motive, back):
+            u = units[i]
+            if u.drain.motive_pressure <= b:
+                atm = u.site.atmospheric_pressure
+                errors[i] = InputError(
+                    "drain.motive_pressure",
+                    f"{q.show(u.drain.motive_pressure, 'pressure', u.system, atm)} is not above the back pressure "
+                    f"on the drain ({q.show(float(b), 'pressure', u.system, atm)}: return pressure plus lift); a "
+                    f"pump-trap cannot push against it. Give the motive steam or air pressure at the pump-trap "
+                    f"inlet.", file=u.source)
+    return errors
 
-    valve_result, opening = (None, None)
-    if unit.valve is not None:
-        valve_result, opening = _valve(unit, coil, design, f, coil_p, steam_flow)
 
-    stall_fraction = stall.load_fraction or 0.0
-    need = drainage.requirement(stall_fraction, unit.load.minimum, threshold, atm, words_p)
-    ok, why = drainage.adequacy(dr.arrangement, need.required)
-    drain = Drainage(dr.arrangement, need.required, ok, (need.reason, why))
+# --- the batch ------------------------------------------------------------------------
 
-    # --- drain devices -------------------------------------------------------------
-    def state(load):
-        _, p, w = _steam_at(coil, load, load_design)
-        return p, w
 
-    effective = dr.arrangement if ok else need.required
-    trap, capacity = devices.trap_figures(
-        unit, effective, state, stall, lambda load: coilmod.inlet_temperature(coil, load), back, fill, atm,
-        design.steam_flow, d.steam_pressure)
-    bin_loads, bin_hours = _bin_loads(unit, coil)
-    pump = devices.pump_trap_figures(unit, need.required, stall, back, unit.supply_pressure, unit.source)
-    purge = devices.purge_figures(unit, state, back, d.steam_pressure, bin_loads, bin_hours)
-    flash = devices.flash_figures(unit, d.steam_pressure, design.steam_flow)
-    p_min = float(state(np.array([unit.load.minimum]))[0][0])
-    fixes = remedies.solve(unit, coil, p_min, system)
+@dataclass
+class Batch:
+    """Units as columns: one array element per unit, SI. Built by :func:`columns`."""
 
-    points = Points(load_fraction=f, inlet_temperature=coilmod.inlet_temperature(coil, f),
-                    coil_pressure=coil_p, steam_temperature=steam_t, steam_flow=steam_flow,
-                    drain_differential=differential, stalled=stalled, valve_opening=opening,
-                    trap_capacity=capacity(differential, coil_p + fill))
+    units: list
+    atm: np.ndarray
+    coil: coilmod.CoilModel
+    design_pressure: np.ndarray
+    load_design: np.ndarray
+    steam_design: np.ndarray
+    mass_flow: np.ndarray
+    cp: np.ndarray
+    supply: np.ndarray
+    return_pressure: np.ndarray
+    lift: np.ndarray
+    fill_height: np.ndarray
+    trap_min: np.ndarray
+    minimum: np.ndarray
+    density: np.ndarray
+    back: np.ndarray
+    fill: np.ndarray
+    threshold: np.ndarray
 
-    stalled_hours, total_hours = _hours(unit, stall_fraction, bin_loads, bin_hours)
+    def state(self, load, index=slice(None)):
+        """Steam temperature [K], coil pressure [Pa] and condensate [kg/s] at load
+        fractions: ``load`` of shape (n,) (one load per unit) or (n, m) (m loads per
+        unit), for the units at ``index``."""
+        load = np.asarray(load, dtype=float)
+        coil = self.coil.take(index)
+        if load.ndim == 2:
+            coil = coil.column()
+            design = self.load_design[index][:, None]
+        else:
+            design = self.load_design[index]
+        return _steam_at(coil, load, design)
 
-    result = Result(
-        unit=unit.name, tag=unit.tag, source=unit.source, system=system, method=d.method,
-        varies=unit.load.varies, medium=d.medium, minimum_load=unit.load.minimum,
-        atmospheric_pressure=atm, return_pressure=dr.return_pressure, back_pressure=back,
-        fill_head_pressure=fill, trap_min_differential=dr.trap_min_differential,
-        lift=dr.lift, fill_head=dr.fill_head, supply_pressure=unit.supply_pressure, design=design,
-        stall=stall, points=points,
-        stalled_hours=stalled_hours, total_hours=total_hours, drainage=drain, valve=valve_result,
-        findings=(), assumptions=_assumptions(unit, clipped, trap), trap=trap, pump_trap=pump, purge=purge,
-        flash=flash, remedies=fixes, warnings=unit.warnings)
-    return replace(result, findings=findings.core(unit, result, system))
+
+    def one(self, i: int):
+        """The state of unit ``i`` alone: loads (m,) → (coil pressure [Pa], condensate [kg/s])."""
+        def state(load):
+            _, p, w = self.state(np.atleast_1d(np.asarray(load, dtype=float))[None, :], [i])
+            return p[0], w[0]
+        return state
+
+
+def columns(units: list[Unit]) -> Batch:
+    """Gather units into a :class:`Batch` (the design point and heads included)."""
+    def col(get):
+        return np.array([get(u) for u in units], dtype=float)
+
+    p_design = col(lambda u: u.design.steam_pressure)
+    steam_t = properties.saturation_temperature(p_design)
+    coil = coilmod.CoilModel(
+        np.array([u.design.method for u in units]), np.array([u.load.varies for u in units]),
+        col(lambda u: u.design.inlet_temperature), col(lambda u: u.design.outlet_temperature), steam_t,
+        col(lambda u: u.design.ua_flow_exponent))
+    mass_flow, cp = _medium_flow(units)
+    load_design = mass_flow * cp * (coil.outlet - coil.inlet_design)
+    ret = col(lambda u: u.drain.return_pressure)
+    lift = col(lambda u: u.drain.lift)
+    fill_h = col(lambda u: u.drain.fill_head)
+    trap_min = col(lambda u: u.drain.trap_min_differential)
+    rho = properties.liquid_density(ret)
+    back = drainage.back_pressure(ret, lift, rho)
+    fill = drainage.head(fill_h, rho)
+    return Batch(units=units, atm=col(lambda u: u.site.atmospheric_pressure), coil=coil,
+                 design_pressure=p_design, load_design=load_design,
+                 steam_design=load_design / properties.latent_heat(p_design), mass_flow=mass_flow, cp=cp,
+                 supply=col(lambda u: u.supply_pressure), return_pressure=ret, lift=lift, fill_height=fill_h,
+                 trap_min=trap_min, minimum=col(lambda u: u.load.minimum), density=rho, back=back, fill=fill,
+                 threshold=back + trap_min - fill)
+
+
+def _medium_flow(units: list[Unit]) -> tuple[np.ndarray, np.ndarray]:
+    """Mass flow [kg/s] and specific heat [J/(kg·K)] of each unit's heated medium;
+    liquids' properties at the mean design temperature, one call per fluid."""
+    n = len(units)
+    mass = np.empty(n)
+    cp = np.full(n, AIR_CP)
+    groups: dict = {}
+    for i, u in enumerate(units):
+        d = u.design
+        if d.medium == "air":
+            mass[i] = d.flow if d.flow_is_mass else d.flow * q.STANDARD_AIR_DENSITY
+        else:
+            groups.setdefault((d.medium, d.concentration), []).append(i)
+    for (medium, concentration), idx in groups.items():
+        mean = np.array([0.5 * (units[i].design.inlet_temperature + units[i].design.outlet_temperature)
+                         for i in idx])
+        cps = properties.medium_cp(medium, concentration, mean)
+        rho = properties.medium_density(medium, concentration, mean)
+        for k, i in enumerate(idx):
+            d = units[i].design
+            cp[i] = cps[k]
+            mass[i] = d.flow if d.flow_is_mass else d.flow * rho[k]
+    return mass, cp
 
 
 def coil_of(unit: Unit, steam_t_design: float | None = None) -> coilmod.CoilModel:
-    """The coil model of a unit (its design steam temperature from the design pressure)."""
+    """The coil model of one unit (its design steam temperature from the design pressure)."""
     d = unit.design
     if steam_t_design is None:
         steam_t_design = float(properties.saturation_temperature(d.steam_pressure))
@@ -145,101 +255,178 @@ def coil_of(unit: Unit, steam_t_design: float | None = None) -> coilmod.CoilMode
 
 
 def state_at(unit: Unit, result: Result, load):
-    """Steam temperature [K], coil pressure [Pa] and condensate [kg/s] the unit needs at
-    load fractions [-], as in the analysis."""
+    """Steam temperature [K], coil pressure [Pa] and condensate [kg/s] one unit needs at
+    load fractions [-], as in its analysis."""
     coil = coil_of(unit.with_method(result.method), result.design.steam_temperature)
     return _steam_at(coil, np.asarray(load, dtype=float), result.design.load)
 
 
-def _medium_flow(unit: Unit) -> tuple[float, float]:
-    """Mass flow [kg/s] and specific heat [J/(kg·K)] of the heated medium."""
-    d = unit.design
-    if d.medium == "air":
-        mass = d.flow if d.flow_is_mass else d.flow * q.STANDARD_AIR_DENSITY
-        return mass, AIR_CP
-    mean = 0.5 * (d.inlet_temperature + d.outlet_temperature)
-    if mean >= 423.15:
-        raise InputError("design.outlet_temperature", "liquid media are evaluated up to a mean "
-                         "temperature of 150 °C; this unit's mean design temperature is higher.",
-                         file=unit.source)
-    cp = properties.medium_cp(d.medium, d.concentration, mean)
-    if d.flow_is_mass:
-        return d.flow, cp
-    return d.flow * properties.medium_density(d.medium, d.concentration, mean), cp
-
-
-def _steam_at(coil, load, load_design: float):
+def _steam_at(coil, load, load_design):
     """Steam temperature [K], coil pressure [Pa] and steam flow [kg/s] at load fractions.
 
     Temperatures the coil model asks for below the triple point are held there.
     """
-    steam_t = np.clip(coilmod.steam_temperature(coil, load), properties.T_MIN, None)
+    steam_t = np.clip(coilmod.steam_temperature(coil, load), properties.T_MIN, properties.T_CRIT)
     coil_p = properties.saturation_pressure(steam_t)
     return steam_t, coil_p, load * load_design / properties.latent_heat(coil_p)
 
 
-def _stall_point(coil, threshold: float, load_design: float, design_pressure: float) -> StallPoint:
-    """Exact stall point, from the closed-form inverse of the coil model."""
-    if threshold <= properties.P_MIN:
-        return StallPoint(occurs=False, threshold_pressure=threshold)
-    t_stall = float(properties.saturation_temperature(min(threshold, properties.P_CRIT)))
-    f_stall = float(coilmod.load_at_steam_temperature(coil, t_stall))
-    if not f_stall > 0.0:
-        return StallPoint(occurs=False, threshold_pressure=threshold)
-    if f_stall >= 1.0:
-        f_stall, p, t = 1.0, design_pressure, coil.steam_design
-    else:
-        p, t = threshold, t_stall
-    condensate = f_stall * load_design / float(properties.latent_heat(p))
-    inlet = float(coilmod.inlet_temperature(coil, f_stall)) if coil.varies == "inlet-temperature" else None
-    return StallPoint(True, threshold, f_stall, p, t, condensate, inlet)
+# --- the physics on the batch ---------------------------------------------------------
 
 
-def _valve(unit: Unit, coil, design: DesignPoint, f, coil_p, steam_flow):
-    """Valve figures and the travel needed at each load."""
-    v = unit.valve
-    p1 = unit.supply_pressure
-    rho1 = float(properties.vapour_density(p1))
-    cv_need = valvemod.required_cv(steam_flow, p1, coil_p, rho1, v.xt)
-    opening = valvemod.travel(cv_need / v.cv, v.characteristic, v.rangeability)
-    cv_design = float(valvemod.required_cv(design.steam_flow, p1, design.coil_pressure, rho1, v.xt))
-    ok = cv_design <= v.cv
-    limited_f = limited_p = None
-    if not ok:
-        # Coil pressure where the open valve passes exactly the steam the coil condenses
-        # at design flow and entering temperature.
+def _analyse(units: list[Unit], systems: list[str]) -> list[Result]:
+    b = columns(units)
+    n = len(units)
+    stall = _stall_points(b)
+
+    f = LOAD_GRID[None, :]
+    grid = np.broadcast_to(f, (n, LOAD_GRID.size))
+    raw_t = coilmod.steam_temperature(b.coil.column(), f)
+    clipped = np.any(raw_t < properties.T_MIN, axis=1)
+    steam_t, coil_p, steam_flow = b.state(grid)
+    differential = coil_p + b.fill[:, None] - b.back[:, None]
+    stalled = differential <= b.trap_min[:, None]
+    inlet_t = coilmod.inlet_temperature(b.coil.column(), f)
+
+    valves, opening = _valves(b, coil_p, steam_flow)
+
+    # drainage verdicts (words, per unit)
+    drains, effective = [], []
+    for i, u in enumerate(units):
+        s = stall[i]
+        atm = b.atm[i]
+        need = drainage.requirement(s.load_fraction or 0.0, u.load.minimum, b.threshold[i], atm,
+                                    lambda pa, system=systems[i], atm=atm: q.show(pa, "pressure", system, atm))
+        ok, why = drainage.adequacy(u.drain.arrangement, need.required)
+        drains.append(Drainage(u.drain.arrangement, need.required, ok, (need.reason, why)))
+        effective.append(u.drain.arrangement if ok else need.required)
+
+    traps, capacity = devices.trap_figures(b, effective, stall, differential, coil_p, steam_flow)
+    flashes = devices.flash_figures(b)
+    p_min = b.state(b.minimum)[1]
+    fixes = remedies.solve(b, p_min, systems)
+
+    results = []
+    for i, u in enumerate(units):
+        d = DesignPoint(load=float(b.load_design[i]), steam_flow=float(b.steam_design[i]),
+                        coil_pressure=float(b.design_pressure[i]), steam_temperature=float(b.coil.steam_design[i]),
+                        medium_mass_flow=float(b.mass_flow[i]), medium_cp=float(b.cp[i]))
+        points = Points(load_fraction=LOAD_GRID, inlet_temperature=inlet_t[i], coil_pressure=coil_p[i],
+                        steam_temperature=steam_t[i], steam_flow=steam_flow[i], drain_differential=differential[i],
+                        stalled=stalled[i], valve_opening=None if opening is None or valves[i] is None
+                        else opening[i], trap_capacity=capacity[i])
+        s = stall[i]
+        bins_load, bins_hours = _bin_loads(u, b.coil.take(i))
+        stalled_hours, total_hours = _hours(u, s.load_fraction or 0.0, bins_load, bins_hours)
+        pump = devices.pump_trap_figures(u, drains[i].required, s, float(b.back[i]), float(b.supply[i]))
+        purge = devices.purge_figures(u, b.one(i), float(b.back[i]), float(b.design_pressure[i]),
+                                      bins_load, bins_hours)
+        result = Result(
+            unit=u.name, tag=u.tag, source=u.source, system=systems[i], method=u.design.method,
+            varies=u.load.varies, medium=u.design.medium, minimum_load=u.load.minimum,
+            atmospheric_pressure=float(b.atm[i]), return_pressure=float(b.return_pressure[i]),
+            back_pressure=float(b.back[i]), fill_head_pressure=float(b.fill[i]),
+            trap_min_differential=float(b.trap_min[i]), lift=float(b.lift[i]), fill_head=float(b.fill_height[i]),
+            supply_pressure=float(b.supply[i]), design=d, stall=s, points=points, stalled_hours=stalled_hours,
+            total_hours=total_hours, drainage=drains[i], valve=valves[i], findings=(),
+            assumptions=_assumptions(u, bool(clipped[i]), traps[i]), trap=traps[i], pump_trap=pump, purge=purge,
+            flash=flashes[i], remedies=fixes[i], warnings=u.warnings)
+        results.append(replace(result, findings=findings.core(u, result, systems[i])))
+    return results
+
+
+def _stall_points(b: Batch) -> list[StallPoint]:
+    """Exact stall points, from the closed-form inverse of the coil model."""
+    thr = b.threshold
+    valid = thr > properties.P_MIN
+    t_stall = properties.saturation_temperature(np.clip(thr, properties.P_MIN, properties.P_CRIT))
+    f_stall = coilmod.load_at_steam_temperature(b.coil, t_stall)
+    occurs = valid & (f_stall > 0.0)
+    full = occurs & (f_stall >= 1.0)
+    f = np.where(full, 1.0, np.where(occurs, f_stall, 0.0))
+    p = np.where(full, b.design_pressure, np.clip(thr, properties.P_MIN, properties.P_CRIT))
+    t = np.where(full, b.coil.steam_design, t_stall)
+    condensate = f * b.load_design / properties.latent_heat(p)
+    inlet = coilmod.inlet_temperature(b.coil, f)
+    out = []
+    for i in range(len(thr)):
+        if not occurs[i]:
+            out.append(StallPoint(occurs=False, threshold_pressure=float(thr[i])))
+            continue
+        by_inlet = b.units[i].load.varies == "inlet-temperature"
+        out.append(StallPoint(True, float(thr[i]), float(f[i]), float(p[i]), float(t[i]), float(condensate[i]),
+                              float(inlet[i]) if by_inlet else None))
+    return out
+
+
+def _valves(b: Batch, coil_p, steam_flow):
+    """Valve figures for the units that have one, and the travel each load needs."""
+    n = len(b.units)
+    has = np.array([u.valve is not None for u in b.units])
+    results: list = [None] * n
+    if not has.any():
+        return results, None
+    idx = np.flatnonzero(has)
+    vs = [b.units[i].valve for i in idx]
+    cv = np.array([v.cv for v in vs])
+    xt = np.array([v.xt for v in vs])
+    rangeability = np.array([v.rangeability for v in vs])
+    characteristic = np.array([v.characteristic for v in vs])
+    p1 = b.supply[idx]
+    rho1 = properties.vapour_density(p1)
+    cv_need = valvemod.required_cv(steam_flow[idx], p1[:, None], coil_p[idx], rho1[:, None], xt[:, None])
+    opening = np.full(coil_p.shape, np.nan)
+    opening[idx] = valvemod.travel(cv_need / cv[:, None], characteristic[:, None], rangeability[:, None])
+    cv_design = valvemod.required_cv(b.steam_design[idx], p1, b.design_pressure[idx], rho1, xt)
+    ok = cv_design <= cv
+
+    # valve-limited point: the coil pressure where the open valve passes exactly what
+    # the coil condenses at design flow and entering temperature
+    limited_f = np.full(idx.size, np.nan)
+    limited_p = np.full(idx.size, np.nan)
+    short = np.flatnonzero(~ok)
+    if short.size:
+        units = idx[short]
+        coil = b.coil.take(units)
+        low = np.maximum(properties.saturation_pressure(np.maximum(coil.inlet_design, properties.T_MIN)),
+                         properties.P_MIN)
+
         def excess(p):
             t = properties.saturation_temperature(p)
-            need = design.load * coilmod.delivered_fraction(coil, t) / properties.latent_heat(p)
-            return valvemod.steam_flow(v.cv, p1, p, rho1, v.xt) - need
+            need = b.load_design[units] * coilmod.delivered_fraction(coil, t) / properties.latent_heat(p)
+            return valvemod.steam_flow(cv[short], p1[short], p, rho1[short], xt[short]) - need
 
-        low = max(float(properties.saturation_pressure(max(coil.inlet_design, properties.T_MIN))),
-                  properties.P_MIN)
-        limited_p = float(bisect(excess, low, design.coil_pressure))
-        if np.isfinite(limited_p):
-            limited_f = float(coilmod.delivered_fraction(coil, properties.saturation_temperature(limited_p)))
-        else:
-            # Even with the coil at the bottom of the steam tables the open valve passes
-            # less than the coil would condense: it delivers what its steam carries.
-            limited_p = low
-            passed = float(valvemod.steam_flow(v.cv, p1, low, rho1, v.xt))
-            limited_f = passed * float(properties.latent_heat(low)) / design.load
+        found = bisect(excess, low, b.design_pressure[units], VALVE_STEPS)
+        solved = np.isfinite(found)
+        p_lim = np.where(solved, found, low)
+        f_solved = coilmod.delivered_fraction(coil, properties.saturation_temperature(p_lim))
+        # Even with the coil at the bottom of the steam tables the open valve may pass
+        # less than the coil would condense: it then delivers what its steam carries.
+        passed = valvemod.steam_flow(cv[short], p1[short], low, rho1[short], xt[short])
+        f_low = passed * properties.latent_heat(low) / b.load_design[units]
+        limited_p[short] = p_lim
+        limited_f[short] = np.where(solved, f_solved, f_low)
 
-    cv_min = v.cv / v.rangeability
+    # lowest controllable load: the needed Cv falls to Cv/rangeability
+    cv_min = cv / rangeability
 
     def above_min(load):
-        _, p, w = _steam_at(coil, load, design.load)
-        return valvemod.required_cv(w, p1, p, rho1, v.xt) - cv_min
+        _, p, w = b.state(load, idx)
+        return valvemod.required_cv(w, p1, p, rho1, xt) - cv_min
 
-    min_load = float(bisect(above_min, 1e-9, 1.0))
-    if not np.isfinite(min_load):
-        min_load = 1.0
-    result = ValveResult(cv=v.cv, required_cv_design=cv_design, opening_design=float(
-        valvemod.travel(cv_design / v.cv, v.characteristic, v.rangeability)), capacity_ok=ok,
-        choked_at_design=bool(valvemod.is_choked(p1, design.coil_pressure, v.xt)),
-        limited_load_fraction=limited_f, limited_coil_pressure=limited_p,
-        min_controllable_load=min_load, rangeability=v.rangeability, characteristic=v.characteristic)
-    return result, opening
+    min_load = bisect(above_min, np.full(idx.size, 1e-9), np.ones(idx.size), VALVE_STEPS)
+    min_load = np.where(np.isfinite(min_load), min_load, 1.0)
+    open_design = valvemod.travel(cv_design / cv, characteristic, rangeability)
+    choked = valvemod.is_choked(p1, b.design_pressure[idx], xt)
+    for k, i in enumerate(idx):
+        results[i] = ValveResult(
+            cv=float(cv[k]), required_cv_design=float(cv_design[k]), opening_design=float(open_design[k]),
+            capacity_ok=bool(ok[k]), choked_at_design=bool(choked[k]),
+            limited_load_fraction=None if ok[k] else float(limited_f[k]),
+            limited_coil_pressure=None if ok[k] else float(limited_p[k]),
+            min_controllable_load=float(min_load[k]), rangeability=float(rangeability[k]),
+            characteristic=str(characteristic[k]))
+    return results, opening
 
 
 def _bin_loads(unit: Unit, coil) -> tuple[np.ndarray | None, np.ndarray | None]:
@@ -287,7 +474,7 @@ def _assumptions(unit: Unit, clipped: bool, trap) -> tuple[str, ...]:
         out.append("Liquid cp (and density, for volume flows) at the mean design temperature (CoolProp).")
     if unit.valve is not None:
         out.append("Valve: IEC 60534-2-1 with γ = 1.30 for steam, F_P = 1, inherent characteristic.")
-    out.append(_trap_basis(unit, trap))
+    out.append(_trap_basis(trap))
     if clipped:
         out.append("At the lowest loads the steam temperature the model asks for is below 0 °C; "
                    "those points are held at the bottom of the steam tables (0 °C, 0.61 kPa(abs)).")
@@ -295,7 +482,7 @@ def _assumptions(unit: Unit, clipped: bool, trap) -> tuple[str, ...]:
     return tuple(out)
 
 
-def _trap_basis(unit: Unit, trap) -> str:
+def _trap_basis(trap) -> str:
     """Where the trap's capacity comes from, in words."""
     if trap.basis == "table":
         return ("Trap capacity: the [[drain.capacity]] table, read on log-log axes, scaled as the square "

@@ -34,45 +34,67 @@ import numpy as np
 
 @dataclass(frozen=True)
 class CoilModel:
-    """Design point of a coil, enough to find the steam temperature at any load.
+    """Design point of one coil or of many (every field then an array of the same shape),
+    enough to find the steam temperature at any load.
 
     Attributes
     ----------
-    method : str
+    method : str or ndarray of str
         ``"ntu"`` or ``"mean-temperature"``.
-    varies : str
+    varies : str or ndarray of str
         ``"inlet-temperature"`` or ``"flow"``.
-    inlet_design : float
+    inlet_design : float or ndarray
         Entering temperature at full load. [K]
-    outlet : float
+    outlet : float or ndarray
         Leaving temperature held by the control (set point). [K]
-    steam_design : float
+    steam_design : float or ndarray
         Saturation temperature in the coil at full load. [K]
-    ua_exponent : float
+    ua_exponent : float or ndarray
         n in UA ∝ flowⁿ, 0 ≤ n ≤ 1. [-]
     """
 
-    method: str
-    varies: str
-    inlet_design: float
-    outlet: float
-    steam_design: float
-    ua_exponent: float = 0.0
+    method: object
+    varies: object
+    inlet_design: object
+    outlet: object
+    steam_design: object
+    ua_exponent: object = 0.0
 
     @property
-    def effectiveness_design(self) -> float:
+    def by_inlet(self):
+        """True where the load follows the entering temperature."""
+        return np.asarray(self.varies) == "inlet-temperature"
+
+    @property
+    def by_ntu(self):
+        """True where the method is NTU."""
+        return np.asarray(self.method) == "ntu"
+
+    @property
+    def effectiveness_design(self):
         """ε at design = (T_out − T_in)/(T_steam − T_in). [-]"""
-        return (self.outlet - self.inlet_design) / (self.steam_design - self.inlet_design)
+        return (np.asarray(self.outlet) - self.inlet_design) / (np.asarray(self.steam_design) - self.inlet_design)
 
     @property
-    def ntu_design(self) -> float:
+    def ntu_design(self):
         """NTU at design = −ln(1 − ε). [-]"""
-        return float(-np.log1p(-self.effectiveness_design))
+        return -np.log1p(-self.effectiveness_design)
 
     @property
-    def mean_design(self) -> float:
+    def mean_design(self):
         """Mean of entering and leaving temperature at design. [K]"""
-        return 0.5 * (self.inlet_design + self.outlet)
+        return 0.5 * (np.asarray(self.inlet_design) + self.outlet)
+
+    def column(self) -> "CoilModel":
+        """The same coils with every field as a column (shape (N, 1)), to broadcast
+        against a row of loads."""
+        return CoilModel(*(np.asarray(getattr(self, name))[:, None] for name in
+                           ("method", "varies", "inlet_design", "outlet", "steam_design", "ua_exponent")))
+
+    def take(self, index) -> "CoilModel":
+        """The coils at ``index`` (an integer or an index array)."""
+        return CoilModel(*(np.asarray(getattr(self, name))[index] for name in
+                           ("method", "varies", "inlet_design", "outlet", "steam_design", "ua_exponent")))
 
 
 def steam_temperature(coil: CoilModel, load):
@@ -82,7 +104,7 @@ def steam_temperature(coil: CoilModel, load):
     ----------
     coil : CoilModel
     load : float or ndarray
-        Load fraction Q/Q_design, 0 ≤ f. [-]
+        Load fraction Q/Q_design, 0 ≤ f; broadcasts against the coil's fields. [-]
 
     Returns
     -------
@@ -90,17 +112,14 @@ def steam_temperature(coil: CoilModel, load):
         T_steam(f) [K].
     """
     f = np.asarray(load, dtype=float)
-    if coil.varies == "inlet-temperature":
-        return coil.outlet + f * (coil.steam_design - coil.outlet)
-    n = coil.ua_exponent
-    dt = coil.outlet - coil.inlet_design
-    if coil.method == "ntu":
-        with np.errstate(divide="ignore", over="ignore"):
-            ntu = coil.ntu_design * np.power(f, n - 1.0)
-        eps = -np.expm1(-ntu)
-        return coil.inlet_design + dt / eps
-    with np.errstate(divide="ignore"):
-        return coil.mean_design + np.power(f, 1.0 - n) * (coil.steam_design - coil.mean_design)
+    outlet, steam, t_in = (np.asarray(a, dtype=float) for a in (coil.outlet, coil.steam_design, coil.inlet_design))
+    n = np.asarray(coil.ua_exponent, dtype=float)
+    linear = outlet + f * (steam - outlet)
+    with np.errstate(divide="ignore", over="ignore", invalid="ignore"):
+        ntu = coil.ntu_design * np.power(f, n - 1.0)
+        by_ntu = t_in + (outlet - t_in) / -np.expm1(-ntu)
+        mean = coil.mean_design + np.power(f, 1.0 - n) * (steam - coil.mean_design)
+    return np.where(coil.by_inlet, linear, np.where(coil.by_ntu, by_ntu, mean))
 
 
 def load_at_steam_temperature(coil: CoilModel, temperature):
@@ -119,36 +138,31 @@ def load_at_steam_temperature(coil: CoilModel, temperature):
         Steam saturation temperature. [K]
     """
     t = np.asarray(temperature, dtype=float)
-    if coil.varies == "inlet-temperature":
-        f = (t - coil.outlet) / (coil.steam_design - coil.outlet)
-        return np.maximum(f, 0.0)
-    n = coil.ua_exponent
-    if n >= 1.0:
-        return np.where(t >= coil.steam_design, np.inf, 0.0)
-    if coil.method == "ntu":
-        with np.errstate(divide="ignore", invalid="ignore"):
-            eps = (coil.outlet - coil.inlet_design) / (t - coil.inlet_design)
-            ntu = -np.log1p(-np.clip(eps, 0.0, 1.0))
-            f = np.power(ntu / coil.ntu_design, 1.0 / (n - 1.0))
-        return np.where(t <= coil.outlet, 0.0, f)
-    with np.errstate(invalid="ignore"):
-        ratio = (t - coil.mean_design) / (coil.steam_design - coil.mean_design)
-        f = np.power(np.maximum(ratio, 0.0), 1.0 / (1.0 - n))
-    return f
+    outlet, steam, t_in = (np.asarray(a, dtype=float) for a in (coil.outlet, coil.steam_design, coil.inlet_design))
+    n = np.asarray(coil.ua_exponent, dtype=float)
+    linear = np.maximum((t - outlet) / (steam - outlet), 0.0)
+    with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
+        eps = (outlet - t_in) / (t - t_in)
+        ntu = -np.log1p(-np.clip(eps, 0.0, 1.0))
+        by_ntu = np.where(t <= outlet, 0.0, np.power(ntu / coil.ntu_design, 1.0 / (n - 1.0)))
+        ratio = (t - coil.mean_design) / (steam - coil.mean_design)
+        mean = np.power(np.maximum(ratio, 0.0), 1.0 / (1.0 - n))
+    constant_ua = np.where(t >= steam, np.inf, 0.0)
+    flow = np.where(n >= 1.0, constant_ua, np.where(coil.by_ntu, by_ntu, mean))
+    return np.where(coil.by_inlet, linear, flow)
 
 
 def inlet_temperature(coil: CoilModel, load):
     """Entering temperature at a load fraction [K] (the design inlet where flow varies)."""
     f = np.asarray(load, dtype=float)
-    if coil.varies == "inlet-temperature":
-        return coil.outlet - f * (coil.outlet - coil.inlet_design)
-    return np.full_like(f, coil.inlet_design)
+    outlet, t_in = np.asarray(coil.outlet, dtype=float), np.asarray(coil.inlet_design, dtype=float)
+    return np.where(coil.by_inlet, outlet - f * (outlet - t_in), t_in + 0.0 * f)
 
 
 def load_at_inlet_temperature(coil: CoilModel, temperature):
     """Load fraction at an entering temperature [K] where the load follows it (≤ 0: off)."""
     t = np.asarray(temperature, dtype=float)
-    return (coil.outlet - t) / (coil.outlet - coil.inlet_design)
+    return (np.asarray(coil.outlet) - t) / (np.asarray(coil.outlet) - coil.inlet_design)
 
 
 def delivered_fraction(coil: CoilModel, temperature):
@@ -159,10 +173,10 @@ def delivered_fraction(coil: CoilModel, temperature):
     T_steam − T_in,design:  Q/Q_design = (T_s − T_in,d)/(T_s,d − T_in,d).
     """
     t = np.asarray(temperature, dtype=float)
-    return (t - coil.inlet_design) / (coil.steam_design - coil.inlet_design)
+    return (t - coil.inlet_design) / (np.asarray(coil.steam_design) - coil.inlet_design)
 
 
-def design_steam_temperature_for(coil: CoilModel, load: float, temperature: float) -> float:
+def design_steam_temperature_for(coil: CoilModel, load, temperature):
     """Design steam temperature [K] at which the coil needs exactly ``temperature`` [K]
     at ``load`` [-]: a coil of the same duty, larger or smaller, run at another design
     pressure. The inverse of :func:`steam_temperature` in its design temperature.
@@ -170,15 +184,16 @@ def design_steam_temperature_for(coil: CoilModel, load: float, temperature: floa
     NaN where no design temperature does it (a zero load, or a steam temperature at or
     below what the load needs with an infinitely large coil).
     """
-    f = float(load)
-    if f <= 0.0 or temperature <= coil.outlet:
-        return float("nan")
-    if coil.varies == "inlet-temperature":
-        return coil.outlet + (temperature - coil.outlet) / f
-    n = coil.ua_exponent
-    if coil.method == "ntu":
-        dt = coil.outlet - coil.inlet_design
-        eps = dt / (temperature - coil.inlet_design)
+    f = np.asarray(load, dtype=float)
+    t = np.asarray(temperature, dtype=float)
+    outlet, t_in = np.asarray(coil.outlet, dtype=float), np.asarray(coil.inlet_design, dtype=float)
+    n = np.asarray(coil.ua_exponent, dtype=float)
+    with np.errstate(divide="ignore", invalid="ignore"):
+        linear = outlet + (t - outlet) / f
+        dt = outlet - t_in
+        eps = dt / (t - t_in)
         ntu_design = -np.log1p(-eps) * f ** (1.0 - n)
-        return float(coil.inlet_design + dt / -np.expm1(-ntu_design))
-    return float(coil.mean_design + (temperature - coil.mean_design) / f ** (1.0 - n))
+        by_ntu = t_in + dt / -np.expm1(-ntu_design)
+        mean = coil.mean_design + (t - coil.mean_design) / f ** (1.0 - n)
+    out = np.where(coil.by_inlet, linear, np.where(coil.by_ntu, by_ntu, mean))
+    return np.where((f <= 0.0) | (t <= outlet), np.nan, out)

@@ -1,9 +1,9 @@
-"""Sizing the drain devices of one unit: the trap (capacity against differential and
-the drainage limit), a pump-trap, a constant purge, and the flash steam at the trap
-outlet.
+"""Sizing the drain devices: the trap (capacity against differential and the
+drainage limit), a pump-trap, a constant purge, and the flash steam at the trap outlet.
 
-Called by :mod:`stallcheck.analysis` with the unit's computed state; returns the
-figure dataclasses of :mod:`stallcheck.result`. Pressures absolute [Pa], flows [kg/s].
+Called by :mod:`stallcheck.analysis` with the computed state of a batch of units
+(arrays, one row per unit); returns the figure dataclasses of
+:mod:`stallcheck.result`. Pressures absolute [Pa], flows [kg/s].
 """
 
 from __future__ import annotations
@@ -13,14 +13,15 @@ from typing import Callable
 import numpy as np
 
 from stallcheck import flash as flashmod
+from stallcheck import coil as coilmod
 from stallcheck import properties, purge as purgemod, traps
-from stallcheck import quantities as q
-from stallcheck.errors import InputError
 from stallcheck.inputs import Unit
+from stallcheck.solve import bisect
 from stallcheck.result import FlashFigures, PumpTrapFigures, PurgeFigures, StallPoint, TrapFigures
 
-#: Loads at which the drainage limit is searched before interpolation.
-FINE_GRID = np.linspace(0.0, 1.0, 1001)
+#: Bisection halvings refining the drainage limit inside one step of the load grid
+#: (0.01 / 2**40: far below any figure shown).
+LIMIT_STEPS = 40
 #: Filling head a pump-trap needs where its maker's figure is not given [m]
 #: (common practice: of the order of a foot; check the device's own data).
 PUMP_FILL_HEAD = 0.3
@@ -28,12 +29,54 @@ PUMP_FILL_HEAD = 0.3
 #: from memory: about 1 bar, 15 psi; the maker's capacity table governs).
 MOTIVE_MARGIN = 100e3
 
-#: State of the unit at load fractions: (coil pressure [Pa], condensate [kg/s]).
+#: State of one unit at load fractions: (coil pressure [Pa], condensate [kg/s]).
 State = Callable[[np.ndarray], tuple[np.ndarray, np.ndarray]]
 
 
+class Capacities:
+    """What each unit's trap passes at a differential: from its rated table, or its
+    seat bore as an orifice.
+
+    Parameters
+    ----------
+    drains : list of Drain
+    back : ndarray
+        Back pressure of each unit. [Pa]
+    bores : ndarray
+        Seat bore of each unit's orifice model (NaN where a table is given). [m]
+    """
+
+    def __init__(self, drains, back, bores):
+        self.back = np.asarray(back, dtype=float)
+        self.bores = np.asarray(bores, dtype=float)
+        self.trap_min = np.maximum(np.array([d.trap_min_differential for d in drains], dtype=float), 0.0)
+        self.table = np.array([bool(d.capacity) for d in drains])
+        rows = max([len(d.capacity) for d in drains] + [2])
+        self.table_dp = np.ones((len(drains), rows))
+        self.table_w = np.ones((len(drains), rows))
+        for i, d in enumerate(drains):
+            if d.capacity:
+                dp = [c.differential for c in d.capacity]
+                w = [c.flow for c in d.capacity]
+                self.table_dp[i] = dp + [dp[-1]] * (rows - len(dp))
+                self.table_w[i] = w + [w[-1]] * (rows - len(w))
+
+    def __call__(self, differential, inlet_pressure, index=slice(None)):
+        """Capacity [kg/s] at differentials [Pa] with the trap inlet at ``inlet_pressure``
+        [Pa], for the units at ``index``; shapes (n,) or (n, m). Zero at or below the
+        trap's minimum opening differential."""
+        dp = np.asarray(differential, dtype=float)
+        back, bores, trap_min, table = (a[index] for a in (self.back, self.bores, self.trap_min, self.table))
+        if dp.ndim == 2:
+            back, bores, trap_min, table = back[:, None], bores[:, None], trap_min[:, None], table[:, None]
+        with np.errstate(invalid="ignore"):
+            orifice = traps.orifice_capacity(np.nan_to_num(bores, nan=0.0), np.maximum(inlet_pressure, back), back)
+        rated = traps.table_capacity_rows(dp, self.table_dp[index], self.table_w[index])
+        return np.where(dp > trap_min, np.where(table, rated, orifice), 0.0)
+
+
 class TrapCapacity:
-    """What the installed (or selected) trap passes at a differential.
+    """What one unit's trap passes at a differential (see :class:`Capacities`).
 
     Parameters
     ----------
@@ -45,26 +88,18 @@ class TrapCapacity:
     """
 
     def __init__(self, unit: Unit, back_pressure: float, bore: float | None):
-        self.drain = unit.drain
-        self.back = back_pressure
-        self.bore = bore
+        self._all = Capacities([unit.drain], [back_pressure], [np.nan if bore is None else bore])
 
     def __call__(self, differential, inlet_pressure):
-        """Capacity [kg/s] at differentials [Pa] with the trap inlet at ``inlet_pressure`` [Pa].
-        Zero at or below the trap's minimum opening differential."""
+        """Capacity [kg/s] at differentials [Pa] with the trap inlet at ``inlet_pressure`` [Pa]."""
         dp = np.asarray(differential, dtype=float)
-        if self.drain.capacity:
-            cap = traps.table_capacity(dp, [c.differential for c in self.drain.capacity],
-                                       [c.flow for c in self.drain.capacity])
-        else:
-            cap = traps.orifice_capacity(self.bore, np.maximum(inlet_pressure, self.back), self.back)
-        return np.where(dp > max(self.drain.trap_min_differential, 0.0), cap, 0.0)
+        out = self._all(dp.reshape(1, -1), np.asarray(inlet_pressure, dtype=float).reshape(1, -1))
+        return out.reshape(dp.shape)
 
 
-def working_point(effective: str, unit: Unit, state: State, stall: StallPoint, back: float,
-                  fill: float, atm: float) -> tuple[float, float, float]:
-    """The lowest differential the trap must still drain at, as arranged: (load [-],
-    condensate [kg/s], differential [Pa]).
+def working_points(b, effective, stall):
+    """The lowest differential each trap must still drain at, as arranged: (load [-],
+    condensate [kg/s], differential [Pa]), arrays with one element per unit.
 
     * a trap (or a purge) alone: the minimum load, where the coil pressure is lowest;
     * with a vacuum breaker: the coil is held at atmospheric pressure below the load
@@ -72,39 +107,38 @@ def working_point(effective: str, unit: Unit, state: State, stall: StallPoint, b
       head against the back pressure, with the condensate at that load;
     * a pump-trap: at the stall point, the fill head alone drives condensate into it.
     """
-    f_min = unit.load.minimum
-    p_min, w_min = (float(a[0]) for a in state(np.array([f_min])))
-    if effective == "pump-trap" and stall.occurs:
-        return stall.load_fraction, stall.condensate, fill
-    if effective == "trap-vacuum-breaker" and p_min < atm:
-        p, w = state(FINE_GRID)
-        above = p >= atm
-        f_atm = float(FINE_GRID[np.argmax(above)]) if np.any(above) else 1.0
-        w_atm = float(np.interp(f_atm, FINE_GRID, w))
-        return max(f_atm, f_min), max(w_atm, w_min), atm + fill - back
-    return f_min, w_min, p_min + fill - back
+    f_min = b.minimum
+    _, p_min, w_min = b.state(f_min)
+    f_atm = np.clip(coilmod.load_at_steam_temperature(b.coil, properties.saturation_temperature(b.atm)), 0.0, 1.0)
+    w_atm = b.state(f_atm)[2]
+    effective = np.array(effective)
+    occurs = np.array([s.occurs for s in stall])
+    pump = (effective == "pump-trap") & occurs
+    breaker = (effective == "trap-vacuum-breaker") & (p_min < b.atm) & ~pump
+    f_stall = np.array([s.load_fraction if s.occurs else 0.0 for s in stall])
+    w_stall = np.array([s.condensate if s.occurs else 0.0 for s in stall])
+    load = np.where(pump, f_stall, np.where(breaker, np.maximum(f_atm, f_min), f_min))
+    flow = np.where(pump, w_stall, np.where(breaker, np.maximum(w_atm, w_min), w_min))
+    dp = np.where(pump, b.fill, np.where(breaker, b.atm + b.fill - b.back, p_min + b.fill - b.back))
+    return load, flow, dp
 
 
-def trap_figures(unit: Unit, effective: str, state: State, stall: StallPoint, coil_inlet: Callable,
-                 back: float, fill: float, atm: float, design_condensate: float,
-                 design_pressure: float) -> tuple[TrapFigures, TrapCapacity]:
-    """Trap selection figures and the drainage limit.
+def trap_figures(b, effective, stall, differential, coil_p, steam_flow):
+    """Trap selection figures and the drainage limit for every unit of a batch.
 
     Parameters
     ----------
-    unit : Unit
-    effective : str
-        The arrangement the trap works in: the installed one where it is adequate,
+    b : analysis.Batch
+    effective : list of str
+        The arrangement each trap works in: the installed one where it is adequate,
         else the required one.
-    state : callable
-        Load fractions → (coil pressure [Pa], condensate [kg/s]).
-    stall : StallPoint
-    coil_inlet : callable
-        Load fractions → entering temperature [K].
-    back, fill, atm : float
-        Back pressure, fill-head pressure and atmospheric pressure. [Pa]
-    design_condensate : float  [kg/s]
-    design_pressure : float  [Pa]
+    stall : list of StallPoint
+    differential, coil_p, steam_flow : ndarray, shape (n, len(LOAD_GRID))
+        On the analysis load grid. [Pa], [Pa], [kg/s]
+
+    Returns
+    -------
+    list of TrapFigures, and the capacity on the load grid, shape (n, grid) [kg/s].
 
     References
     ----------
@@ -112,54 +146,75 @@ def trap_figures(unit: Unit, effective: str, state: State, stall: StallPoint, co
        traps on modulating equipment for 1.5–2 × the condensing rate at 1/4 psi.
     .. [2] NAVFAC MO-209: trap safety factors 2:1 to 4:1, on hot-condensate ratings.
     """
-    dr = unit.drain
-    margin = dr.capacity_margin
-    w_load, w_flow, w_dp = working_point(effective, unit, state, stall, back, fill, atm)
-    required = margin * design_condensate
-    if dr.capacity:
-        basis, bore = "table", None
-    elif dr.trap_orifice is not None:
-        basis, bore = "orifice", dr.trap_orifice
-    else:
-        basis = "selected"
-        sizing = max(w_dp, traps.SELECTION_DIFFERENTIAL)
-        bore = traps.equivalent_bore(required, back + sizing, back)
-    capacity = TrapCapacity(unit, back, bore)
-    installed = None if basis == "selected" else float(capacity(w_dp, back + w_dp))
+    from stallcheck.analysis import LOAD_GRID
 
-    p, w = state(FINE_GRID)
-    inlet = p + fill
-    cap = capacity(inlet - back, inlet)
-    limit, _ = traps.drainage_limit(FINE_GRID, w, cap)
-    figures = dict(basis=basis, bore=bore, margin=margin, design_condensate=design_condensate,
-                   design_differential=design_pressure + fill - back, working_load=w_load,
-                   working_condensate=w_flow, working_differential=w_dp, required_capacity=required,
-                   installed_capacity=installed, limit_load=None)
-    if limit > 0.0:
-        p_l, w_l = (float(a[0]) for a in state(np.array([limit])))
-        inlet_t = float(coil_inlet(limit)) if unit.load.varies == "inlet-temperature" else None
-        figures.update(limit_load=limit, limit_coil_pressure=p_l, limit_differential=p_l + fill - back,
-                       limit_condensate=w_l, limit_inlet_temperature=inlet_t)
-    return TrapFigures(**figures), capacity
+    drains = [u.drain for u in b.units]
+    margin = np.array([d.capacity_margin for d in drains])
+    w_load, w_flow, w_dp = working_points(b, effective, stall)
+    required = margin * b.steam_design
+    basis = np.array(["table" if d.capacity else "orifice" if d.trap_orifice is not None else "selected"
+                      for d in drains])
+    given = np.array([np.nan if d.trap_orifice is None else d.trap_orifice for d in drains])
+    sizing = np.maximum(w_dp, traps.SELECTION_DIFFERENTIAL)
+    selected = traps.equivalent_bore(required, b.back + sizing, b.back)
+    bores = np.where(basis == "selected", selected, np.where(basis == "orifice", given, np.nan))
+    capacity = Capacities(drains, b.back, bores)
+    installed = capacity(w_dp, b.back + w_dp)
+
+    fill = b.fill[:, None]
+    grid_cap = capacity(differential, coil_p + fill)
+    limit = _limits(b, capacity, steam_flow, grid_cap, LOAD_GRID)
+    has = np.isfinite(limit)
+    at = np.where(has, limit, 0.0)
+    _, p_l, w_l = b.state(at)
+    inlet_l = coilmod.inlet_temperature(b.coil, at)
+    out = []
+    for i, d in enumerate(drains):
+        figures = dict(basis=str(basis[i]), bore=None if basis[i] == "table" else float(bores[i]),
+                       margin=float(margin[i]), design_condensate=float(b.steam_design[i]),
+                       design_differential=float(b.design_pressure[i] + b.fill[i] - b.back[i]),
+                       working_load=float(w_load[i]), working_condensate=float(w_flow[i]),
+                       working_differential=float(w_dp[i]), required_capacity=float(required[i]),
+                       installed_capacity=None if basis[i] == "selected" else float(installed[i]), limit_load=None)
+        if has[i]:
+            by_inlet = b.units[i].load.varies == "inlet-temperature"
+            figures.update(limit_load=float(limit[i]), limit_coil_pressure=float(p_l[i]),
+                           limit_differential=float(p_l[i] + b.fill[i] - b.back[i]),
+                           limit_condensate=float(w_l[i]),
+                           limit_inlet_temperature=float(inlet_l[i]) if by_inlet else None)
+        out.append(TrapFigures(**figures))
+    return out, grid_cap
+
+
+def _limits(b, capacity, need, cap, grid):
+    """Drainage limit of each unit [-]: the highest load at which the trap passes less than
+    the condensate; NaN where it keeps up at every load above zero.
+
+    The last shortfall on the load grid brackets it; bisection on the shortfall then
+    pins it inside that step.
+    """
+    short = (cap < need) & (grid[None, :] > 0)
+    n, m = short.shape
+    last = m - 1 - np.argmax(short[:, ::-1], axis=1)
+    limit = np.where(short.any(axis=1), np.where(last == m - 1, 1.0, np.nan), np.nan)
+    refine = np.flatnonzero(short.any(axis=1) & (last < m - 1))
+    if refine.size:
+        lo, hi = grid[last[refine]], grid[last[refine] + 1]
+
+        def gap(load):
+            _, p, w = b.state(load, refine)
+            inlet = p + b.fill[refine]
+            return w - capacity(inlet - b.back[refine], inlet, refine)
+
+        limit[refine] = bisect(gap, lo, hi, LIMIT_STEPS)
+    return limit
 
 
 def pump_trap_figures(unit: Unit, required: str, stall: StallPoint, back: float,
-                      supply: float, source: str) -> PumpTrapFigures | None:
-    """A pump-trap's duty where one is installed or required (None otherwise).
-
-    Raises
-    ------
-    InputError
-        Where ``drain.motive_pressure`` is given at or below the back pressure.
-    """
+                      supply: float) -> PumpTrapFigures | None:
+    """A pump-trap's duty where one is installed or required (None otherwise). A motive
+    pressure at or below the back pressure is refused before the analysis."""
     dr = unit.drain
-    if dr.motive_pressure is not None and dr.motive_pressure <= back:
-        raise InputError("drain.motive_pressure",
-                         f"{q.show(dr.motive_pressure, 'pressure', unit.system, unit.site.atmospheric_pressure)} "
-                         f"is not above the back pressure on the drain "
-                         f"({q.show(back, 'pressure', unit.system, unit.site.atmospheric_pressure)}: return "
-                         f"pressure plus lift); a pump-trap cannot push against it. Give the motive steam or "
-                         f"air pressure at the pump-trap inlet.", file=source)
     installed = dr.arrangement == "pump-trap"
     if not installed and required != "pump-trap":
         return None
@@ -217,15 +272,20 @@ def purge_figures(unit: Unit, state: State, back: float, design_pressure: float,
                         currency=unit.site.currency)
 
 
-def flash_figures(unit: Unit, design_pressure: float, design_condensate: float) -> FlashFigures:
-    """Flash steam at full load as the condensate drops to the return pressure."""
-    dr = unit.drain
-    x = float(flashmod.flash_fraction(design_pressure, dr.return_pressure))
-    velocity = None
-    if dr.return_line is not None:
-        velocity = float(flashmod.mixture_velocity(design_condensate, x, dr.return_pressure, dr.return_line))
-    return FlashFigures(fraction=x, flow=x * design_condensate,
-                        volume_flow=float(flashmod.flash_volume(design_condensate, x, dr.return_pressure)),
-                        line_diameter=dr.return_line, velocity=velocity,
-                        return_temperature=dr.return_temperature,
-                        return_saturation_temperature=float(properties.saturation_temperature(dr.return_pressure)))
+def flash_figures(b) -> list[FlashFigures]:
+    """Flash steam at full load as each unit's condensate drops to its return pressure."""
+    x = flashmod.flash_fraction(b.design_pressure, b.return_pressure)
+    volume = flashmod.flash_volume(b.steam_design, x, b.return_pressure)
+    t_sat = properties.saturation_temperature(b.return_pressure)
+    lines = np.array([np.nan if u.drain.return_line is None else u.drain.return_line for u in b.units])
+    with np.errstate(invalid="ignore"):
+        velocity = flashmod.mixture_velocity(b.steam_design, x, b.return_pressure, lines)
+    out = []
+    for i, u in enumerate(b.units):
+        dr = u.drain
+        out.append(FlashFigures(fraction=float(x[i]), flow=float(x[i] * b.steam_design[i]),
+                                volume_flow=float(volume[i]), line_diameter=dr.return_line,
+                                velocity=None if dr.return_line is None else float(velocity[i]),
+                                return_temperature=dr.return_temperature,
+                                return_saturation_temperature=float(t_sat[i])))
+    return out

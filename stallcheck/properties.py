@@ -104,7 +104,7 @@ def _medium_fluid(medium: str, concentration: float | None) -> str:
 LIQUID_PRESSURE = 500e3
 
 
-def medium_cp(medium: str, concentration: float | None, temperature: float) -> float:
+def medium_cp(medium: str, concentration: float | None, temperature):
     """Specific heat [J/(kg·K)] of a heated liquid at a temperature [K].
 
     Parameters
@@ -113,14 +113,12 @@ def medium_cp(medium: str, concentration: float | None, temperature: float) -> f
         ``"water"``, ``"ethylene-glycol"`` or ``"propylene-glycol"``.
     concentration : float or None
         Glycol mass fraction [-].
-    temperature : float
+    temperature : float or ndarray
         Usually the mean design temperature. [K]
     """
-    return float(_props("C", "T", temperature, "P", LIQUID_PRESSURE,
-                        _medium_fluid(medium, concentration)))
+    return _props("C", "T", temperature, "P", LIQUID_PRESSURE, _medium_fluid(medium, concentration))
 
 
-def medium_density(medium: str, concentration: float | None, temperature: float) -> float:
+def medium_density(medium: str, concentration: float | None, temperature):
     """Density [kg/m³] of a heated liquid at a temperature [K] (see :func:`medium_cp`)."""
-    return float(_props("D", "T", temperature, "P", LIQUID_PRESSURE,
-                        _medium_fluid(medium, concentration)))
+    return _props("D", "T", temperature, "P", LIQUID_PRESSURE, _medium_fluid(medium, concentration))

@@ -16,7 +16,6 @@ import numpy as np
 from stallcheck import coil as coilmod
 from stallcheck import properties
 from stallcheck import quantities as q
-from stallcheck.drainage import head
 from stallcheck.inputs import Unit
 from stallcheck.quantities import GRAVITY
 from stallcheck.result import Remedy
@@ -25,30 +24,68 @@ from stallcheck.result import Remedy
 DESIGN_PRESSURE_LIMIT = 2.0e6
 
 
-def solve(unit: Unit, coil: coilmod.CoilModel, p_min: float, system: str) -> tuple[Remedy, ...]:
-    """The limit of each single change (see the module docstring).
+def solve(b, p_min, systems) -> list[tuple[Remedy, ...]]:
+    """The limit of each single change (see the module docstring), for every unit of a
+    batch.
 
     Parameters
     ----------
-    unit : Unit
-    coil : CoilModel
-    p_min : float
-        Coil pressure the minimum load needs. [Pa]
-    system : str
-        ``"si"`` or ``"us"``, for the words.
+    b : analysis.Batch
+    p_min : ndarray
+        Coil pressure each unit needs at its minimum load. [Pa]
+    systems : list of str
+        ``"si"`` or ``"us"`` for each unit's words.
 
     Returns
     -------
-    tuple of Remedy
-        Lift, return pressure, trap minimum differential, fill head, design steam
-        pressure, in that order.
+    list of tuple of Remedy
+        For each unit: lift, return pressure, trap minimum differential, fill head and
+        design steam pressure, in that order.
     """
+    rho, back, fill_p = b.density, b.back, b.fill
+    lift = (p_min + fill_p - b.return_pressure - b.trap_min) / (rho * GRAVITY)
+    # return pressure r: r + ρ(r)·g·(lift − fill) + Δp_trap = p_min, ρ at r (a few passes)
+    r = b.return_pressure.copy()
+    for _ in range(4):
+        dens = properties.liquid_density(np.clip(r, properties.P_MIN, properties.P_CRIT))
+        r = p_min - b.trap_min - dens * GRAVITY * (b.lift - b.fill_height)
+    dp = p_min + fill_p - back
+    fill = np.maximum((back + b.trap_min - p_min) / (rho * GRAVITY), 0.0)
+    design_t = _design_temperatures(b)
+    return [_words(b.units[i], systems[i], float(p_min[i]), float(lift[i]), float(r[i]), float(dp[i]),
+                   float(fill[i]), float(back[i]), float(fill_p[i]), float(b.threshold[i]), design_t[i])
+            for i in range(len(b.units))]
+
+
+def _design_temperatures(b) -> list:
+    """Design steam temperature [K] putting each unit's stall at its minimum load, or a
+    reason word where none does (see :func:`_design_pressure`)."""
+    thr = b.threshold
+    valid = thr > properties.P_MIN
+    t_thr = properties.saturation_temperature(np.clip(thr, properties.P_MIN, properties.P_CRIT))
+    t_design = coilmod.design_steam_temperature_for(b.coil, b.minimum, t_thr)
+    finite = np.isfinite(t_design) & valid
+    t_safe = np.where(finite, np.clip(t_design, properties.T_MIN, properties.T_CRIT), properties.T_MIN)
+    p_design = properties.saturation_pressure(t_safe)
+    out = []
+    for i in range(len(thr)):
+        if not valid[i]:
+            out.append("below-tables")
+        elif not finite[i]:
+            out.append("set-point" if t_thr[i] <= b.coil.outlet[i] else "none")
+        elif t_design[i] >= properties.T_CRIT or p_design[i] > DESIGN_PRESSURE_LIMIT:
+            out.append("too-high")
+        else:
+            out.append(float(p_design[i]))
+    return out
+
+
+def _words(unit: Unit, system: str, p_min: float, lift: float, ret: float, dp: float, fill: float,
+           back: float, fill_p: float, threshold: float, design) -> tuple[Remedy, ...]:
+    """The remedies of one unit with their notes."""
     dr = unit.drain
     atm = unit.site.atmospheric_pressure
     f_min = unit.load.minimum
-    rho = float(properties.liquid_density(dr.return_pressure))
-    fill_p = head(dr.fill_head, rho)
-    back = dr.return_pressure + head(dr.lift, rho)
     below = f"below {f_min:.0%} load" if f_min > 0 else "at every load"
     down_to = f"down to {f_min:.0%} load" if f_min > 0 else "at every load"
 
@@ -59,8 +96,6 @@ def solve(unit: Unit, coil: coilmod.CoilModel, p_min: float, system: str) -> tup
         return q.show(m, "length", system)
 
     out = []
-    # Lift: p_min + fill = return + ρ·g·lift + Δp_trap
-    lift = (p_min + fill_p - dr.return_pressure - dr.trap_min_differential) / (rho * GRAVITY)
     if lift < 0:
         out.append(Remedy("drain.lift", "length", dr.lift, None,
                           f"no lift keeps this unit draining {below}: even with none, the coil pressure "
@@ -71,23 +106,16 @@ def solve(unit: Unit, coil: coilmod.CoilModel, p_min: float, system: str) -> tup
                           f"a lift of at most {length(lift)} after the trap keeps it draining {down_to} "
                           f"(now {length(dr.lift)})"))
 
-    # Return pressure: r + ρ(r)·g·(lift − fill) + Δp_trap = p_min, ρ at r (a few passes).
-    r = dr.return_pressure
-    for _ in range(4):
-        dens = float(properties.liquid_density(min(max(r, properties.P_MIN), properties.P_CRIT)))
-        r = p_min - dr.trap_min_differential - dens * GRAVITY * (dr.lift - dr.fill_head)
-    if r < properties.P_MIN:
+    if ret < properties.P_MIN:
         out.append(Remedy("drain.return_pressure", "pressure", dr.return_pressure, None,
                           f"no return pressure keeps it draining {below}: the lift needs more than the coil "
                           f"has there ({p(p_min)}) even against a full vacuum"))
     else:
-        vacuum = " (below atmospheric: only a vacuum return holds that)" if r < atm else ""
-        out.append(Remedy("drain.return_pressure", "pressure", dr.return_pressure, r,
-                          f"a return pressure of at most {p(r)}{vacuum} keeps it draining {down_to} "
+        vacuum = " (below atmospheric: only a vacuum return holds that)" if ret < atm else ""
+        out.append(Remedy("drain.return_pressure", "pressure", dr.return_pressure, ret,
+                          f"a return pressure of at most {p(ret)}{vacuum} keeps it draining {down_to} "
                           f"(now {p(dr.return_pressure)})"))
 
-    # Trap minimum differential: Δp = p_min + fill − back
-    dp = p_min + fill_p - back
     if dp <= 0:
         out.append(Remedy("drain.trap_min_differential", "differential", dr.trap_min_differential, None,
                           f"no trap keeps it draining {below}: there the coil pressure plus the fill head "
@@ -97,43 +125,39 @@ def solve(unit: Unit, coil: coilmod.CoilModel, p_min: float, system: str) -> tup
                           f"a trap that opens at {p(dp, 'differential')} or less keeps it draining {down_to} "
                           f"(now {p(dr.trap_min_differential, 'differential')})"))
 
-    # Fill head: ρ·g·fill = back + Δp_trap − p_min
-    fill = max((back + dr.trap_min_differential - p_min) / (rho * GRAVITY), 0.0)
     if fill > dr.fill_head:
         note = (f"a fill head of {length(fill)} ({length(fill - dr.fill_head)} more than now) keeps it "
                 f"draining {down_to}")
         if fill > 3.0:
             note += "; that much height is seldom available, so a pump-trap is the practical fix"
+    elif fill == 0.0:
+        note = f"no fill head is needed to drain {down_to} (now {length(dr.fill_head)})"
     else:
         note = f"a fill head of {length(fill)} is enough to drain {down_to} (now {length(dr.fill_head)})"
     out.append(Remedy("drain.fill_head", "length", dr.fill_head, fill, note))
-
-    out.append(_design_pressure(unit, coil, back + dr.trap_min_differential - fill_p, below, down_to, p))
+    out.append(_design_pressure(unit, design, threshold, below, down_to, p))
     return tuple(out)
 
 
-def _design_pressure(unit: Unit, coil: coilmod.CoilModel, threshold: float, below: str, down_to: str,
-                     p) -> Remedy:
-    """Design steam pressure at which the coil needs exactly the stall pressure at f_min."""
+def _design_pressure(unit: Unit, design, threshold: float, below: str, down_to: str, p) -> Remedy:
+    """The design steam pressure remedy from its solved value or the reason none works."""
     current = unit.design.steam_pressure
     key = "design.steam_pressure"
-    if threshold <= properties.P_MIN:
+    if design == "below-tables":
         return Remedy(key, "pressure", current, properties.P_MIN,
                       "any design pressure: the trap drains even with the coil at the bottom of the steam tables")
-    t_threshold = float(properties.saturation_temperature(min(threshold, properties.P_CRIT)))
-    t_design = coilmod.design_steam_temperature_for(coil, unit.load.minimum, t_threshold)
-    if not np.isfinite(t_design):
-        if t_threshold <= coil.outlet:
-            return Remedy(key, "pressure", current, properties.P_MIN,
-                          "any design pressure: the stall pressure is below the set point's saturation pressure")
+    if design == "set-point":
+        return Remedy(key, "pressure", current, properties.P_MIN,
+                      "any design pressure: the stall pressure is below the set point's saturation pressure")
+    if design == "none":
         return Remedy(key, "pressure", current, None,
                       f"no design pressure keeps it draining {below}: at no load the coil needs only the "
                       f"set point's saturation pressure, below the stall pressure ({p(threshold)})")
-    if t_design >= properties.T_CRIT or float(properties.saturation_pressure(t_design)) > DESIGN_PRESSURE_LIMIT:
+    if design == "too-high":
         return Remedy(key, "pressure", current, None,
                       f"no practical design pressure keeps it draining {below}: it would take more than "
                       f"{p(DESIGN_PRESSURE_LIMIT)} at full load")
-    value = float(properties.saturation_pressure(max(t_design, properties.T_MIN)))
+    value = design
     if value > current:
         note = (f"a smaller coil selected for {p(value)} at full load (now {p(current)}) keeps the coil "
                 f"pressure up and drains {down_to}")

@@ -144,7 +144,7 @@ def seat_mass_flux(inlet_pressure, outlet_pressure, seat_length: float = SEAT_LE
     return np.where(dp > 0, g, 0.0)
 
 
-def orifice_capacity(diameter: float, inlet_pressure, outlet_pressure,
+def orifice_capacity(diameter, inlet_pressure, outlet_pressure,
                      discharge_coefficient: float = DISCHARGE_COEFFICIENT):
     """Saturated condensate a trap seat of a given bore passes [kg/s].
 
@@ -179,49 +179,41 @@ def table_capacity(differential, table_differential, table_flow):
         Rated rows, differentials increasing. [Pa], [kg/s]
     """
     dp = np.asarray(differential, dtype=float)
-    x = np.log(np.asarray(table_differential, dtype=float))
-    y = np.log(np.asarray(table_flow, dtype=float))
-    positive = dp > 0
-    with np.errstate(divide="ignore"):
-        inside = np.exp(np.interp(np.log(np.where(positive, dp, 1.0)), x, y))
-    low = np.exp(y[0]) * np.sqrt(np.maximum(dp, 0.0) / np.exp(x[0]))
-    return np.where(~positive, 0.0, np.where(dp < np.exp(x[0]), low, inside))
+    rows = table_capacity_rows(dp.reshape(1, -1), np.asarray(table_differential, dtype=float)[None, :],
+                               np.asarray(table_flow, dtype=float)[None, :])
+    return rows.reshape(dp.shape)
 
 
-def drainage_limit(load, need, capacity):
-    """Highest load at which the device cannot pass the condensate [-].
+def table_capacity_rows(differential, table_differential, table_flow):
+    """:func:`table_capacity` for many devices at once, one table per row [kg/s].
 
     Parameters
     ----------
-    load : ndarray
-        Load fractions, increasing, fine enough to separate crossings. [-]
-    need : ndarray
-        Condensate to pass at each load. [kg/s]
-    capacity : ndarray
-        What the device passes at the differential it has at each load. [kg/s]
-
-    Returns
-    -------
-    tuple of (float, int or None)
-        The load where capacity first covers the need going up from the last
-        shortfall, by linear interpolation between grid points (0.0 where the device
-        keeps up at every load above zero), and the index of the last short point.
+    differential : ndarray, shape (n,) or (n, m)
+        Differentials for each device. [Pa]
+    table_differential, table_flow : ndarray, shape (n, k)
+        Each device's rows; a shorter table is padded by repeating its last row. [Pa], [kg/s]
     """
-    short = (capacity < need) & (load > 0)
-    if not np.any(short):
-        return 0.0, None
-    i = int(np.flatnonzero(short)[-1])
-    if i == len(load) - 1:
-        return 1.0, i
-    gap0 = need[i] - capacity[i]
-    gap1 = need[i + 1] - capacity[i + 1]
-    t = gap0 / (gap0 - gap1) if gap0 != gap1 else 0.0
-    return float(load[i] + t * (load[i + 1] - load[i])), i
+    dp = np.asarray(differential, dtype=float)
+    one = dp.ndim == 1
+    if one:
+        dp = dp[:, None]
+    xs, ys = np.log(table_differential), np.log(table_flow)
+    with np.errstate(divide="ignore", invalid="ignore"):
+        x = np.log(np.where(dp > 0, dp, 1.0))
+        seg = np.clip(np.sum(xs[:, None, :-1] <= x[:, :, None], axis=2) - 1, 0, xs.shape[1] - 2)
+        x0, x1 = np.take_along_axis(xs, seg, 1), np.take_along_axis(xs, seg + 1, 1)
+        y0, y1 = np.take_along_axis(ys, seg, 1), np.take_along_axis(ys, seg + 1, 1)
+        inside = np.exp(y0 + (x - x0) / (x1 - x0) * (y1 - y0))
+    lowest_dp, lowest_w = table_differential[:, :1], table_flow[:, :1]
+    below = lowest_w * np.sqrt(np.maximum(dp, 0.0) / lowest_dp)
+    out = np.where(x >= xs[:, -1:], table_flow[:, -1:], np.where(dp < lowest_dp, below, inside))
+    out = np.where(dp > 0, out, 0.0)
+    return out[:, 0] if one else out
 
 
-def equivalent_bore(flow: float, inlet_pressure: float, outlet_pressure: float,
-                    discharge_coefficient: float = DISCHARGE_COEFFICIENT) -> float:
-    """Bore [m] of the orifice that passes ``flow`` [kg/s] between two pressures [Pa]."""
-    g = float(seat_mass_flux(inlet_pressure, outlet_pressure,
-                             discharge_coefficient=discharge_coefficient))
-    return float(np.sqrt(flow / g / (0.25 * np.pi)))
+def equivalent_bore(flow, inlet_pressure, outlet_pressure,
+                    discharge_coefficient: float = DISCHARGE_COEFFICIENT):
+    """Bore [m] of the seat that passes ``flow`` [kg/s] between two pressures [Pa]."""
+    g = seat_mass_flux(inlet_pressure, outlet_pressure, discharge_coefficient=discharge_coefficient)
+    return np.sqrt(np.asarray(flow) / g / (0.25 * np.pi))

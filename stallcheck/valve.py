@@ -84,7 +84,7 @@ def is_choked(upstream, downstream, xt):
     return (p1 - np.asarray(downstream)) / p1 >= F_GAMMA * xt
 
 
-def travel(cv_ratio, characteristic: str, rangeability: float):
+def travel(cv_ratio, characteristic, rangeability):
     """Valve travel h (0 shut, 1 fully open) that gives a fraction of full Cv [-].
 
     Equal percentage: C/C_max = R^(h − 1), so h = 1 + ln(C/C_max)/ln R; linear: h = C/C_max.
@@ -93,11 +93,11 @@ def travel(cv_ratio, characteristic: str, rangeability: float):
     open valve cannot pass the flow.
     """
     r = np.asarray(cv_ratio, dtype=float)
-    if characteristic == "linear":
-        return r
-    with np.errstate(divide="ignore"):
+    rangeability = np.asarray(rangeability, dtype=float)
+    with np.errstate(divide="ignore", invalid="ignore"):
         h = 1.0 + np.log(r) / np.log(rangeability)
-    return np.where(r <= 1.0 / rangeability, 0.0, h)
+    equal = np.where(r <= 1.0 / rangeability, 0.0, h)
+    return np.where(np.asarray(characteristic) == "linear", r, equal)
 
 
 def cv_fraction(travel_, characteristic: str, rangeability: float):
