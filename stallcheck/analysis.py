@@ -23,15 +23,15 @@ from stallcheck import quantities as q
 from stallcheck.errors import InputError, StallcheckError
 from stallcheck.inputs import Unit
 from stallcheck.result import DesignPoint, Drainage, Points, Result, StallPoint, ValveResult
-from stallcheck.solve import bisect
+from stallcheck.solve import illinois
 
 #: Specific heat of air [J/(kg·K)] (the unit-file conventions).
 AIR_CP = 1006.0
 #: Load fractions at which the result tabulates the unit.
 LOAD_GRID = np.linspace(0.0, 1.0, 101)
-#: Bisection halvings for the valve's solves: brackets of at most the whole load range
-#: or pressure span shrink below 1e-15 of themselves.
-VALVE_STEPS = 50
+#: The valve's solves stop within these: load fraction [-], coil pressure [Pa].
+LOAD_TOLERANCE = 1e-10
+PRESSURE_TOLERANCE = 1e-4
 
 
 def analyse(unit: Unit, system: str | None = None, method: str | None = None) -> Result:
@@ -301,7 +301,7 @@ def _analyse(units: list[Unit], systems: list[str]) -> list[Result]:
         drains.append(Drainage(u.drain.arrangement, need.required, ok, (need.reason, why)))
         effective.append(u.drain.arrangement if ok else need.required)
 
-    traps, capacity = devices.trap_figures(b, effective, stall, differential, coil_p, steam_flow)
+    traps, _ = devices.trap_figures(b, effective, stall)
     flashes = devices.flash_figures(b)
     p_min = b.state(b.minimum)[1]
     fixes = remedies.solve(b, p_min, systems)
@@ -314,13 +314,13 @@ def _analyse(units: list[Unit], systems: list[str]) -> list[Result]:
         points = Points(load_fraction=LOAD_GRID, inlet_temperature=inlet_t[i], coil_pressure=coil_p[i],
                         steam_temperature=steam_t[i], steam_flow=steam_flow[i], drain_differential=differential[i],
                         stalled=stalled[i], valve_opening=None if opening is None or valves[i] is None
-                        else opening[i], trap_capacity=capacity[i])
+                        else opening[i])
         s = stall[i]
         bins_load, bins_hours = _bin_loads(u, b.coil.take(i))
         stalled_hours, total_hours = _hours(u, s.load_fraction or 0.0, bins_load, bins_hours)
         pump = devices.pump_trap_figures(u, drains[i].required, s, float(b.back[i]), float(b.supply[i]))
         purge = devices.purge_figures(u, b.one(i), float(b.back[i]), float(b.design_pressure[i]),
-                                      bins_load, bins_hours)
+                                      float(p_min[i]), bins_load, bins_hours)
         result = Result(
             unit=u.name, tag=u.tag, source=u.source, system=systems[i], method=u.design.method,
             varies=u.load.varies, medium=u.design.medium, minimum_load=u.load.minimum,
@@ -396,7 +396,7 @@ def _valves(b: Batch, coil_p, steam_flow):
             need = b.load_design[units] * coilmod.delivered_fraction(coil, t) / properties.latent_heat(p)
             return valvemod.steam_flow(cv[short], p1[short], p, rho1[short], xt[short]) - need
 
-        found = bisect(excess, low, b.design_pressure[units], VALVE_STEPS)
+        found = illinois(excess, low, b.design_pressure[units], PRESSURE_TOLERANCE)
         solved = np.isfinite(found)
         p_lim = np.where(solved, found, low)
         f_solved = coilmod.delivered_fraction(coil, properties.saturation_temperature(p_lim))
@@ -414,7 +414,7 @@ def _valves(b: Batch, coil_p, steam_flow):
         _, p, w = b.state(load, idx)
         return valvemod.required_cv(w, p1, p, rho1, xt) - cv_min
 
-    min_load = bisect(above_min, np.full(idx.size, 1e-9), np.ones(idx.size), VALVE_STEPS)
+    min_load = illinois(above_min, np.full(idx.size, 1e-9), np.ones(idx.size), LOAD_TOLERANCE)
     min_load = np.where(np.isfinite(min_load), min_load, 1.0)
     open_design = valvemod.travel(cv_design / cv, characteristic, rangeability)
     choked = valvemod.is_choked(p1, b.design_pressure[idx], xt)

@@ -16,12 +16,13 @@ from stallcheck import flash as flashmod
 from stallcheck import coil as coilmod
 from stallcheck import properties, purge as purgemod, traps
 from stallcheck.inputs import Unit
-from stallcheck.solve import bisect
+from stallcheck.solve import illinois
 from stallcheck.result import FlashFigures, PumpTrapFigures, PurgeFigures, StallPoint, TrapFigures
 
-#: Bisection halvings refining the drainage limit inside one step of the load grid
-#: (0.01 / 2**40: far below any figure shown).
-LIMIT_STEPS = 40
+#: The drainage limit is solved to this fraction of design load [-].
+LIMIT_TOLERANCE = 1e-10
+#: Lowest load searched where the unit never stalls [-].
+LOWEST_LOAD = 1e-6
 #: Filling head a pump-trap needs where its maker's figure is not given [m]
 #: (common practice: of the order of a foot; check the device's own data).
 PUMP_FILL_HEAD = 0.3
@@ -123,7 +124,7 @@ def working_points(b, effective, stall):
     return load, flow, dp
 
 
-def trap_figures(b, effective, stall, differential, coil_p, steam_flow):
+def trap_figures(b, effective, stall):
     """Trap selection figures and the drainage limit for every unit of a batch.
 
     Parameters
@@ -133,12 +134,10 @@ def trap_figures(b, effective, stall, differential, coil_p, steam_flow):
         The arrangement each trap works in: the installed one where it is adequate,
         else the required one.
     stall : list of StallPoint
-    differential, coil_p, steam_flow : ndarray, shape (n, len(LOAD_GRID))
-        On the analysis load grid. [Pa], [Pa], [kg/s]
 
     Returns
     -------
-    list of TrapFigures, and the capacity on the load grid, shape (n, grid) [kg/s].
+    list of TrapFigures, and the :class:`Capacities` of the batch's traps.
 
     References
     ----------
@@ -146,8 +145,6 @@ def trap_figures(b, effective, stall, differential, coil_p, steam_flow):
        traps on modulating equipment for 1.5–2 × the condensing rate at 1/4 psi.
     .. [2] NAVFAC MO-209: trap safety factors 2:1 to 4:1, on hot-condensate ratings.
     """
-    from stallcheck.analysis import LOAD_GRID
-
     drains = [u.drain for u in b.units]
     margin = np.array([d.capacity_margin for d in drains])
     w_load, w_flow, w_dp = working_points(b, effective, stall)
@@ -161,9 +158,7 @@ def trap_figures(b, effective, stall, differential, coil_p, steam_flow):
     capacity = Capacities(drains, b.back, bores)
     installed = capacity(w_dp, b.back + w_dp)
 
-    fill = b.fill[:, None]
-    grid_cap = capacity(differential, coil_p + fill)
-    limit = _limits(b, capacity, steam_flow, grid_cap, LOAD_GRID)
+    limit = _limits(b, capacity, stall)
     has = np.isfinite(limit)
     at = np.where(has, limit, 0.0)
     _, p_l, w_l = b.state(at)
@@ -183,30 +178,32 @@ def trap_figures(b, effective, stall, differential, coil_p, steam_flow):
                            limit_condensate=float(w_l[i]),
                            limit_inlet_temperature=float(inlet_l[i]) if by_inlet else None)
         out.append(TrapFigures(**figures))
-    return out, grid_cap
+    return out, capacity
 
 
-def _limits(b, capacity, need, cap, grid):
-    """Drainage limit of each unit [-]: the highest load at which the trap passes less than
+def _limits(b, capacity, stall):
+    """Drainage limit of each unit [-]: the load below which the trap passes less than
     the condensate; NaN where it keeps up at every load above zero.
 
-    The last shortfall on the load grid brackets it; bisection on the shortfall then
-    pins it inside that step.
+    The shortfall (condensate less capacity) is positive at the stall point, where the
+    trap has no working differential, and falls as load and differential rise; its
+    zero between the stall point (or no load) and full load is the limit, found by a
+    bracketed solve. A trap short even at full load has its limit at full load.
     """
-    short = (cap < need) & (grid[None, :] > 0)
-    n, m = short.shape
-    last = m - 1 - np.argmax(short[:, ::-1], axis=1)
-    limit = np.where(short.any(axis=1), np.where(last == m - 1, 1.0, np.nan), np.nan)
-    refine = np.flatnonzero(short.any(axis=1) & (last < m - 1))
-    if refine.size:
-        lo, hi = grid[last[refine]], grid[last[refine] + 1]
+    def gap(load, index):
+        _, p, w = b.state(load, index)
+        inlet = p + b.fill[index]
+        return w - capacity(inlet - b.back[index], inlet, index)
 
-        def gap(load):
-            _, p, w = b.state(load, refine)
-            inlet = p + b.fill[refine]
-            return w - capacity(inlet - b.back[refine], inlet, refine)
-
-        limit[refine] = bisect(gap, lo, hi, LIMIT_STEPS)
+    n = len(b.units)
+    everywhere = np.arange(n)
+    low = np.array([s.load_fraction if s.occurs else LOWEST_LOAD for s in stall])
+    full = gap(np.ones(n), everywhere) > 0
+    start = gap(low, everywhere) > 0
+    limit = np.where(full, 1.0, np.nan)
+    solve = np.flatnonzero(start & ~full & (low < 1.0))
+    if solve.size:
+        limit[solve] = illinois(lambda load: gap(load, solve), low[solve], np.ones(solve.size), LIMIT_TOLERANCE)
     return limit
 
 
@@ -231,11 +228,13 @@ def pump_trap_figures(unit: Unit, required: str, stall: StallPoint, back: float,
         capacity=dr.pump_capacity)
 
 
-def purge_figures(unit: Unit, state: State, back: float, design_pressure: float,
+def purge_figures(unit: Unit, state: State, back: float, design_pressure: float, p_min: float,
                   bin_loads: np.ndarray | None, bin_hours: np.ndarray | None) -> PurgeFigures | None:
     """Steam a constant purge bleeds, and its yearly cost (None without a purge size).
 
-    The purge discharges with the condensate, against the back pressure. Yearly steam:
+    ``state`` gives the unit's coil pressure and condensate at loads; ``p_min`` [Pa] is
+    its coil pressure at the minimum load. The purge discharges with the condensate,
+    against the back pressure. Yearly steam:
     from the load bins where given (each bin at its own coil pressure), else from
     ``site.hours_per_year`` at the full-load rate (an upper bound).
     """
@@ -246,7 +245,6 @@ def purge_figures(unit: Unit, state: State, back: float, design_pressure: float,
         size = ("rate", dr.purge_rate)
     else:
         return None
-    p_min = float(state(np.array([unit.load.minimum]))[0][0])
     design_rate = float(purgemod.bled(size, design_pressure, back))
     minimum_rate = float(purgemod.bled(size, p_min, back))
     hours = yearly = None

@@ -103,8 +103,6 @@ class Points:
     stalled : ndarray of bool
     valve_opening : ndarray or None
         Travel 0–1 needed; above 1 where the open valve cannot pass the flow. [-]
-    trap_capacity : ndarray or None
-        What the trap passes at the differential it has there. [kg/s]
     """
 
     load_fraction: np.ndarray
@@ -115,7 +113,6 @@ class Points:
     drain_differential: np.ndarray
     stalled: np.ndarray
     valve_opening: np.ndarray | None = None
-    trap_capacity: np.ndarray | None = None
 
 
 @dataclass(frozen=True)

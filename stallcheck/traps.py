@@ -33,7 +33,15 @@ DEFAULT_MARGIN = 2.0
 SELECTION_DIFFERENTIAL = 0.25 * 6894.757293168
 
 
-def omega(pressure):
+def _saturated(pressure):
+    """Saturated-liquid properties the omega method needs, each evaluated once:
+    (T [K], ρ_l [kg/m³], ρ_g [kg/m³], c_p,l [J/(kg·K)], h_fg [J/kg])."""
+    p = np.asarray(pressure, dtype=float)
+    return (properties.saturation_temperature(p), properties.liquid_density(p), properties.vapour_density(p),
+            properties.liquid_cp(p), properties.latent_heat(p))
+
+
+def omega(pressure, saturated=None):
     r"""Leung's ω for saturated liquid water at an absolute pressure [Pa] [-].
 
     .. math:: \omega = \frac{c_{p,l} T_0 p_0}{v_{l,0}}\left(\frac{v_{lg,0}}{h_{lg,0}}\right)^2
@@ -47,11 +55,9 @@ def omega(pressure):
     .. [2] API Standard 520 Part I, Annex C (the omega method for two-phase flow).
     """
     p = np.asarray(pressure, dtype=float)
-    rho_l = properties.liquid_density(p)
-    rho_g = properties.vapour_density(p)
+    t, rho_l, rho_g, cp, h_fg = saturated if saturated is not None else _saturated(p)
     v_lg = 1.0 / rho_g - 1.0 / rho_l
-    return (properties.liquid_cp(p) * properties.saturation_temperature(p) * p * rho_l
-            * (v_lg / properties.latent_heat(p)) ** 2)
+    return cp * t * p * rho_l * (v_lg / h_fg) ** 2
 
 
 def critical_ratio(omega_):
@@ -67,7 +73,7 @@ def critical_ratio(omega_):
     return (1.0 + (1.0446 - 0.0093431 * np.sqrt(w)) * w ** -0.56261) ** (-0.70356 + 0.014685 * np.log(w))
 
 
-def flashing_mass_flux(inlet_pressure, outlet_pressure):
+def flashing_mass_flux(inlet_pressure, outlet_pressure, saturated=None):
     r"""Mass flux of saturated water through an ideal nozzle as it flashes [kg/(m²·s)]:
     homogeneous equilibrium flow by the omega method.
 
@@ -97,8 +103,9 @@ def flashing_mass_flux(inlet_pressure, outlet_pressure):
     .. [2] Leung, J. C. (1986), AIChE Journal 32(10), 1743–1746.
     """
     p0 = np.asarray(inlet_pressure, dtype=float)
-    w = omega(p0)
-    rho0 = properties.liquid_density(p0)
+    saturated = saturated if saturated is not None else _saturated(p0)
+    w = omega(p0, saturated)
+    rho0 = saturated[1]
     eta_c = critical_ratio(w)
     eta = np.clip(np.asarray(outlet_pressure, dtype=float) / p0, eta_c, 1.0)
     with np.errstate(invalid="ignore", divide="ignore"):
@@ -136,8 +143,9 @@ def seat_mass_flux(inlet_pressure, outlet_pressure, seat_length: float = SEAT_LE
     """
     p0 = np.asarray(inlet_pressure, dtype=float)
     dp = np.maximum(p0 - np.asarray(outlet_pressure, dtype=float), 0.0)
-    liquid_sq = discharge_coefficient ** 2 * 2.0 * properties.liquid_density(p0) * dp
-    eq = flashing_mass_flux(p0, outlet_pressure)
+    saturated = _saturated(p0)
+    liquid_sq = discharge_coefficient ** 2 * 2.0 * saturated[1] * dp
+    eq = flashing_mass_flux(p0, outlet_pressure, saturated)
     with np.errstate(divide="ignore", invalid="ignore"):
         inv = 1.0 / liquid_sq + (seat_length / RELAXATION_LENGTH) / eq ** 2
         g = 1.0 / np.sqrt(inv)

@@ -36,8 +36,6 @@ def to_dict(r: Result) -> dict:
         }
         if pts.valve_opening is not None:
             point["valve_opening"] = _clean(float(pts.valve_opening[i]))
-        if pts.trap_capacity is not None:
-            point["trap_capacity_kg_h"] = float(q.kg_h(pts.trap_capacity[i]))
         points.append(point)
     s = r.stall
     v = r.valve
