@@ -126,6 +126,80 @@ def demo(units: Optional[Units] = UNITS_OPT, json: bool = JSON_OPT) -> None:
     _show_check(result, json)
 
 
+#: Show a progress bar on stderr above this many units.
+PROGRESS_FROM = 300
+
+
+@app.command()
+def survey(paths: list[Path] = typer.Argument(..., help="Unit files, folders of them (searched recursively) "
+                                              "and CSV tables of units.", show_default=False, metavar="PATH..."),
+           units: Optional[Units] = UNITS_OPT, method: Optional[Method] = METHOD_OPT,
+           json: bool = typer.Option(False, "--json", help="Print every unit's result contract and the errors "
+                                     "as one JSON object, and nothing else."),
+           csv: Optional[Path] = typer.Option(None, "--csv", help="Also write the survey table to this CSV file.",
+                                              metavar="OUT.csv"),
+           force: bool = typer.Option(False, "--force", help="Let --csv replace an existing file.")) -> None:
+    """Survey many units: one line each, worst first.
+
+    Exit status 2 where any unit could not be read, else 1 where any is not adequate or
+    has a warning, else 0.
+    """
+    from stallcheck import files, survey as surveymod
+
+    if csv is not None:
+        try:
+            files.check_target(csv, "--csv", force)
+        except InputError as exc:
+            _fail(str(exc))
+    found = surveymod.sources(paths)
+    if not found:
+        _fail("no unit files (.toml) or CSV tables (.csv) in " + ", ".join(str(p) for p in paths))
+    system = units.value if units else None
+    method_ = method.value if method else None
+    stream = None
+    if json:
+        from stallcheck.render.survey import JsonStream
+
+        stream = JsonStream(sys.stdout)
+    progress = None
+    if sys.stderr.isatty():
+        total = surveymod.count(found)
+        if total > PROGRESS_FROM:
+            from rich.progress import Progress
+
+            from stallcheck.render import terminal
+
+            progress = Progress(console=terminal.console(stderr=True), transient=True)
+            task = progress.add_task("surveying", total=total)
+            progress.start()
+    try:
+        summaries, failures = surveymod.run(
+            found, system=system, method=method_, each=stream,
+            advance=(lambda k: progress.advance(task, k)) if progress else None)
+    finally:
+        if progress is not None:
+            progress.stop()
+    status = surveymod.exit_status(summaries, failures)
+    if stream is not None:
+        stream.close(failures, status)
+    else:
+        from stallcheck.render import survey as show, terminal
+
+        out = terminal.console()
+        terminal.emit(out, show.table(summaries, failures, system))
+        out.file.write("\n") if not out.is_terminal else None
+    for failure in failures:
+        typer.echo(f"stallcheck: {failure.message}", err=True)
+    if csv is not None:
+        from stallcheck.render import survey as show
+
+        try:
+            files.write_new(csv, show.csv_text(summaries, failures), "--csv", force)
+        except InputError as exc:
+            _fail(str(exc))
+    raise typer.Exit(status)
+
+
 #: What diagnose asks for, in order: (option, field, question).
 QUESTIONS = (
     ("--coil-pressure", "coil_pressure", "Steam pressure read at the coil inlet (such as 3 psig), blank if not read"),

@@ -37,7 +37,9 @@ class InputError(StallcheckError):
         where = self.file or "unit file"
         if self.line is not None:
             where += f", line {self.line}"
-        if self.key:
+        if self.key.startswith("--"):
+            where += f", option '{self.key}'"
+        elif self.key:
             where += f", key '{self.key}'"
         return f"{where}: {self.message}"
 

@@ -76,7 +76,7 @@ def core(unit: Unit, r: Result, system: str) -> tuple[Finding, ...]:
         freezing = _freeze_exposure(unit, r)
         if freezing:
             out.append(Finding("freeze-risk", "danger" if not r.drainage.adequate else "info", freezing))
-    if in_range and unit.drain.lift > 0:
+    if in_range and unit.drain.lift > 0 and unit.drain.arrangement != "pump-trap":
         out.append(Finding("lift-after-trap", "warning",
                            f"Condensate is lifted {q.show(unit.drain.lift, 'length', system)} straight after the trap "
                            f"of a coil that stalls: the lift adds to the back pressure and floods the coil at low "

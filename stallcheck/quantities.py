@@ -126,6 +126,11 @@ def _unit_info(unit_text: str) -> tuple[str, str] | None:
     return str(units), str(units.dimensionality)
 
 
+def unit_known(unit_text: str) -> bool:
+    """True where the units library knows this unit spelling."""
+    return _unit_info(unit_text) is not None
+
+
 @lru_cache(maxsize=64)
 def _dimension(si: str) -> str:
     return str(registry().parse_units(si).dimensionality)

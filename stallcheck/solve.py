@@ -70,20 +70,24 @@ def illinois(function, low, high, tolerance: float = 1e-12, iterations: int = 60
     valid = np.sign(fa) * np.sign(fb) <= 0
     side = np.zeros(a.shape, dtype=int)
     for _ in range(iterations):
-        if np.all(~valid | (np.abs(b - a) <= tolerance)):
+        # Each element stops on its own tolerance, so its answer never depends on the
+        # others solved beside it (a survey and a single check agree exactly).
+        active = valid & (np.abs(b - a) > tolerance)
+        if not active.any():
             break
         with np.errstate(invalid="ignore", divide="ignore"):
             c = (a * fb - b * fa) / (fb - fa)
         c = np.where(np.isfinite(c) & (c > np.minimum(a, b)) & (c < np.maximum(a, b)), c, 0.5 * (a + b))
         fc = np.asarray(function(c), dtype=float)
-        left = np.sign(fc) * np.sign(fa) <= 0        # root in [a, c]: replace b
-        exact = fc == 0
+        left = (np.sign(fc) * np.sign(fa) <= 0) & active  # root in [a, c]: replace b
+        right = ~left & active
+        exact = (fc == 0) & active
         # Illinois: halve the value kept at the end that stays, when it stays twice
         fa = np.where(left & (side == -1), 0.5 * fa, fa)
-        fb = np.where(~left & (side == 1), 0.5 * fb, fb)
+        fb = np.where(right & (side == 1), 0.5 * fb, fb)
         b, fb = np.where(left, c, b), np.where(left, fc, fb)
-        a, fa = np.where(left, a, c), np.where(left, fa, fc)
-        side = np.where(left, -1, 1)
+        a, fa = np.where(right, c, a), np.where(right, fc, fa)
+        side = np.where(left, -1, np.where(right, 1, side))
         a = np.where(exact, c, a)
         b = np.where(exact, c, b)
     return np.where(valid, 0.5 * (a + b), np.nan)

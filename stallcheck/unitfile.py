@@ -112,6 +112,26 @@ def parse(text: str, source: str = "unit file") -> Unit:
         raise exc.in_file(source) from None
 
 
+def from_data(data: dict, source: str, line: int | None = None) -> Unit:
+    """Validate a unit already read into nested tables (a CSV row, say).
+
+    Parameters
+    ----------
+    data : dict
+        The same tables and keys as a unit file.
+    source : str
+        The file it came from, for messages.
+    line : int, optional
+        The line it came from; the unit's source is then ``"file:line"``.
+    """
+    try:
+        return _build(data, source if line is None else f"{source}:{line}")
+    except InputError as exc:
+        exc = exc.in_file(source)
+        exc.line = line
+        raise exc from None
+
+
 # --- helpers -----------------------------------------------------------------------
 
 

@@ -1,0 +1,169 @@
+"""CSV tables of units, one unit per row, for surveys.
+
+The header names the unit file's keys in dotted form (``design.flow``, ``drain.lift``).
+A column's unit may sit in its header, ``drain.lift [ft]``, and its cells are then bare
+numbers; otherwise each cell carries its own, as in a unit file (``"8 ft"``). The unit
+of a header is checked once per column. Each row becomes the same nested tables as a
+unit file and is validated by :func:`stallcheck.unitfile.from_data`, so a CSV row is
+accepted or refused exactly as the same unit written in TOML. Load bins and capacity
+tables (arrays of tables) need a TOML unit file.
+"""
+
+from __future__ import annotations
+
+import csv
+import io
+import re
+from pathlib import Path
+from typing import Iterator
+
+from stallcheck import quantities as q
+from stallcheck.errors import InputError
+from stallcheck.unitfile import MAX_FILE_BYTES
+
+#: Largest CSV read [bytes]: a table of many thousands of units.
+MAX_CSV_BYTES = 100 * MAX_FILE_BYTES
+
+#: Keys whose values are plain numbers, whole numbers, true/false, or words.
+NUMBERS = {"valve.cv", "valve.kv", "valve.rangeability", "valve.xt", "load.minimum", "design.ua_flow_exponent",
+           "drain.capacity_margin", "site.hours_per_year", "site.steam_price"}
+WHOLE = {"format", "geometry.coils_per_trap"}
+FLAGS = {"geometry.distributing_tubes", "geometry.pitched_to_return", "geometry.drop_vented",
+         "geometry.drip_before_valve"}
+WORDS = {"unit.name", "unit.tag", "design.medium", "design.method", "valve.characteristic", "load.varies",
+         "drain.arrangement", "drain.trap", "geometry.tubes", "geometry.supply_feed", "site.currency"}
+_TRUE = {"true", "yes", "1"}
+_FALSE = {"false", "no", "0"}
+
+_HEADER = re.compile(r"^\s*([A-Za-z_]+(?:\.[A-Za-z_]+)?)\s*(?:\[\s*(.+?)\s*\])?\s*$")
+
+
+class _Column:
+    """One column: its key, the unit its header gives, and how to read its cells."""
+
+    __slots__ = ("section", "name", "key", "unit", "kind")
+
+    def __init__(self, key: str, unit: str | None):
+        self.key = key
+        self.section, _, self.name = key.rpartition(".")
+        self.unit = unit
+        self.kind = ("number" if key in NUMBERS else "whole" if key in WHOLE else "flag" if key in FLAGS
+                     else "words" if key in WORDS else "quantity")
+
+    def value(self, cell: str, source: str, line: int):
+        if self.kind == "words":
+            return cell
+        if self.kind == "flag":
+            low = cell.lower()
+            return True if low in _TRUE else False if low in _FALSE else cell
+        if self.kind in ("number", "whole"):
+            try:
+                number = float(cell)
+            except ValueError:
+                return cell  # the unit-file check names the key and what it takes
+            return int(number) if self.kind == "whole" and number.is_integer() else number
+        if self.unit is None:
+            return cell
+        try:
+            float(cell)
+        except ValueError:
+            raise InputError(self.key, f"the header gives the unit [{self.unit}], so the cells are bare "
+                                       f"numbers; got \"{cell}\".", file=source, line=line) from None
+        return f"{cell} {self.unit}"
+
+
+def _columns(header: list[str], source: str) -> list[_Column]:
+    columns = []
+    seen = set()
+    for text in header:
+        match = _HEADER.match(text)
+        if not match:
+            raise InputError(text.strip(), "is not a column name; write the unit file's dotted key, such as "
+                                           "\"drain.lift\" or \"drain.lift [ft]\".", file=source, line=1)
+        key, unit = match.group(1), match.group(2)
+        if key in seen:
+            raise InputError(key, "appears in two columns.", file=source, line=1)
+        seen.add(key)
+        column = _Column(key, unit)
+        if unit is not None:
+            if column.kind != "quantity":
+                raise InputError(key, f"takes no unit, but the header gives [{unit}].", file=source, line=1)
+            if not q.unit_known(unit):
+                raise InputError(key, f"unknown unit [{unit}] in the header.", file=source, line=1)
+        columns.append(column)
+    if "unit.name" not in seen:
+        raise InputError("unit.name", "is missing: a CSV of units needs a unit.name column.", file=source, line=1)
+    return columns
+
+
+def rows(path: str | Path) -> Iterator[tuple[int, dict | InputError]]:
+    """The units of a CSV file as unit-file tables, with the line each starts on; a row
+    that cannot be read comes as the InputError naming its line and key.
+
+    Raises
+    ------
+    InputError
+        For a file that cannot be read or a header that cannot be used (the whole file
+        is refused). Most bad cells are left for :func:`stallcheck.unitfile.from_data`,
+        which names their key.
+    """
+    source = str(path)
+    text = _read(Path(path))
+    reader = csv.reader(io.StringIO(text))
+    try:
+        header = next(reader)
+    except StopIteration:
+        raise InputError("", "is empty; a CSV of units needs a header row of dotted keys.", file=source) from None
+    columns = _columns(header, source)
+    for record in reader:
+        line = reader.line_num
+        if not any(cell.strip() for cell in record):
+            continue
+        if len(record) > len(columns):
+            yield line, InputError("", f"has {len(record)} cells but the header names {len(columns)} columns.",
+                                   file=source, line=line)
+            continue
+        data: dict = {"format": 1}
+        try:
+            for column, cell in zip(columns, record):
+                cell = cell.strip()
+                if not cell:
+                    continue
+                value = column.value(cell, source, line)
+                if column.section:
+                    data.setdefault(column.section, {})[column.name] = value
+                else:
+                    data[column.name] = value
+        except InputError as exc:
+            yield line, exc
+            continue
+        yield line, data
+
+
+def count(path: str | Path) -> int:
+    """Units in a CSV file (rows after the header), counted without validating them."""
+    with open(path, encoding="utf-8", errors="replace", newline="") as handle:
+        return max(sum(1 for _ in csv.reader(handle)) - 1, 0)
+
+
+def _read(path: Path) -> str:
+    name = str(path)
+    try:
+        size = path.stat().st_size
+        if size > MAX_CSV_BYTES:
+            raise InputError("", f"is {size / 1e6:.0f} MB; a CSV of units is read up to "
+                                 f"{MAX_CSV_BYTES / 1e6:.0f} MB.", file=name)
+        raw = path.read_bytes()
+    except FileNotFoundError:
+        raise InputError("", "no such file.", file=name) from None
+    except PermissionError:
+        raise InputError("", "cannot be read (permission denied).", file=name) from None
+    except OSError as exc:
+        raise InputError("", f"cannot be read ({exc.strerror or exc}).", file=name) from None
+    if b"\x00" in raw:
+        raise InputError("", "is a binary file, not a CSV table.", file=name)
+    try:
+        return raw.decode("utf-8-sig")
+    except UnicodeDecodeError as exc:
+        line = raw[: exc.start].count(b"\n") + 1
+        raise InputError("", "is not UTF-8 text; save it as UTF-8.", file=name, line=line) from None

@@ -1,0 +1,103 @@
+"""The survey table for people, its CSV, and its JSON (streamed a result at a time)."""
+
+from __future__ import annotations
+
+import csv
+import io
+import json
+
+from rich.console import Group
+from rich.padding import Padding
+from rich.text import Text
+
+from stallcheck import quantities as q
+from stallcheck.render import json as json_out
+from stallcheck.survey import Failure, Summary
+
+SEVERITY_STYLE = {"danger": "bold red", "warning": "yellow", "info": "cyan"}
+
+
+#: Columns of the first line of each unit: (heading, width, right-aligned).
+COLUMNS = (("unit", 18, False), ("stalls", 9, True), ("entering", 9, True), ("needs", 19, False),
+           ("ok", 3, False), ("stalled", 10, True))
+
+
+def _cell(text: str, width: int, right: bool) -> str:
+    if len(text) > width:
+        text = text[: width - 1] + "…"
+    return text.rjust(width) if right else text.ljust(width)
+
+
+def table(summaries: list[Summary], failures: list[Failure], system: str | None) -> Group:
+    """The survey, worst first, two lines a unit (the figures, then the name, what is
+    installed where it differs, and the worst finding), and a count."""
+    lines = [Text(" ".join(_cell(h, w, r) for h, w, r in COLUMNS), style="bold")]
+    for s in summaries:
+        sys_ = system or s.system
+        stall = "never" if s.stall_fraction is None else (
+            "all loads" if s.stall_fraction >= 1.0 else f"<{s.stall_fraction:.0%}")
+        inlet = "" if s.stall_inlet_temperature is None else q.show(s.stall_inlet_temperature, "temperature", sys_)
+        hours = "" if s.stalled_hours is None else f"{s.stalled_hours:,.0f} h"
+        cells = [s.tag or s.name, stall, inlet, s.required, "yes" if s.adequate else "NO", hours]
+        line = Text()
+        for (heading, width, right), value in zip(COLUMNS, cells):
+            style = None
+            if heading == "ok":
+                style = "green" if s.adequate else "bold red"
+            line.append(_cell(value, width, right) + " ", style=style)
+        lines.append(line)
+        detail = Text()
+        detail.append(s.name if s.tag else s.source, style="dim")
+        if s.required != s.installed:
+            detail.append(f"; has {s.installed}", style="dim")
+        if s.top_code:
+            detail.append("; ")
+            detail.append(s.top_code, style=SEVERITY_STYLE.get(s.top_severity))
+            detail.append(f" ({s.top_severity})", style="dim")
+        lines.append(Padding(detail, (0, 0, 0, 4)))
+    inadequate = sum(1 for s in summaries if not s.adequate)
+    flagged = sum(1 for s in summaries if s.exit_status)
+    count = [Text(f"{len(summaries) + len(failures):,} units: {len(summaries) - flagged:,} fine, "
+                  f"{flagged:,} to look at ({inadequate:,} with drainage not adequate)", style="bold")]
+    if failures:
+        count.append(Text(f"{len(failures):,} could not be read: see the messages on stderr", style="bold red"))
+    return Group(*lines, Text(""), *count)
+
+
+CSV_COLUMNS = ("source", "name", "tag", "stall_load_fraction", "stall_inlet_temperature_c", "required",
+               "installed", "adequate", "stalled_hours", "top_finding", "top_severity", "exit_status", "error")
+
+
+def csv_text(summaries: list[Summary], failures: list[Failure]) -> str:
+    """One row per unit (SI: °C), the failures last with their messages."""
+    buffer = io.StringIO()
+    writer = csv.writer(buffer, lineterminator="\n")
+    writer.writerow(CSV_COLUMNS)
+    for s in summaries:
+        writer.writerow([s.source, s.name, s.tag, _num(s.stall_fraction), _num(q.celsius(s.stall_inlet_temperature)),
+                         s.required, s.installed, "yes" if s.adequate else "no", _num(s.stalled_hours),
+                         s.top_code or "", s.top_severity or "", s.exit_status, ""])
+    for f in failures:
+        writer.writerow([f.source, "", "", "", "", "", "", "", "", "", "", 2, f.message])
+    return buffer.getvalue()
+
+
+def _num(value) -> str:
+    return "" if value is None else f"{value:.6g}"
+
+
+class JsonStream:
+    """Writes ``{"format": 1, "results": [...], "errors": [...]}`` a result at a time."""
+
+    def __init__(self, out):
+        self.out = out
+        self.first = True
+        out.write('{"format": 1, "results": [')
+
+    def __call__(self, result) -> None:
+        self.out.write(("\n" if self.first else ",\n") + json.dumps(json_out.to_dict(result), ensure_ascii=False))
+        self.first = False
+
+    def close(self, failures: list[Failure], status: int) -> None:
+        errors = json.dumps([{"source": f.source, "message": f.message} for f in failures], ensure_ascii=False)
+        self.out.write(f'\n], "errors": {errors}, "exit_status": {status}}}\n')

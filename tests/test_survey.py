@@ -1,0 +1,204 @@
+"""Surveys: the same numbers as single checks, mixed good and bad inputs, CSV tables
+with units in the header or in the cells, and safe writing of the CSV output."""
+
+import json
+import math
+import os
+import shutil
+
+import pytest
+from typer.testing import CliRunner
+
+from stallcheck import analysis, csvunits, files, survey, unitfile
+from stallcheck.cli import app
+from stallcheck.errors import InputError
+from stallcheck.render import json as json_out
+from conftest import ROOT, SAMPLES
+
+runner = CliRunner()
+
+
+def _same(a, b, path=""):
+    """Every number equal to 1e-9 relative, everything else equal."""
+    if isinstance(a, dict):
+        assert set(a) == set(b), path
+        for k in a:
+            _same(a[k], b[k], f"{path}.{k}")
+    elif isinstance(a, list):
+        assert len(a) == len(b), path
+        for i, (x, y) in enumerate(zip(a, b)):
+            _same(x, y, f"{path}[{i}]")
+    elif isinstance(a, float) and isinstance(b, float):
+        assert math.isclose(a, b, rel_tol=1e-9, abs_tol=1e-12), (path, a, b)
+    else:
+        assert a == b, (path, a, b)
+
+
+def test_survey_gives_the_single_check_numbers_for_every_sample():
+    got = {}
+    summaries, failures = survey.run([ROOT / "sample_units"], each=lambda r: got.setdefault(r.source, r))
+    assert not failures
+    assert {p.name for p in SAMPLES} <= {os.path.basename(s.split(":")[0]) for s in got}
+    for path in SAMPLES:
+        single = analysis.analyse(unitfile.load(path))
+        batched = got[str(path)]
+        _same(json_out.to_dict(single), json_out.to_dict(batched))
+
+
+HEADER_UNITS = ("unit.name,design.medium,design.flow [cfm],design.inlet_temperature [degF],"
+                "design.outlet_temperature [degF],design.steam_pressure [psig],steam.supply_pressure [psig],"
+                "valve.cv,valve.characteristic,drain.arrangement,drain.fill_head [in],drain.lift [ft],"
+                "drain.return_pressure [psig],load.minimum\n"
+                "Test coil,air,6000,-10,50,5,15,10,equal-percentage,trap,18,4,1,0.2\n")
+CELL_UNITS = ("unit.name,design.medium,design.flow,design.inlet_temperature,design.outlet_temperature,"
+              "design.steam_pressure,steam.supply_pressure,valve.cv,valve.characteristic,drain.arrangement,"
+              "drain.fill_head,drain.lift,drain.return_pressure,load.minimum\n"
+              "Test coil,air,6000 cfm,-10 degF,50 degF,5 psig,15 psig,10,equal-percentage,trap,18 in,4 ft,"
+              "1 psig,0.2\n")
+SAME_IN_TOML = """format = 1
+[unit]
+name = "Test coil"
+[design]
+medium = "air"
+flow = "6000 cfm"
+inlet_temperature = "-10 degF"
+outlet_temperature = "50 degF"
+steam_pressure = "5 psig"
+[steam]
+supply_pressure = "15 psig"
+[valve]
+cv = 10
+characteristic = "equal-percentage"
+[load]
+minimum = 0.2
+[drain]
+arrangement = "trap"
+fill_head = "18 in"
+lift = "4 ft"
+return_pressure = "1 psig"
+"""
+
+
+def _csv_unit(tmp_path, text, name):
+    path = tmp_path / name
+    path.write_text(text, encoding="utf-8")
+    (line, data), = list(csvunits.rows(path))
+    return unitfile.from_data(data, str(path), line)
+
+
+def test_units_in_the_header_and_in_the_cells_read_the_same(tmp_path):
+    a = _csv_unit(tmp_path, HEADER_UNITS, "header.csv")
+    b = _csv_unit(tmp_path, CELL_UNITS, "cells.csv")
+    c = unitfile.parse(SAME_IN_TOML, "same.toml")
+    for u in (b, c):
+        for part in ("design", "drain", "load", "valve", "site"):
+            _close(getattr(a, part), getattr(u, part))
+        assert a.supply_pressure == pytest.approx(u.supply_pressure, rel=1e-12)
+    _same(json_out.to_dict(analysis.analyse(a)) | {"source": ""}, json_out.to_dict(analysis.analyse(c)) | {"source": ""})
+
+
+def _close(x, y):
+    for k, v in x.__dict__.items():
+        w = y.__dict__[k]
+        if isinstance(v, float):
+            assert v == pytest.approx(w, rel=1e-12), k
+        else:
+            assert v == w, k
+
+
+def test_a_bare_number_cell_needs_the_header_unit(tmp_path):
+    path = tmp_path / "bad.csv"
+    path.write_text(HEADER_UNITS.replace(",18,4,1,", ",18 in,4,1,"), encoding="utf-8")
+    (line, error), = list(csvunits.rows(path))
+    assert isinstance(error, InputError) and error.key == "drain.fill_head" and line == 2
+
+
+@pytest.mark.parametrize("header, fragment", [
+    ("unit.name,drain.lift [wibbles]\nA,3\n", r"unknown unit \[wibbles\]"),
+    ("unit.name,valve.cv [ft]\nA,3\n", "takes no unit"),
+    ("design.medium\nair\n", "unit.name"),
+    ("unit.name,unit.name\nA,B\n", "two columns"),
+])
+def test_bad_csv_headers_refuse_the_file(tmp_path, header, fragment):
+    path = tmp_path / "bad.csv"
+    path.write_text(header, encoding="utf-8")
+    with pytest.raises(InputError, match=fragment):
+        list(csvunits.rows(path))
+
+
+def _mixed_folder(tmp_path):
+    folder = tmp_path / "plant"
+    (folder / "north").mkdir(parents=True)
+    for sample in SAMPLES[:3]:
+        shutil.copy(sample, folder / "north" / sample.name)
+    (folder / "broken.toml").write_text("format = 1\n[unit\nname = 'x'\n", encoding="utf-8")
+    bad_row = CELL_UNITS.splitlines()[1].replace("5 psig", "5 psi")
+    (folder / "rows.csv").write_text(CELL_UNITS + bad_row + "\n", encoding="utf-8")
+    return folder
+
+
+def test_mixed_good_and_bad_inputs(tmp_path):
+    folder = _mixed_folder(tmp_path)
+    result = runner.invoke(app, ["survey", str(folder)], env={"NO_COLOR": "1", "COLUMNS": "80"})
+    assert result.exit_code == 2
+    for sample in SAMPLES[:3]:
+        assert unitfile.load(sample).name.split()[0] in result.stdout
+    assert "Test coil" in result.stdout
+    assert "broken.toml" in result.stderr and "not valid TOML" in result.stderr
+    assert "rows.csv, line 3" in result.stderr and "design.steam_pressure" in result.stderr
+    assert "2 could not be read" in result.stdout
+    assert "Traceback" not in result.output
+
+
+def test_survey_json_lists_results_and_errors(tmp_path):
+    folder = _mixed_folder(tmp_path)
+    result = runner.invoke(app, ["survey", str(folder), "--json"])
+    data = json.loads(result.stdout)
+    assert len(data["results"]) == 4 and len(data["errors"]) == 2
+    assert data["exit_status"] == 2 == result.exit_code
+    assert all("stall" in r and "drainage" in r for r in data["results"])
+
+
+def test_survey_exit_status_all_fine(tmp_path):
+    fine = ROOT / "sample_units" / "si_glycol_exchanger.toml"
+    assert runner.invoke(app, ["survey", str(fine)]).exit_code == analysis.analyse(unitfile.load(fine)).exit_status == 0
+
+
+def test_survey_csv_output_refuses_to_overwrite_and_writes_with_force(tmp_path):
+    out = tmp_path / "survey.csv"
+    out.write_text("keep me\n", encoding="utf-8")
+    sample = str(SAMPLES[0])
+    result = runner.invoke(app, ["survey", sample, "--csv", str(out)])
+    assert result.exit_code == 2 and "--force" in result.stderr
+    assert out.read_text(encoding="utf-8") == "keep me\n"
+    result = runner.invoke(app, ["survey", sample, "--csv", str(out), "--force"])
+    assert result.exit_code in (0, 1)
+    rows = out.read_text(encoding="utf-8").splitlines()
+    assert rows[0].startswith("source,name,tag,stall_load_fraction") and len(rows) == 2
+    assert not [p for p in tmp_path.iterdir() if p.name.endswith(".part")]
+
+
+def test_failed_write_leaves_the_old_file_whole(tmp_path, monkeypatch):
+    out = tmp_path / "survey.csv"
+    out.write_text("old contents\n", encoding="utf-8")
+
+    def disk_full(src, dst):
+        raise OSError(28, "No space left on device")
+
+    monkeypatch.setattr(files.os, "replace", disk_full)
+    with pytest.raises(InputError, match="No space left"):
+        files.write_new(out, "new contents\n", "--csv", force=True)
+    assert out.read_text(encoding="utf-8") == "old contents\n"
+    assert [p.name for p in tmp_path.iterdir()] == ["survey.csv"]
+
+
+def test_writing_into_a_missing_folder_is_refused(tmp_path):
+    with pytest.raises(InputError, match="does not exist"):
+        files.write_new(tmp_path / "nowhere" / "out.csv", "x", "--csv")
+
+
+def test_input_files_are_never_modified(tmp_path):
+    folder = _mixed_folder(tmp_path)
+    before = {p: p.read_bytes() for p in folder.rglob("*") if p.is_file()}
+    runner.invoke(app, ["survey", str(folder), "--csv", str(tmp_path / "out.csv")])
+    assert {p: p.read_bytes() for p in folder.rglob("*") if p.is_file()} == before
