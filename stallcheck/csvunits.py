@@ -19,7 +19,7 @@ from typing import Iterator
 
 from stallcheck import quantities as q
 from stallcheck.errors import InputError
-from stallcheck.unitfile import MAX_FILE_BYTES
+from stallcheck.unitfile import MAX_FILE_BYTES, read_text
 
 #: Largest CSV read [bytes]: a table of many thousands of units.
 MAX_CSV_BYTES = 100 * MAX_FILE_BYTES
@@ -147,23 +147,4 @@ def count(path: str | Path) -> int:
 
 
 def _read(path: Path) -> str:
-    name = str(path)
-    try:
-        size = path.stat().st_size
-        if size > MAX_CSV_BYTES:
-            raise InputError("", f"is {size / 1e6:.0f} MB; a CSV of units is read up to "
-                                 f"{MAX_CSV_BYTES / 1e6:.0f} MB.", file=name)
-        raw = path.read_bytes()
-    except FileNotFoundError:
-        raise InputError("", "no such file.", file=name) from None
-    except PermissionError:
-        raise InputError("", "cannot be read (permission denied).", file=name) from None
-    except OSError as exc:
-        raise InputError("", f"cannot be read ({exc.strerror or exc}).", file=name) from None
-    if b"\x00" in raw:
-        raise InputError("", "is a binary file, not a CSV table.", file=name)
-    try:
-        return raw.decode("utf-8-sig")
-    except UnicodeDecodeError as exc:
-        line = raw[: exc.start].count(b"\n") + 1
-        raise InputError("", "is not UTF-8 text; save it as UTF-8.", file=name, line=line) from None
+    return read_text(path, MAX_CSV_BYTES, "CSV table of units", ".csv")

@@ -48,28 +48,30 @@ _KNOWN = {
 }
 
 
-def read_text(path: str | Path) -> str:
-    """Read a unit file's text, turning every file-system problem into an InputError."""
+def read_text(path: str | Path, max_bytes: int = MAX_FILE_BYTES, kind: str = "TOML unit file",
+              suffix: str = ".toml") -> str:
+    """Read a unit file's text (or a CSV table's, with its own ``kind``, ``suffix`` and
+    size limit), turning every file-system problem into an InputError."""
     path = Path(path)
     name = str(path)
     try:
         if path.is_dir():
-            raise InputError("", "is a folder, not a unit file; give the path of a .toml file.", file=name)
+            raise InputError("", f"is a folder, not a {kind}; give the path of a {suffix} file.", file=name)
         size = path.stat().st_size
-        if size > MAX_FILE_BYTES:
-            raise InputError("", f"is {size / 1e6:.1f} MB; a unit file is at most "
-                                 f"{MAX_FILE_BYTES / 1e6:.0f} MB of TOML text.", file=name)
+        if size > max_bytes:
+            raise InputError("", f"is {size / 1e6:.1f} MB; a {kind} is read up to {max_bytes / 1e6:.0f} MB.",
+                             file=name)
         raw = path.read_bytes()
     except FileNotFoundError:
-        raise InputError("", "no such file; give the path of a .toml unit file.", file=name) from None
+        raise InputError("", f"no such file; give the path of a {suffix} {kind}.", file=name) from None
     except PermissionError:
         raise InputError("", "cannot be read (permission denied).", file=name) from None
     except OSError as exc:
         raise InputError("", f"cannot be read ({exc.strerror or exc}).", file=name) from None
     if b"\x00" in raw:
-        raise InputError("", "is a binary file, not a TOML unit file.", file=name)
+        raise InputError("", f"is a binary file, not a {kind}.", file=name)
     try:
-        return raw.decode("utf-8")
+        return raw.decode("utf-8-sig")
     except UnicodeDecodeError as exc:
         line = raw[: exc.start].count(b"\n") + 1
         raise InputError("", "is not UTF-8 text; save it as UTF-8.", file=name, line=line) from None

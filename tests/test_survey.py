@@ -13,7 +13,7 @@ from stallcheck import analysis, csvunits, files, survey, unitfile
 from stallcheck.cli import app
 from stallcheck.errors import InputError
 from stallcheck.render import json as json_out
-from conftest import ROOT, SAMPLES
+from conftest import BASE_UNIT, ROOT, SAMPLES
 
 runner = CliRunner()
 
@@ -55,28 +55,8 @@ CELL_UNITS = ("unit.name,design.medium,design.flow,design.inlet_temperature,desi
               "drain.fill_head,drain.lift,drain.return_pressure,load.minimum\n"
               "Test coil,air,6000 cfm,-10 degF,50 degF,5 psig,15 psig,10,equal-percentage,trap,18 in,4 ft,"
               "1 psig,0.2\n")
-SAME_IN_TOML = """format = 1
-[unit]
-name = "Test coil"
-[design]
-medium = "air"
-flow = "6000 cfm"
-inlet_temperature = "-10 degF"
-outlet_temperature = "50 degF"
-steam_pressure = "5 psig"
-[steam]
-supply_pressure = "15 psig"
-[valve]
-cv = 10
-characteristic = "equal-percentage"
-[load]
-minimum = 0.2
-[drain]
-arrangement = "trap"
-fill_head = "18 in"
-lift = "4 ft"
-return_pressure = "1 psig"
-"""
+SAME_IN_TOML = BASE_UNIT.replace('lift = "0 ft"', 'lift = "4 ft"').replace(
+    'return_pressure = "0 psig"', 'return_pressure = "1 psig"') + "[load]\nminimum = 0.2\n"
 
 
 def _csv_unit(tmp_path, text, name):
