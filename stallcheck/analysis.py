@@ -268,7 +268,7 @@ def _steam_at(coil, load, load_design):
     """
     steam_t = np.clip(coilmod.steam_temperature(coil, load), properties.T_MIN, properties.T_CRIT)
     coil_p = properties.saturation_pressure(steam_t)
-    return steam_t, coil_p, load * load_design / properties.latent_heat(coil_p)
+    return steam_t, coil_p, load * load_design / properties.latent_heat_at(steam_t)
 
 
 # --- the physics on the batch ---------------------------------------------------------

@@ -186,8 +186,10 @@ def survey(paths: list[Path] = typer.Argument(..., help="Unit files, folders of 
         from stallcheck.render import survey as show, terminal
 
         out = terminal.console()
-        terminal.emit(out, show.table(summaries, failures, system))
-        out.file.write("\n") if not out.is_terminal else None
+        if out.is_terminal:
+            out.print(show.table(summaries, failures, system))
+        else:
+            sys.stdout.write(show.plain(summaries, failures, system, width=out.width))
     for failure in failures:
         typer.echo(f"stallcheck: {failure.message}", err=True)
     if csv is not None:

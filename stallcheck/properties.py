@@ -73,6 +73,15 @@ def latent_heat(pressure):
     return _props("H", "P", p, "Q", 1.0) - _props("H", "P", p, "Q", 0.0)
 
 
+def latent_heat_at(temperature):
+    """Latent heat of condensation h_g − h_f [J/kg] at a saturation temperature [K]
+    (cheaper than :func:`latent_heat` where the temperature is already known)."""
+    t = np.asarray(temperature, dtype=float)
+    if np.any(~np.isfinite(t)) or np.any(t < T_MIN) or np.any(t > T_CRIT):
+        raise PropertyRangeError(f"temperature outside IAPWS-IF97's saturation line ({T_MIN} K to {T_CRIT} K)")
+    return _props("H", "T", t, "Q", 1.0) - _props("H", "T", t, "Q", 0.0)
+
+
 def liquid_enthalpy(pressure):
     """Enthalpy of saturated liquid h_f [J/kg] at an absolute pressure [Pa]."""
     return _props("H", "P", _check_p(pressure), "Q", 0.0)

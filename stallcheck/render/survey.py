@@ -5,6 +5,7 @@ from __future__ import annotations
 import csv
 import io
 import json
+import textwrap
 
 from rich.console import Group
 from rich.padding import Padding
@@ -28,10 +29,10 @@ def _cell(text: str, width: int, right: bool) -> str:
     return text.rjust(width) if right else text.ljust(width)
 
 
-def table(summaries: list[Summary], failures: list[Failure], system: str | None) -> Group:
-    """The survey, worst first, two lines a unit (the figures, then the name, what is
-    installed where it differs, and the worst finding), and a count."""
-    lines = [Text(" ".join(_cell(h, w, r) for h, w, r in COLUMNS), style="bold")]
+def _rows(summaries: list[Summary], system: str | None):
+    """Each unit's two lines: the figures, then the details (name, what is installed
+    where it differs, the worst finding)."""
+    yield Text(" ".join(_cell(h, w, r) for h, w, r in COLUMNS), style="bold"), None
     for s in summaries:
         sys_ = system or s.system
         stall = "never" if s.stall_fraction is None else (
@@ -41,11 +42,8 @@ def table(summaries: list[Summary], failures: list[Failure], system: str | None)
         cells = [s.tag or s.name, stall, inlet, s.required, "yes" if s.adequate else "NO", hours]
         line = Text()
         for (heading, width, right), value in zip(COLUMNS, cells):
-            style = None
-            if heading == "ok":
-                style = "green" if s.adequate else "bold red"
+            style = ("green" if s.adequate else "bold red") if heading == "ok" else None
             line.append(_cell(value, width, right) + " ", style=style)
-        lines.append(line)
         detail = Text()
         detail.append(s.name if s.tag else s.source, style="dim")
         if s.required != s.installed:
@@ -54,14 +52,40 @@ def table(summaries: list[Summary], failures: list[Failure], system: str | None)
             detail.append("; ")
             detail.append(s.top_code, style=SEVERITY_STYLE.get(s.top_severity))
             detail.append(f" ({s.top_severity})", style="dim")
-        lines.append(Padding(detail, (0, 0, 0, 4)))
+        yield line, detail
+
+
+def _count(summaries: list[Summary], failures: list[Failure]) -> list[Text]:
     inadequate = sum(1 for s in summaries if not s.adequate)
     flagged = sum(1 for s in summaries if s.exit_status)
-    count = [Text(f"{len(summaries) + len(failures):,} units: {len(summaries) - flagged:,} fine, "
-                  f"{flagged:,} to look at ({inadequate:,} with drainage not adequate)", style="bold")]
+    out = [Text(f"{len(summaries) + len(failures):,} units: {len(summaries) - flagged:,} fine, "
+                f"{flagged:,} to look at ({inadequate:,} with drainage not adequate)", style="bold")]
     if failures:
-        count.append(Text(f"{len(failures):,} could not be read: see the messages on stderr", style="bold red"))
-    return Group(*lines, Text(""), *count)
+        out.append(Text(f"{len(failures):,} could not be read: see the messages on stderr", style="bold red"))
+    return out
+
+
+def table(summaries: list[Summary], failures: list[Failure], system: str | None) -> Group:
+    """The survey, worst first, two lines a unit, and a count (for a terminal)."""
+    parts: list = []
+    for line, detail in _rows(summaries, system):
+        parts.append(line)
+        if detail is not None:
+            parts.append(Padding(detail, (0, 0, 0, 4)))
+    return Group(*parts, Text(""), *_count(summaries, failures))
+
+
+def plain(summaries: list[Summary], failures: list[Failure], system: str | None, width: int = 80) -> str:
+    """:func:`table` as plain text, for pipes and files: the same lines, written
+    directly (a survey of thousands prints far faster this way)."""
+    out = []
+    for line, detail in _rows(summaries, system):
+        out.append(line.plain.rstrip())
+        if detail is not None:
+            out.append(textwrap.fill(detail.plain, width, initial_indent="    ", subsequent_indent="    "))
+    out.append("")
+    out.extend(textwrap.fill(t.plain, width) for t in _count(summaries, failures))
+    return "\n".join(out) + "\n"
 
 
 CSV_COLUMNS = ("source", "name", "tag", "stall_load_fraction", "stall_inlet_temperature_c", "required",
