@@ -64,8 +64,8 @@ def analyse(unit: Unit, system: str | None = None, method: str | None = None) ->
     return out
 
 
-def analyse_many(units: list[Unit], system: str | None = None,
-                 method: str | None = None) -> list[Result | StallcheckError]:
+def analyse_many(units: list[Unit], system: str | None = None, method: str | None = None,
+                 points: bool = True) -> list[Result | StallcheckError]:
     """Analyse many units together.
 
     Parameters
@@ -75,6 +75,10 @@ def analyse_many(units: list[Unit], system: str | None = None,
         Display units for the words; default each file's own.
     method : str, optional
         Override every file's heat-transfer method.
+    points : bool
+        Tabulate each unit across the load range (``Result.points``, for the chart and
+        the JSON contract). A survey table needs none of it and skips the cost (about
+        half of each unit's steam-table calls); every other figure is the same.
 
     Returns
     -------
@@ -93,7 +97,7 @@ def analyse_many(units: list[Unit], system: str | None = None,
             out[i] = error
     if good:
         batch = [units[i] for i in good]
-        for i, result in zip(good, _analyse(batch, [system or u.system for u in batch])):
+        for i, result in zip(good, _analyse(batch, [system or u.system for u in batch], points)):
             out[i] = result
     return out
 
@@ -274,21 +278,22 @@ def _steam_at(coil, load, load_design):
 # --- the physics on the batch ---------------------------------------------------------
 
 
-def _analyse(units: list[Unit], systems: list[str]) -> list[Result]:
+def _analyse(units: list[Unit], systems: list[str], tabulate: bool = True) -> list[Result]:
     b = columns(units)
     n = len(units)
     stall = _stall_points(b)
+    # the steam temperature rises with load, so it is lowest at no load
+    clipped = coilmod.steam_temperature(b.coil, np.zeros(n)) < properties.T_MIN
 
-    f = LOAD_GRID[None, :]
-    grid = np.broadcast_to(f, (n, LOAD_GRID.size))
-    raw_t = coilmod.steam_temperature(b.coil.column(), f)
-    clipped = np.any(raw_t < properties.T_MIN, axis=1)
-    steam_t, coil_p, steam_flow = b.state(grid)
-    differential = coil_p + b.fill[:, None] - b.back[:, None]
-    stalled = differential <= b.trap_min[:, None]
-    inlet_t = coilmod.inlet_temperature(b.coil.column(), f)
+    grid = None
+    if tabulate:
+        f = LOAD_GRID[None, :]
+        steam_t, coil_p, steam_flow = b.state(np.broadcast_to(f, (n, LOAD_GRID.size)))
+        differential = coil_p + b.fill[:, None] - b.back[:, None]
+        grid = (steam_t, coil_p, steam_flow, differential, differential <= b.trap_min[:, None],
+                coilmod.inlet_temperature(b.coil.column(), f))
 
-    valves, opening = _valves(b, coil_p, steam_flow)
+    valves, opening = _valves(b, None if grid is None else grid[1], None if grid is None else grid[2])
 
     # drainage verdicts (words, per unit)
     drains, effective = [], []
@@ -311,10 +316,13 @@ def _analyse(units: list[Unit], systems: list[str]) -> list[Result]:
         d = DesignPoint(load=float(b.load_design[i]), steam_flow=float(b.steam_design[i]),
                         coil_pressure=float(b.design_pressure[i]), steam_temperature=float(b.coil.steam_design[i]),
                         medium_mass_flow=float(b.mass_flow[i]), medium_cp=float(b.cp[i]))
-        points = Points(load_fraction=LOAD_GRID, inlet_temperature=inlet_t[i], coil_pressure=coil_p[i],
-                        steam_temperature=steam_t[i], steam_flow=steam_flow[i], drain_differential=differential[i],
-                        stalled=stalled[i], valve_opening=None if opening is None or valves[i] is None
-                        else opening[i])
+        points = None
+        if grid is not None:
+            steam_t, coil_p, steam_flow, differential, stalled, inlet_t = grid
+            points = Points(load_fraction=LOAD_GRID, inlet_temperature=inlet_t[i], coil_pressure=coil_p[i],
+                            steam_temperature=steam_t[i], steam_flow=steam_flow[i],
+                            drain_differential=differential[i], stalled=stalled[i],
+                            valve_opening=None if opening is None or valves[i] is None else opening[i])
         s = stall[i]
         bins_load, bins_hours = _bin_loads(u, b.coil.take(i))
         stalled_hours, total_hours = _hours(u, s.load_fraction or 0.0, bins_load, bins_hours)
@@ -360,7 +368,8 @@ def _stall_points(b: Batch) -> list[StallPoint]:
 
 
 def _valves(b: Batch, coil_p, steam_flow):
-    """Valve figures for the units that have one, and the travel each load needs."""
+    """Valve figures for the units that have one, and the travel each load needs on the
+    load grid (``coil_p`` and ``steam_flow`` there; None: no grid, no travel)."""
     n = len(b.units)
     has = np.array([u.valve is not None for u in b.units])
     results: list = [None] * n
@@ -374,9 +383,11 @@ def _valves(b: Batch, coil_p, steam_flow):
     characteristic = np.array([v.characteristic for v in vs])
     p1 = b.supply[idx]
     rho1 = properties.vapour_density(p1)
-    cv_need = valvemod.required_cv(steam_flow[idx], p1[:, None], coil_p[idx], rho1[:, None], xt[:, None])
-    opening = np.full(coil_p.shape, np.nan)
-    opening[idx] = valvemod.travel(cv_need / cv[:, None], characteristic[:, None], rangeability[:, None])
+    opening = None
+    if coil_p is not None:
+        cv_need = valvemod.required_cv(steam_flow[idx], p1[:, None], coil_p[idx], rho1[:, None], xt[:, None])
+        opening = np.full(coil_p.shape, np.nan)
+        opening[idx] = valvemod.travel(cv_need / cv[:, None], characteristic[:, None], rangeability[:, None])
     cv_design = valvemod.required_cv(b.steam_design[idx], p1, b.design_pressure[idx], rho1, xt)
     ok = cv_design <= cv
 
@@ -391,10 +402,12 @@ def _valves(b: Batch, coil_p, steam_flow):
         low = np.maximum(properties.saturation_pressure(np.maximum(coil.inlet_design, properties.T_MIN)),
                          properties.P_MIN)
 
-        def excess(p):
+        def excess(p, where):
             t = properties.saturation_temperature(p)
-            need = b.load_design[units] * coilmod.delivered_fraction(coil, t) / properties.latent_heat(p)
-            return valvemod.steam_flow(cv[short], p1[short], p, rho1[short], xt[short]) - need
+            k = short[where]
+            need = (b.load_design[units[where]] * coilmod.delivered_fraction(coil.take(where), t)
+                    / properties.latent_heat(p))
+            return valvemod.steam_flow(cv[k], p1[k], p, rho1[k], xt[k]) - need
 
         found = illinois(excess, low, b.design_pressure[units], PRESSURE_TOLERANCE)
         solved = np.isfinite(found)
@@ -410,9 +423,9 @@ def _valves(b: Batch, coil_p, steam_flow):
     # lowest controllable load: the needed Cv falls to Cv/rangeability
     cv_min = cv / rangeability
 
-    def above_min(load):
-        _, p, w = b.state(load, idx)
-        return valvemod.required_cv(w, p1, p, rho1, xt) - cv_min
+    def above_min(load, where):
+        _, p, w = b.state(load, idx[where])
+        return valvemod.required_cv(w, p1[where], p, rho1[where], xt[where]) - cv_min[where]
 
     min_load = illinois(above_min, np.full(idx.size, 1e-9), np.ones(idx.size), LOAD_TOLERANCE)
     min_load = np.where(np.isfinite(min_load), min_load, 1.0)

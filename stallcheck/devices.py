@@ -203,7 +203,8 @@ def _limits(b, capacity, stall):
     limit = np.where(full, 1.0, np.nan)
     solve = np.flatnonzero(start & ~full & (low < 1.0))
     if solve.size:
-        limit[solve] = illinois(lambda load: gap(load, solve), low[solve], np.ones(solve.size), LIMIT_TOLERANCE)
+        limit[solve] = illinois(lambda load, where: gap(load, solve[where]), low[solve], np.ones(solve.size),
+                                LIMIT_TOLERANCE)
     return limit
 
 

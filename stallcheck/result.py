@@ -361,7 +361,7 @@ class Result:
     supply_pressure: float
     design: DesignPoint
     stall: StallPoint
-    points: Points
+    points: Points | None
     stalled_hours: float | None
     total_hours: float | None
     drainage: Drainage

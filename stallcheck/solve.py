@@ -51,11 +51,13 @@ def illinois(function, low, high, tolerance: float = 1e-12, iterations: int = 60
     Parameters
     ----------
     function : callable
-        Vectorised: takes an array of x, returns an array of the same shape.
-    low, high : float or ndarray
+        ``function(x, where)``: the values at x for the elements ``where`` (an index
+        array into ``low``), so that elements already solved are not evaluated again.
+    low, high : ndarray
         Brackets with a sign change; NaN where there is none.
     tolerance : float
-        Stop once every bracket is narrower than this (in x).
+        Each element stops once its bracket is narrower than this (in x), so its
+        answer never depends on the others solved beside it.
     iterations : int
         Most function calls after the first two.
 
@@ -65,29 +67,29 @@ def illinois(function, low, high, tolerance: float = 1e-12, iterations: int = 60
        the root of an equation. BIT 11, 168–174.
     """
     a, b = (np.array(x, dtype=float) for x in np.broadcast_arrays(low, high))
-    fa = np.asarray(function(a), dtype=float)
-    fb = np.asarray(function(b), dtype=float)
+    everywhere = np.arange(a.size)
+    fa = np.asarray(function(a, everywhere), dtype=float)
+    fb = np.asarray(function(b, everywhere), dtype=float)
     valid = np.sign(fa) * np.sign(fb) <= 0
     side = np.zeros(a.shape, dtype=int)
     for _ in range(iterations):
-        # Each element stops on its own tolerance, so its answer never depends on the
-        # others solved beside it (a survey and a single check agree exactly).
-        active = valid & (np.abs(b - a) > tolerance)
-        if not active.any():
+        active = np.flatnonzero(valid & (np.abs(b - a) > tolerance))
+        if not active.size:
             break
+        A, B, FA, FB = a[active], b[active], fa[active], fb[active]
         with np.errstate(invalid="ignore", divide="ignore"):
-            c = (a * fb - b * fa) / (fb - fa)
-        c = np.where(np.isfinite(c) & (c > np.minimum(a, b)) & (c < np.maximum(a, b)), c, 0.5 * (a + b))
-        fc = np.asarray(function(c), dtype=float)
-        left = (np.sign(fc) * np.sign(fa) <= 0) & active  # root in [a, c]: replace b
-        right = ~left & active
-        exact = (fc == 0) & active
-        # Illinois: halve the value kept at the end that stays, when it stays twice
-        fa = np.where(left & (side == -1), 0.5 * fa, fa)
-        fb = np.where(right & (side == 1), 0.5 * fb, fb)
-        b, fb = np.where(left, c, b), np.where(left, fc, fb)
-        a, fa = np.where(right, c, a), np.where(right, fc, fa)
-        side = np.where(left, -1, np.where(right, 1, side))
-        a = np.where(exact, c, a)
-        b = np.where(exact, c, b)
+            c = (A * FB - B * FA) / (FB - FA)
+        c = np.where(np.isfinite(c) & (c > np.minimum(A, B)) & (c < np.maximum(A, B)), c, 0.5 * (A + B))
+        fc = np.asarray(function(c, active), dtype=float)
+        left = np.sign(fc) * np.sign(FA) <= 0            # root in [a, c]: c replaces b
+        last = side[active]
+        # Illinois: halve the value kept at an end that stays twice running
+        FA = np.where(left & (last == -1), 0.5 * FA, FA)
+        FB = np.where(~left & (last == 1), 0.5 * FB, FB)
+        B, FB = np.where(left, c, B), np.where(left, fc, FB)
+        A, FA = np.where(left, A, c), np.where(left, FA, fc)
+        exact = fc == 0
+        A, B = np.where(exact, c, A), np.where(exact, c, B)
+        a[active], b[active], fa[active], fb[active] = A, B, FA, FB
+        side[active] = np.where(left, -1, 1)
     return np.where(valid, 0.5 * (a + b), np.nan)

@@ -147,7 +147,8 @@ def run(paths: Iterable[str | Path], system: str | None = None, method: str | No
     system, method : str, optional
         Display units and heat-transfer method, as for ``check``.
     each : callable, optional
-        Called with every full result as its batch is done.
+        Called with every full result as its batch is done; where given, the results
+        are tabulated across the load range (``Result.points``), as ``check`` does.
     advance : callable, optional
         Called with the number of units done in each batch (a progress bar).
 
@@ -165,7 +166,7 @@ def run(paths: Iterable[str | Path], system: str | None = None, method: str | No
     def flush():
         if not batch:
             return
-        for unit, out in zip(batch, _analyse(batch, system, method)):
+        for unit, out in zip(batch, _analyse(batch, system, method, points=each is not None)):
             if isinstance(out, StallcheckError):
                 failures.append(Failure(unit.source, str(out if not isinstance(out, InputError) or out.file
                                                          else out.in_file(unit.source))))
@@ -191,17 +192,17 @@ def run(paths: Iterable[str | Path], system: str | None = None, method: str | No
     return summaries, failures
 
 
-def _analyse(batch: list, system: str | None, method: str | None) -> list:
-    """A batch's results; where the batch as a whole fails (a property call out of
-    range that screening did not foresee), each unit again on its own, so one bad unit
-    cannot sink the others."""
+def _analyse(batch: list, system: str | None, method: str | None, points: bool) -> list:
+    """A batch's results (tabulated across the load range only where ``points``); where
+    the batch as a whole fails (a property call out of range that screening did not
+    foresee), each unit again on its own, so one bad unit cannot sink the others."""
     try:
-        return analysis.analyse_many(batch, system=system, method=method)
+        return analysis.analyse_many(batch, system=system, method=method, points=points)
     except StallcheckError:
         out = []
         for unit in batch:
             try:
-                out.append(analysis.analyse(unit, system=system, method=method))
+                out.extend(analysis.analyse_many([unit], system=system, method=method, points=points))
             except StallcheckError as exc:
                 out.append(exc)
         return out

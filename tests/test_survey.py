@@ -45,6 +45,16 @@ def test_survey_gives_the_single_check_numbers_for_every_sample():
         _same(json_out.to_dict(single), json_out.to_dict(batched))
 
 
+def test_survey_table_figures_equal_single_checks_without_the_load_table():
+    # The table path skips tabulating the load range; every summary figure must still
+    # be exactly what a full check gives.
+    summaries, failures = survey.run([ROOT / "sample_units"])
+    assert not failures
+    by_source = {s.source: s for s in summaries}
+    for path in SAMPLES:
+        assert by_source[str(path)] == survey.Summary.of(analysis.analyse(unitfile.load(path)))
+
+
 HEADER_UNITS = ("unit.name,design.medium,design.flow [cfm],design.inlet_temperature [degF],"
                 "design.outlet_temperature [degF],design.steam_pressure [psig],steam.supply_pressure [psig],"
                 "valve.cv,valve.characteristic,drain.arrangement,drain.fill_head [in],drain.lift [ft],"

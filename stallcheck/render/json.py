@@ -24,7 +24,7 @@ def to_dict(r: Result) -> dict:
     """The result as plain JSON-ready data (the contract)."""
     pts = r.points
     points = []
-    for i, f in enumerate(pts.load_fraction):
+    for i, f in enumerate(pts.load_fraction if pts is not None else ()):
         point = {
             "load_fraction": float(f),
             "inlet_temperature_c": float(q.celsius(pts.inlet_temperature[i])),
