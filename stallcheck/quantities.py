@@ -10,15 +10,24 @@ Gauge pressures need the site's atmospheric pressure, so they come back as a
 resolves it once the site is known.
 
 pint is imported on first use, not with the package: ``stallcheck --help`` must stay
-fast.
+fast. Its answers (what a unit spelling means, and the factors that convert it) are
+kept in the user's cache folder, so a later run that meets only spellings seen before
+does not import pint at all (see :class:`_Answers`).
 """
 
 from __future__ import annotations
 
+import atexit
+import hashlib
+import importlib.util
+import json
 import math
+import os
 import re
+import tempfile
 from dataclasses import dataclass
 from functools import lru_cache
+from pathlib import Path
 
 from stallcheck.errors import InputError
 
@@ -56,13 +65,77 @@ def registry():
         ureg = pint.UnitRegistry(autoconvert_offset_to_baseunit=True, cache_folder=":auto:")
     except Exception:  # an unwritable or broken cache folder: build without it
         ureg = pint.UnitRegistry(autoconvert_offset_to_baseunit=True)
-    for name, base in {**_GAUGE, **_ABSOLUTE}.items():
-        ureg.define(f"{name} = {base}")
-    # Trade abbreviations pint lacks or reads otherwise ("cfm" would be centi-fermi).
-    ureg.define("cfm = foot ** 3 / minute")
-    ureg.define("gpm = gallon / minute")
-    ureg.define("m3 = meter ** 3")
+    for definition in _DEFINITIONS:
+        ureg.define(definition)
     return ureg
+
+
+_DEFINITIONS = tuple(f"{name} = {base}" for name, base in {**_GAUGE, **_ABSOLUTE}.items()) + (
+    # Trade abbreviations pint lacks or reads otherwise ("cfm" would be centi-fermi).
+    "cfm = foot ** 3 / minute",
+    "gpm = gallon / minute",
+    "m3 = meter ** 3",
+)
+
+
+class _Answers:
+    """pint's answers kept between runs: a small JSON file in the user's cache folder
+    (``$XDG_CACHE_HOME/stallcheck`` or ``~/.cache/stallcheck``), named by a hash of the
+    installed pint (its path and modification time) and of our definitions, so a new
+    pint or a changed definition starts a fresh file. It is a memo of what pint said,
+    never a table of our own: a spelling not in it goes to pint. Unreadable or
+    unwritable cache folders are passed over silently.
+    """
+
+    def __init__(self):
+        self.data: dict | None = None
+        self.dirty = False
+        self.file: Path | None = None
+
+    def _load(self) -> dict:
+        if self.data is None:
+            self.data = {}
+            try:
+                spec = importlib.util.find_spec("pint")
+                origin = spec.origin if spec else ""
+                stamp = os.stat(origin).st_mtime_ns if origin else 0
+                key = hashlib.sha1(f"{origin}|{stamp}|{_DEFINITIONS}".encode()).hexdigest()[:16]
+                base = os.environ.get("XDG_CACHE_HOME") or os.path.join(os.path.expanduser("~"), ".cache")
+                self.file = Path(base) / "stallcheck" / f"units-{key}.json"
+                self.data = json.loads(self.file.read_text(encoding="utf-8"))
+                if not isinstance(self.data, dict):
+                    self.data = {}
+            except (OSError, ValueError):
+                pass
+        return self.data
+
+    def get(self, key: str, compute):
+        data = self._load()
+        if key in data:
+            value = data[key]
+            return tuple(value) if isinstance(value, list) else value
+        value = compute()
+        data[key] = value
+        if not self.dirty:
+            self.dirty = True
+            atexit.register(self.save)
+        return value
+
+    def save(self) -> None:
+        if not self.dirty or self.file is None:
+            return
+        try:
+            self.file.parent.mkdir(parents=True, exist_ok=True)
+            handle, temporary = tempfile.mkstemp(dir=self.file.parent, suffix=".part")
+            with os.fdopen(handle, "w", encoding="utf-8") as out:
+                json.dump(self.data, out)
+            os.replace(temporary, self.file)
+            self.dirty = False
+        except OSError:
+            pass
+
+
+_answers = _Answers()
 
 
 @dataclass(frozen=True)
@@ -121,6 +194,10 @@ class _Parsed:
 def _unit_info(unit_text: str) -> tuple[str, str] | None:
     """(canonical unit name, dimensionality) of a unit as written; None if pint does not
     know it. Cached: a survey meets the same few spellings thousands of times."""
+    return _answers.get(f"unit|{unit_text}", lambda: _pint_unit(unit_text))
+
+
+def _pint_unit(unit_text: str):
     ureg = registry()
     import pint
 
@@ -129,7 +206,7 @@ def _unit_info(unit_text: str) -> tuple[str, str] | None:
     except (pint.errors.UndefinedUnitError, pint.errors.DefinitionSyntaxError, AttributeError,
             TypeError, ValueError, SyntaxError):
         return None
-    return str(units), str(units.dimensionality)
+    return [str(units), str(units.dimensionality)]
 
 
 def unit_known(unit_text: str) -> bool:
@@ -139,17 +216,20 @@ def unit_known(unit_text: str) -> bool:
 
 @lru_cache(maxsize=64)
 def _dimension(si: str) -> str:
-    return str(registry().parse_units(si).dimensionality)
+    return _answers.get(f"dimension|{si}", lambda: str(registry().parse_units(si).dimensionality))
 
 
 @lru_cache(maxsize=1024)
 def _line(unit: str, si: str) -> tuple[float, float]:
     """Offset and scale taking a value in ``unit`` to ``si`` (every unit here converts
     linearly, temperatures with an offset)."""
-    ureg = registry()
-    zero = float(ureg.Quantity(0.0, unit).to(si).magnitude)
-    one = float(ureg.Quantity(1.0, unit).to(si).magnitude)
-    return zero, one - zero
+    def compute():
+        ureg = registry()
+        zero = float(ureg.Quantity(0.0, unit).to(si).magnitude)
+        one = float(ureg.Quantity(1.0, unit).to(si).magnitude)
+        return [zero, one - zero]
+
+    return _answers.get(f"line|{unit}|{si}", compute)
 
 
 def _quantity(key: str, text, dimension: str, example: str, accepted: str, also: str | None = None):

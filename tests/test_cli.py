@@ -125,3 +125,19 @@ def test_check_shows_drain_devices_and_remedies(sample):
     data = json.loads(runner.invoke(app, ["check", str(sample), "--json"]).stdout)
     assert {"trap", "pump_trap", "purge", "flash", "remedies"} <= set(data)
     assert len(data["remedies"]) == 5
+
+
+def test_warm_check_does_not_import_pint(tmp_path):
+    # pint's answers are kept in the cache folder: the second check of the same unit
+    # meets only spellings seen before and needs no pint (start-up speed).
+    sample = str(SAMPLES[0])
+    env = dict(os.environ, XDG_CACHE_HOME=str(tmp_path), NO_COLOR="1")
+    code = ("import sys\nfrom stallcheck.cli import app\n"
+            "from typer.testing import CliRunner\n"
+            f"r = CliRunner().invoke(app, ['check', {sample!r}])\nassert r.exit_code in (0, 1), r.output\n"
+            "print('pint' in sys.modules)")
+    first = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True, check=True, env=env)
+    second = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True, check=True, env=env)
+    assert first.stdout.strip() == "True"
+    assert second.stdout.strip() == "False"
+    assert list((tmp_path / "stallcheck").glob("units-*.json"))

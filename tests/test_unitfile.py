@@ -1,6 +1,8 @@
 """Reading unit files: every bad input is an InputError naming the key and what is
 accepted; good input arrives in SI with absolute pressures."""
 
+import json
+
 import pytest
 
 from stallcheck import quantities, unitfile
@@ -133,3 +135,30 @@ def test_steam_price_basis_follows_the_file_units():
     assert any("steam_price_per" in d for d in u.defaults)
     with pytest.raises(InputError, match="without site.steam_price"):
         parse(**{"[design]": '[site]\nsteam_price_per = "1 t"\n[design]'})
+
+
+def test_kept_answers_convert_as_pint_does(tmp_path, monkeypatch):
+    # Independent: pint itself (the registry) against the answers read back from the
+    # cache file in a fresh memo.
+    monkeypatch.setenv("XDG_CACHE_HOME", str(tmp_path))
+    texts = ["15 psig", "-10 degF", "6000 cfm", "18 in", "900 lb/h", "2.5 barg", "30 gpm"]
+    fresh = quantities._Answers()
+    monkeypatch.setattr(quantities, "_answers", fresh)
+    for cache in (quantities._unit_info, quantities._line, quantities._dimension):
+        cache.cache_clear()
+    first = [quantities.convert(1.0, "pressure_abs", "us")] + [
+        quantities._magnitude("k", t, quantities._quantity("k", t, dim, "", "")[0], si)
+        for t, dim, si in [(texts[0], "Pa", "Pa"), (texts[1], "K", "K"), (texts[2], "m**3/s", "m**3/s"),
+                           (texts[3], "m", "m"), (texts[4], "kg/s", "kg/s"), (texts[5], "Pa", "Pa"),
+                           (texts[6], "m**3/s", "m**3/s")]]
+    fresh.save()
+    ureg = quantities.registry()
+    by_pint = [ureg.Quantity(1.0, "Pa").to("psi").magnitude, ureg.Quantity(15, "psig").to("Pa").magnitude,
+               ureg.Quantity(-10, "degF").to("K").magnitude, ureg.Quantity(6000, "cfm").to("m**3/s").magnitude,
+               ureg.Quantity(18, "inch").to("m").magnitude, ureg.Quantity(900, "lb/h").to("kg/s").magnitude,
+               ureg.Quantity(2.5, "barg").to("Pa").magnitude, ureg.Quantity(30, "gpm").to("m**3/s").magnitude]
+    assert first == pytest.approx(by_pint, rel=1e-12)
+    reread = quantities._Answers()
+    assert reread._load() == json.loads(json.dumps(fresh.data))
+    assert reread._load()
+
