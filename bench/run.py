@@ -133,16 +133,19 @@ def surveys(n: int, repeat: int) -> None:
         (work / "one.csv").write_text(to_csv(units[:1]), encoding="utf-8")
         cases = [("TOML folder", many, one), ("one CSV", work / "many.csv", work / "one.csv")]
         for name, big, small in cases:
-            t_big, t_small, memory = [], [], []
+            t_big, t_small, memory, memory_one = [], [], [], []
             for _ in range(repeat):
                 t, m = run([py, "-m", "stallcheck", "survey", str(big)])
                 t_big.append(t)
                 memory.append(m)
-                t_small.append(run([py, "-m", "stallcheck", "survey", str(small)])[0])
+                t, m = run([py, "-m", "stallcheck", "survey", str(small)])
+                t_small.append(t)
+                memory_one.append(m)
             big_t, small_t = statistics.median(t_big), statistics.median(t_small)
             marginal = (big_t - small_t) / (n - 1) * 1000.0
-            print(f"survey, {name:12s} {n:,} units {big_t:6.2f} s, 1 unit {small_t:5.2f} s: "
-                  f"{marginal:5.3f} ms per unit, peak memory {max(memory):5.0f} MB")
+            print(f"survey, {name:11s} {n:,} units {big_t:6.2f} s, 1 unit {small_t:5.2f} s: "
+                  f"{marginal:5.3f} ms per unit; peak memory {max(memory):4.0f} MB (1 unit: "
+                  f"{max(memory_one):4.0f} MB)")
     finally:
         shutil.rmtree(work, ignore_errors=True)
 
