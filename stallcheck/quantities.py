@@ -276,10 +276,11 @@ def pressure(key: str, text) -> Pressure:
     accepted = "psig, psia, barg, bara, kPag, kPaa, kPa(g), kPa(abs)"
     q, unit = _quantity(key, text, "Pa", "15 psig", accepted)
     if unit not in _GAUGE and unit not in _ABSOLUTE:
-        number = _split(key, text, "15 psig")[0]
+        number, written = _split(key, text, "15 psig")
+        base = {"bar": "bar", "kilopascal": "kPa"}.get(unit, "psi")
         raise InputError(key, f"'{text}' does not say gauge or absolute; write "
-                              f"\"{number:g} psig\" (gauge) or \"{number:g} psia\" (absolute), "
-                              f"or in SI \"barg\"/\"bara\", \"kPag\"/\"kPaa\".")
+                              f"\"{number:g} {base}g\" (gauge) or \"{number:g} {base}a\" (absolute); accepted: "
+                              f"{accepted}.")
     return Pressure(_magnitude(key, text, q, "Pa"), unit in _GAUGE)
 
 

@@ -48,6 +48,13 @@ _KNOWN = {
 }
 
 
+#: tomllib's messages, in plainer words where they puzzle.
+_TOML_WORDS = {
+    "Cannot overwrite a value": "a key or table is given twice",
+    "Illegal character '\\n'": "a line ends inside a quoted string (a closing quote is missing)",
+}
+
+
 def read_text(path: str | Path, max_bytes: int = MAX_FILE_BYTES, kind: str = "TOML unit file",
               suffix: str = ".toml") -> str:
     """Read a unit file's text (or a CSV table's, with its own ``kind``, ``suffix`` and
@@ -106,6 +113,8 @@ def parse(text: str, source: str = "unit file") -> Unit:
         match = re.search(r"line (\d+)", msg)
         detail = re.sub(r"\s*\(at line \d+, column \d+\)", "", msg)
         detail = re.sub(r"\s*\(at end of document\)", " (at the end of the file)", detail)
+        for said, plain in _TOML_WORDS.items():
+            detail = detail.replace(said, plain)
         raise InputError("", f"is not valid TOML: {detail}.", file=source,
                          line=int(match.group(1)) if match else None) from None
     try:

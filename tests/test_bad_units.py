@@ -1,0 +1,111 @@
+"""The corpus of bad unit files (tests/bad_units): every command refuses each one with
+exit status 2 and one message naming the file and the key, never a traceback."""
+
+import tomllib
+from pathlib import Path
+
+import pytest
+from typer.testing import CliRunner
+
+from stallcheck import unitfile
+from stallcheck.cli import app
+from conftest import BASE_UNIT
+
+runner = CliRunner()
+FOLDER = Path(__file__).parent / "bad_units"
+EXPECTED = tomllib.loads((FOLDER / "expected.txt").read_text(encoding="utf-8"))
+FILES = sorted(FOLDER.glob("*.toml"))
+
+
+def test_corpus_is_complete():
+    assert len(FILES) >= 40
+    assert {f.name for f in FILES} == set(EXPECTED)
+
+
+def _refused(result, path: Path, key: str, says: str, line=None):
+    assert result.exit_code == 2, result.output
+    assert result.stdout == ""
+    assert result.stderr.count("stallcheck:") == 1, result.stderr
+    message = result.stderr
+    assert str(path) in message
+    if key:
+        assert f"'{key}'" in message, message
+    assert says in message, message
+    if line is not None:
+        assert f"line {line}" in message
+    assert "Traceback" not in result.output
+
+
+@pytest.mark.parametrize("path", FILES, ids=lambda p: p.stem)
+@pytest.mark.parametrize("command", [["check"], ["check", "--json"], ["chart"], ["diagnose", "--no-ask"]])
+def test_every_command_refuses_every_bad_file(command, path):
+    e = EXPECTED[path.name]
+    result = runner.invoke(app, [*command, str(path)])
+    _refused(result, path, e["key"], e["says"], e.get("line"))
+
+
+def test_survey_names_every_bad_file_and_goes_on(tmp_path):
+    good = tmp_path / "good.toml"
+    good.write_text(BASE_UNIT, encoding="utf-8")
+    result = runner.invoke(app, ["survey", str(FOLDER), str(good), "--json"])
+    assert result.exit_code == 2
+    import json
+
+    data = json.loads(result.stdout)
+    assert len(data["results"]) == 1 and data["results"][0]["unit"] == "Test coil"
+    named = {Path(e["source"]).name for e in data["errors"]}
+    assert named == {f.name for f in FILES}
+    for e in data["errors"]:
+        expected = EXPECTED[Path(e["source"]).name]
+        assert expected["says"] in e["message"]
+    assert "Traceback" not in result.output
+
+
+def test_folder_missing_file_and_unreadable_file(tmp_path, monkeypatch):
+    result = runner.invoke(app, ["check", str(tmp_path)])
+    _refused(result, tmp_path, "", "is a folder")
+    missing = tmp_path / "nowhere.toml"
+    _refused(runner.invoke(app, ["check", str(missing)]), missing, "", "no such file")
+    locked = tmp_path / "locked.toml"
+    locked.write_text(BASE_UNIT, encoding="utf-8")
+
+    # Permission is simulated: the tests may run as a user who can read anything.
+    def refuse(self):
+        raise PermissionError(13, "Permission denied")
+
+    monkeypatch.setattr(Path, "read_bytes", refuse)
+    _refused(runner.invoke(app, ["check", str(locked)]), locked, "", "permission denied")
+
+
+def test_very_large_file_is_refused_without_reading_it(tmp_path, monkeypatch):
+    big = tmp_path / "huge.toml"
+    with open(big, "wb") as f:
+        f.truncate(50 * 1024 * 1024)  # sparse: 50 MB on paper, nothing on disk
+
+    def never(self):
+        raise AssertionError("a 50 MB file must not be read")
+
+    monkeypatch.setattr(Path, "read_bytes", never)
+    _refused(runner.invoke(app, ["check", str(big)]), big, "", "52.4 MB")
+
+
+@pytest.mark.parametrize("text, key, nearest", [
+    (BASE_UNIT.replace('lift = "0 ft"', 'lift = "0 ft"\nretrun_pressure = "0 psig"'), "drain.retrun_pressure",
+     "return_pressure"),
+    (BASE_UNIT.replace("[valve]", "[vlave]\nx = 1\n[valve]"), "vlave", "valve"),
+])
+def test_unknown_keys_warn_with_the_nearest_known_key(write_unit, text, key, nearest):
+    path = write_unit(text)
+    result = runner.invoke(app, ["check", str(path), "--json"])
+    assert result.exit_code in (0, 1)
+    assert f"unknown key '{key}'" in result.stderr and f"did you mean '{nearest}'" in result.stderr
+
+
+def test_nothing_in_a_unit_file_is_run_as_code(write_unit, tmp_path):
+    # TOML is data; a value that looks like code is only ever a (bad) string.
+    marker = tmp_path / "ran"
+    text = BASE_UNIT.replace('flow = "6000 cfm"', f'flow = "__import__(\'os\').mknod(\'{marker}\') cfm"')
+    result = runner.invoke(app, ["check", str(write_unit(text))])
+    assert result.exit_code == 2 and not marker.exists()
+    with pytest.raises(Exception):
+        unitfile.parse(text, "x.toml")
