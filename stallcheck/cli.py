@@ -62,10 +62,13 @@ def _run(path: Path, units: Optional[Units], method: Optional[Method]):
 
 def _load(path: Path, units: Optional[Units], method: Optional[Method]):
     """The unit and its result (see :func:`_run`)."""
-    from stallcheck import analysis, unitfile
+    from stallcheck import unitfile
 
     try:
         unit = unitfile.load(path)
+        # the steam tables (a two-second import) only once the file has been accepted
+        from stallcheck import analysis
+
         result = analysis.analyse(unit, system=units.value if units else None,
                                   method=method.value if method else None)
     except InputError as exc:

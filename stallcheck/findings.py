@@ -14,6 +14,9 @@ from stallcheck.inputs import Unit
 from stallcheck.result import Finding, Result
 
 FREEZING = 273.15
+#: Temperatures this close to freezing count as at it, not below [K]: the same unit
+#: written in °F and in °C differs by rounding in the last digits.
+_AT = 1e-6
 #: Trap types that do poorly on modulating service at low or fluctuating differential
 #: (common practice; VA HVAC Design Manual asks for float-and-thermostatic traps there).
 POOR_AT_LOW_DIFFERENTIAL = {
@@ -211,18 +214,18 @@ def _freeze_exposure(unit: Unit, r: Result) -> str | None:
     s = r.stall
     system = r.system
     if r.varies == "inlet-temperature":
-        if s.inlet_temperature is None or s.inlet_temperature >= FREEZING:
+        if s.inlet_temperature is None or s.inlet_temperature >= FREEZING - _AT:
             return None
         span = (f"from {q.show(s.inlet_temperature, 'temperature', system)} up to "
                 f"{q.show(FREEZING, 'temperature', system)}")
     else:
-        if unit.design.inlet_temperature >= FREEZING:
+        if unit.design.inlet_temperature >= FREEZING - _AT:
             return None
         span = f"at {q.show(unit.design.inlet_temperature, 'temperature', system)}"
     hours = ""
     if unit.load.bins and r.varies == "inlet-temperature":
         at_risk = sum(b.hours for b in unit.load.bins
-                      if b.inlet_temperature is not None and s.inlet_temperature <= b.inlet_temperature < FREEZING)
+                      if b.inlet_temperature is not None and s.inlet_temperature <= b.inlet_temperature < FREEZING - _AT)
         hours = f" The load bins put {at_risk:,.0f} h a year in that band."
     lead = (f"The coil stalls while the entering air is below freezing ({span}): condensate held in "
             f"the tubes can freeze and split them.{hours} ")

@@ -5,7 +5,9 @@ p_coil + fill ≤ back + Δp_min and from a steam temperature that rises with lo
 import numpy as np
 from hypothesis import given, settings, strategies as st
 
-from stallcheck import analysis, unitfile
+import pytest
+
+from stallcheck import analysis, quantities, unitfile
 
 TEMPLATE = """
 format = 1
@@ -22,14 +24,42 @@ ua_flow_exponent = {n}
 supply_pressure = "{p_supply} kPag"
 [valve]
 cv = {cv}
-characteristic = "equal-percentage"
+characteristic = "{characteristic}"
 [load]
 varies = "{varies}"
+minimum = {minimum}
 [drain]
-arrangement = "trap"
+arrangement = "{arrangement}"
 fill_head = "{fill} m"
 lift = "{lift} m"
 return_pressure = "{p_return} kPag"
+"""
+
+# The same unit in US customary units, every number converted with pint at full precision.
+TEMPLATE_US = """
+format = 1
+[unit]
+name = "Generated"
+[design]
+medium = "{medium}"
+flow = "{flow!r} {flow_unit}"
+inlet_temperature = "{t_in!r} degF"
+outlet_temperature = "{t_out!r} degF"
+steam_pressure = "{p_design!r} psig"
+ua_flow_exponent = {n}
+[steam]
+supply_pressure = "{p_supply!r} psig"
+[valve]
+cv = {cv}
+characteristic = "{characteristic}"
+[load]
+varies = "{varies}"
+minimum = {minimum}
+[drain]
+arrangement = "{arrangement}"
+fill_head = "{fill!r} ft"
+lift = "{lift!r} ft"
+return_pressure = "{p_return!r} psig"
 """
 
 units = st.fixed_dictionaries({
@@ -43,19 +73,43 @@ units = st.fixed_dictionaries({
     "lift": st.floats(0, 6),
     "p_return": st.floats(0, 60),
     "cv": st.floats(1, 60),
+    "characteristic": st.sampled_from(["equal-percentage", "linear"]),
+    "minimum": st.sampled_from([0.0, 0.2, 0.5]),
+    "arrangement": st.sampled_from(["trap", "trap-vacuum-breaker", "pump-trap", "constant-purge"]),
 })
 
 
-def build(d, **over):
+def _values(d, **over):
     d = {**d, **over}
     t_in = d["t_out"] - d["rise"]
     if d["medium"] == "water":
         t_in = max(t_in, 2.0)
-    return unitfile.parse(TEMPLATE.format(
-        medium=d["medium"], flow=3 if d["medium"] == "air" else 5,
-        flow_unit="m3/s" if d["medium"] == "air" else "m3/h", t_in=t_in, t_out=d["t_out"],
-        p_design=d["p_design"], n=d["n"], p_supply=d["p_design"] + 150, cv=d["cv"], varies=d["varies"],
-        fill=d["fill"], lift=d["lift"], p_return=d["p_return"]), "generated.toml")
+    return dict(medium=d["medium"], flow=3.0 if d["medium"] == "air" else 5.0,
+                flow_unit="m3/s" if d["medium"] == "air" else "m3/h", t_in=t_in, t_out=d["t_out"],
+                p_design=d["p_design"], n=d["n"], p_supply=d["p_design"] + d.get("supply_margin", 150.0),
+                cv=d["cv"], characteristic=d["characteristic"], varies=d["varies"], minimum=d["minimum"],
+                arrangement=d["arrangement"], fill=d["fill"], lift=d["lift"], p_return=d["p_return"])
+
+
+def build(d, **over):
+    return unitfile.parse(TEMPLATE.format(**_values(d, **over)), "generated.toml")
+
+
+def build_us(d):
+    """The unit of :func:`build`, written in psig, degF, ft, cfm or gpm (pint converts)."""
+    ureg = quantities.registry()
+    v = _values(d)
+
+    def to(value, unit, target):
+        return float(ureg.Quantity(value, unit).to(target).magnitude)
+
+    air = v["medium"] == "air"
+    us = dict(v, flow=to(v["flow"], "m**3/s" if air else "m**3/h", "cfm" if air else "gpm"),
+              flow_unit="cfm" if air else "gpm",
+              t_in=to(v["t_in"], "degC", "degF"), t_out=to(v["t_out"], "degC", "degF"),
+              p_design=to(v["p_design"], "kPa", "psi"), p_supply=to(v["p_supply"], "kPa", "psi"),
+              fill=to(v["fill"], "m", "ft"), lift=to(v["lift"], "m", "ft"), p_return=to(v["p_return"], "kPa", "psi"))
+    return unitfile.parse(TEMPLATE_US.format(**us), "generated-us.toml")
 
 
 @settings(max_examples=40, deadline=None)
@@ -73,3 +127,34 @@ def test_generated_units_analyse_and_hold_invariants(d):
     # more fill head never raises it
     deeper = analysis.analyse(build(d, fill=d["fill"] + 0.5))
     assert (deeper.stall.load_fraction or 0) <= (s.load_fraction or 0) + 1e-12
+
+    # a higher design steam pressure (a smaller coil run hotter) never raises it
+    hotter = analysis.analyse(build(d, p_design=d["p_design"] + 50.0))
+    assert (hotter.stall.load_fraction or 0) <= (s.load_fraction or 0) + 1e-12
+    # the valve opens further as the load grows (until it is fully open)
+    opening = r.points.valve_opening
+    assert np.all(np.diff(np.minimum(opening, 1.0)) >= -1e-12)
+    # the drainage limit, where there is one, lies at or above the stall point
+    if r.trap.limit_load is not None and s.occurs:
+        assert r.trap.limit_load >= s.load_fraction - 1e-9
+
+
+@settings(max_examples=30, deadline=None)
+@given(units)
+def test_the_same_unit_in_si_and_us_gives_the_same_results(d):
+    si, us = analysis.analyse(build(d)), analysis.analyse(build_us(d))
+    assert us.system == "us" and si.system == "si"
+    assert si.stall.occurs == us.stall.occurs
+    pairs = [(si.stall.load_fraction, us.stall.load_fraction), (si.design.steam_flow, us.design.steam_flow),
+             (si.back_pressure, us.back_pressure), (si.design.load, us.design.load),
+             (si.valve.required_cv_design, us.valve.required_cv_design),
+             (si.valve.min_controllable_load, us.valve.min_controllable_load),
+             (si.trap.required_capacity, us.trap.required_capacity), (si.trap.limit_load, us.trap.limit_load)]
+    pairs += [(a.value, b.value) for a, b in zip(si.remedies, us.remedies)]
+    for a, b in pairs:
+        if a is None or b is None:
+            assert a is None and b is None
+        else:
+            assert b == pytest.approx(a, rel=1e-6, abs=1e-9)
+    assert si.drainage.required == us.drainage.required
+    assert [f.code for f in si.findings] == [f.code for f in us.findings]
