@@ -114,10 +114,7 @@ def _screen(units: list[Unit]) -> list[InputError | None]:
     for i, u in enumerate(units):
         d = u.design
         system = u.system
-        if u.supply_pressure > 0.9 * properties.P_CRIT:
-            errors[i] = InputError("steam.supply_pressure", "is near or above the critical pressure of water "
-                                   "(22.06 MPa); check the units.", file=u.source)
-        elif d.outlet_temperature >= t_steam[i] - 0.5:
+        if d.outlet_temperature >= t_steam[i] - 0.5:
             errors[i] = InputError(
                 "design.outlet_temperature",
                 f"the set point {q.show(d.outlet_temperature, 'temperature', system)} is not below the steam "

@@ -24,6 +24,8 @@ from stallcheck.inputs import (ARRANGEMENTS, CHARACTERISTICS, MEDIA, METHODS, TR
 
 #: Largest unit file read [bytes]. A unit file is a page of text.
 MAX_FILE_BYTES = 1_000_000
+#: Critical pressure of water [Pa] (IAPWS-IF97): no saturated steam above it.
+CRITICAL_PRESSURE = 22.064e6
 #: Kv → Cv (IEC 60534-1: Cv = 1.156 Kv).
 CV_PER_KV = 1.156
 
@@ -281,6 +283,9 @@ def _build(data: dict, source: str) -> Unit:
     steam = r.table("steam")
     supply = r.quantity(steam, "steam", "supply_pressure", q.pressure).absolute(atm)
     _absolute_positive("steam.supply_pressure", supply, steam["supply_pressure"])
+    if supply > 0.9 * CRITICAL_PRESSURE:
+        raise InputError("steam.supply_pressure", f"\"{steam['supply_pressure']}\" is near or above the critical "
+                                                  f"pressure of water (22.06 MPa); check the units.")
     if supply <= design.steam_pressure:
         raise InputError("steam.supply_pressure",
                          f"\"{steam['supply_pressure']}\" is not above the design coil pressure "

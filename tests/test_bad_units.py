@@ -1,6 +1,7 @@
 """The corpus of bad unit files (tests/bad_units): every command refuses each one with
 exit status 2 and one message naming the file and the key, never a traceback."""
 
+import json
 import tomllib
 from pathlib import Path
 
@@ -9,6 +10,7 @@ from typer.testing import CliRunner
 
 from stallcheck import unitfile
 from stallcheck.cli import app
+from stallcheck.errors import InputError
 from conftest import BASE_UNIT
 
 runner = CliRunner()
@@ -49,8 +51,6 @@ def test_survey_names_every_bad_file_and_goes_on(tmp_path):
     good.write_text(BASE_UNIT, encoding="utf-8")
     result = runner.invoke(app, ["survey", str(FOLDER), str(good), "--json"])
     assert result.exit_code == 2
-    import json
-
     data = json.loads(result.stdout)
     assert len(data["results"]) == 1 and data["results"][0]["unit"] == "Test coil"
     named = {Path(e["source"]).name for e in data["errors"]}
@@ -107,5 +107,5 @@ def test_nothing_in_a_unit_file_is_run_as_code(write_unit, tmp_path):
     text = BASE_UNIT.replace('flow = "6000 cfm"', f'flow = "__import__(\'os\').mknod(\'{marker}\') cfm"')
     result = runner.invoke(app, ["check", str(write_unit(text))])
     assert result.exit_code == 2 and not marker.exists()
-    with pytest.raises(Exception):
+    with pytest.raises(InputError, match="is not '<number> <unit>'"):
         unitfile.parse(text, "x.toml")
