@@ -129,6 +129,48 @@ def demo(units: Optional[Units] = UNITS_OPT, json: bool = JSON_OPT) -> None:
     _show_check(result, json)
 
 
+@app.command()
+def report(unit: Path = UNIT_ARG,
+           output: Path = typer.Option(..., "-o", "--output", help="The Markdown report to write.",
+                                       metavar="FILE.md"),
+           svg: Optional[Path] = typer.Option(None, "--svg", help="Also draw the stall chart as SVG.",
+                                              metavar="FILE.svg"),
+           png: Optional[Path] = typer.Option(None, "--png", help="Also draw the stall chart as PNG.",
+                                              metavar="FILE.png"),
+           force: bool = typer.Option(False, "--force", help="Replace files that exist."),
+           units: Optional[Units] = UNITS_OPT, method: Optional[Method] = METHOD_OPT) -> None:
+    """Write a Markdown report for a design file or a work order: the unit, the method,
+    the stall point, the chart, the verdict, valve and drain figures, findings and
+    cautions. --svg/--png draw the chart (needs the plot extra: matplotlib).
+
+    Exit status as for check; 2 where a file cannot be written.
+    """
+    import datetime
+
+    from stallcheck import files
+    from stallcheck.render import report as rep
+
+    targets = [("--output", output)] + [(o, p) for o, p in (("--svg", svg), ("--png", png)) if p is not None]
+    try:
+        for option, path in targets:
+            files.check_target(path, option, force)
+    except InputError as exc:
+        _fail(str(exc))
+    unit_obj, result = _load(unit, units, method)
+    text = rep.markdown(unit_obj, result, result.system, __version__, datetime.date.today().isoformat())
+    try:
+        pictures = [(o, p, rep.picture(result, result.system, o[2:])) for o, p in targets[1:]]
+        for option, path, data in pictures:
+            files.write_new(path, data, option, force)
+        files.write_new(output, text, "--output", force)
+    except rep.MissingExtra as exc:
+        _fail(str(exc))
+    except InputError as exc:
+        _fail(str(exc))
+    typer.echo(f"wrote {output}" + "".join(f", {p}" for _, p in targets[1:]), err=True)
+    raise typer.Exit(result.exit_status)
+
+
 #: Show a progress bar on stderr above this many units.
 PROGRESS_FROM = 300
 

@@ -11,13 +11,13 @@ from pathlib import Path
 from stallcheck.errors import InputError
 
 
-def write_new(path: str | Path, text: str, option: str, force: bool = False) -> None:
-    """Write ``text`` to ``path`` atomically.
+def write_new(path: str | Path, text: str | bytes, option: str, force: bool = False) -> None:
+    """Write ``text`` (or bytes) to ``path`` atomically.
 
     Parameters
     ----------
     path : str or Path
-    text : str
+    text : str or bytes
     option : str
         The command-line option that named the file, for messages.
     force : bool
@@ -36,7 +36,8 @@ def write_new(path: str | Path, text: str, option: str, force: bool = False) -> 
     except OSError as exc:
         raise InputError(option, f"cannot write in {path.parent} ({exc.strerror or exc}).", file=str(path)) from None
     try:
-        with os.fdopen(handle, "w", encoding="utf-8", newline="") as out:
+        binary = isinstance(text, bytes)
+        with (os.fdopen(handle, "wb") if binary else os.fdopen(handle, "w", encoding="utf-8", newline="")) as out:
             out.write(text)
             out.flush()
             os.fsync(out.fileno())

@@ -1,0 +1,183 @@
+"""The hand-over report: Markdown for a design file or a work order, and the stall chart
+as a picture (SVG or PNG) where matplotlib is installed (the ``plot`` extra)."""
+
+from __future__ import annotations
+
+import io
+
+from stallcheck import quantities as q
+from stallcheck.inputs import Unit
+from stallcheck.render import chart
+from stallcheck.result import Result
+
+SEVERITY_WORD = {"danger": "DANGER", "warning": "Warning", "info": "Note"}
+
+
+class MissingExtra(Exception):
+    """An optional library is not installed; the message says how to install it."""
+
+
+def markdown(unit: Unit, r: Result, system: str, version: str, date: str) -> str:
+    """The report as Markdown text.
+
+    Parameters
+    ----------
+    unit : Unit
+        The validated input (for the data section).
+    r : Result
+    system : str
+        ``"si"`` or ``"us"`` display units.
+    version, date : str
+        The program version and the date, printed in the header.
+    """
+    atm = r.atmospheric_pressure
+
+    def show(value, kind):
+        return q.show(value, kind, system, atm)
+
+    d = unit.design
+    dr = unit.drain
+    out: list[str] = [f"# Stall check: {r.unit}" + (f" ({r.tag})" if r.tag else ""), ""]
+    out += [f"Unit file `{r.source}`, analysed by stallcheck {version} on {date}. "
+            "A screening aid: the cautions at the end apply.", ""]
+
+    rows = [
+        ("Medium", d.medium + (f", {d.concentration:.0%} by mass" if d.concentration else "")),
+        ("Design load", show(r.design.load, "power")),
+        ("Entering at full load", show(d.inlet_temperature, "temperature")),
+        ("Set point (leaving)", show(d.outlet_temperature, "temperature")),
+        ("Design steam pressure", f"{show(d.steam_pressure, 'pressure')} ({show(r.design.steam_temperature, 'temperature')})"),
+        ("Supply pressure", show(r.supply_pressure, "pressure")),
+        ("Load varies with", r.varies),
+        ("Minimum load", f"{r.minimum_load:.0%}"),
+        ("Drain", f"{dr.arrangement}, {dr.trap} trap"),
+        ("Fill head / lift", f"{show(dr.fill_head, 'length')} / {show(dr.lift, 'length')}"),
+        ("Return pressure", show(dr.return_pressure, "pressure")),
+        ("Back pressure on the trap", show(r.back_pressure, "pressure")),
+    ]
+    if unit.valve is not None:
+        v = unit.valve
+        rows.append(("Control valve", f"Cv {v.cv:.3g}, {v.characteristic}, rangeability {v.rangeability:g}"))
+    out += ["## The unit", "", "| | |", "|---|---|"] + [f"| {a} | {b} |" for a, b in rows] + [""]
+
+    out += ["## Method and assumptions", ""] + [f"- {a}" for a in r.assumptions] + [""]
+
+    s = r.stall
+    out += ["## Stall point", ""]
+    if not s.occurs:
+        out.append(f"None: the coil pressure stays above {show(s.threshold_pressure, 'pressure')}, where the "
+                   f"trap would stop discharging, at every load.")
+    elif s.load_fraction >= 1.0:
+        out.append(f"**Stalled at every load**: the trap needs the coil above {show(s.threshold_pressure, 'pressure')}, "
+                   f"more than it has at full load.")
+    else:
+        inlet = f" (entering {show(s.inlet_temperature, 'temperature')} and warmer)" if s.inlet_temperature else ""
+        out.append(f"**Stalls below {s.load_fraction:.0%} load**{inlet}: coil pressure {show(s.coil_pressure, 'pressure')}, "
+                   f"steam {show(s.steam_temperature, 'temperature')}, condensate {show(s.condensate, 'mass_flow')}.")
+    if r.stalled_hours is not None:
+        out.append(f"Stalled {r.stalled_hours:,.0f} h of the {r.total_hours:,.0f} h in the load bins.")
+    out.append("")
+
+    dn = r.drainage
+    out += ["## Verdict", "",
+            f"Installed **{dn.installed}**, required **{dn.required}**: "
+            + ("adequate." if dn.adequate else "**not adequate**."), ""]
+    out += [f"- {reason}" for reason in dn.reasons] + [""]
+
+    out += ["## Stall chart", "", "```text", chart.plain(chart.render(r, system, width=78)), "```", ""]
+
+    out += _figures(r, show)
+
+    out += ["## What would fix it" if s.occurs and s.load_fraction > r.minimum_load else "## Margins", ""]
+    out += [f"- `{m.key}`: {m.note}" for m in r.remedies] + [""]
+
+    out += ["## Findings", ""]
+    out += [f"- **{SEVERITY_WORD[f.severity]}** `{f.code}`: {f.message}" for f in r.findings] or ["None."]
+    out += ["", "## Cautions", ""] + [f"- {c}" for c in r.cautions] + [""]
+    return "\n".join(out)
+
+
+def _figures(r: Result, show) -> list[str]:
+    """Valve and drain-device figures as a table."""
+    rows = []
+    v = r.valve
+    if v is not None:
+        rows.append(("Valve Cv needed at design", f"{v.required_cv_design:.3g} of {v.cv:.3g} "
+                     f"({'more than fully open' if v.opening_design > 1 else f'{v.opening_design:.0%} open'})"))
+        if not v.capacity_ok:
+            rows.append(("Valve-limited", f"{v.limited_load_fraction:.0%} of design load at "
+                         f"{show(v.limited_coil_pressure, 'pressure')}"))
+        rows.append(("Valve controls down to", f"about {v.min_controllable_load:.0%} load"))
+    t = r.trap
+    if t is not None:
+        rows.append(("Trap: full-load condensate", f"{show(t.design_condensate, 'mass_flow')} at "
+                     f"{show(t.design_differential, 'differential')}"))
+        rows.append(("Trap: select for", f"{show(t.required_capacity, 'mass_flow')} ({t.margin:g} x full load) at "
+                     f"{show(t.working_differential, 'differential')}"
+                     + ("" if t.installed_capacity is None else
+                        f"; passes {show(t.installed_capacity, 'mass_flow')} there")))
+        rows.append(("Drainage limit", "none" if t.limit_load is None else f"{t.limit_load:.0%} load"))
+    p = r.pump_trap
+    if p is not None:
+        rows.append(("Pump-trap duty", f"{show(p.condensate, 'mass_flow')} against {show(p.back_pressure, 'pressure')}, "
+                     f"motive {show(p.motive_pressure, 'pressure')}"))
+    u = r.purge
+    if u is not None:
+        yearly = "" if u.yearly_mass is None else f"; {show(u.yearly_mass, 'mass')} a year"
+        cost = "" if u.yearly_cost is None else f", {u.yearly_cost:,.0f} {u.currency}".rstrip()
+        rows.append(("Constant purge", f"{show(u.design_rate, 'mass_flow')} at full load{yearly}{cost}"))
+    f = r.flash
+    if f is not None:
+        velocity = "" if f.velocity is None else f"; {show(f.velocity, 'velocity')} in the return line"
+        rows.append(("Flash steam at full load", f"{f.fraction:.1%}, {show(f.flow, 'mass_flow')}{velocity}"))
+    return ["## Valve and drain figures", "", "| | |", "|---|---|"] + [f"| {a} | {b} |" for a, b in rows] + [""]
+
+
+def picture(r: Result, system: str, fmt: str) -> bytes:
+    """The stall chart drawn with matplotlib, as SVG or PNG bytes.
+
+    Raises
+    ------
+    MissingExtra
+        Where matplotlib is not installed.
+    """
+    try:
+        import matplotlib
+
+        matplotlib.use("Agg")
+        import matplotlib.pyplot as plt
+    except ImportError:
+        raise MissingExtra("drawing the chart needs matplotlib: pip install \"stallcheck[plot]\" "
+                           "(or pip install matplotlib)") from None
+    atm = r.atmospheric_pressure
+    pts = r.points
+    load = pts.load_fraction * 100
+    pressure = q.convert_array(pts.coil_pressure, "pressure", system, atm)
+    back = q.convert(r.back_pressure, "pressure", system, atm)
+    unit = q.label("pressure", system)
+    fig, ax = plt.subplots(figsize=(7.5, 4.5), dpi=120)
+    ax.plot(load, pressure, color="tab:blue", lw=2, label="steam pressure the coil needs")
+    ax.axhline(back, color="tab:orange", lw=1.5, ls="--", label="back pressure on the trap")
+    ax.axhline(0.0, color="grey", lw=0.8, ls=":", label="atmospheric (0 gauge)")
+    ax.fill_between(load, min(min(pressure), back, 0.0), pressure, where=pts.stalled, color="tab:red", alpha=0.15,
+                    label="stalled: the trap cannot discharge")
+    if r.stall.occurs:
+        ax.plot([r.stall.load_fraction * 100], [q.convert(r.stall.coil_pressure, "pressure", system, atm)], "X",
+                color="tab:red", ms=10, label="stall point")
+    t = r.trap
+    if t is not None and t.limit_load is not None and (not r.stall.occurs or t.limit_load > r.stall.load_fraction + 0.005):
+        ax.plot([t.limit_load * 100], [q.convert(t.limit_coil_pressure, "pressure", system, atm)], "D",
+                color="tab:purple", ms=7, label="drainage limit")
+    if r.minimum_load > 0:
+        ax.axvline(r.minimum_load * 100, color="tab:green", lw=1, label="minimum load")
+    ax.set_xlim(0, 100)
+    ax.set_xlabel("load, % of design")
+    ax.set_ylabel(f"coil pressure, {unit}")
+    ax.set_title(r.unit + (f" ({r.tag})" if r.tag else ""))
+    ax.grid(True, alpha=0.3)
+    ax.legend(loc="upper left", fontsize=8)
+    fig.tight_layout()
+    buffer = io.BytesIO()
+    fig.savefig(buffer, format=fmt)
+    plt.close(fig)
+    return buffer.getvalue()
