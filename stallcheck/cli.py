@@ -171,6 +171,102 @@ def report(unit: Path = UNIT_ARG,
     raise typer.Exit(result.exit_status)
 
 
+@app.command()
+def new(file: Optional[Path] = typer.Argument(None, help="Where to write the unit file (asked at the end "
+                                              "if not given).", show_default=False, metavar="[FILE.toml]")) -> None:
+    """Build a unit file by answering questions: each answer is checked as you give it,
+    the stall point and chart are shown at the end, and a commented unit file is
+    written (never over an existing file without your say-so).
+    """
+    from rich.prompt import Confirm, Prompt
+
+    from stallcheck import files, wizard
+    from stallcheck.render import terminal
+
+    err = terminal.console(stderr=True)
+    try:
+        system = Prompt.ask("Units for your answers", choices=["us", "si"], default="us", console=err)
+        answers: dict = {}
+        while True:
+            _ask_all(answers, system, err)
+            text = wizard.to_toml(answers)
+            try:
+                unit, result = _analyse_text(text)
+            except InputError as exc:
+                err.print(f"  {exc.message}", highlight=False, markup=False)
+                answers.pop(exc.key, None)
+                continue
+            break
+        out = terminal.console()
+        s = result.stall
+        verdict = ("never stalls" if not s.occurs else "stalls at every load" if s.load_fraction >= 1
+                   else f"stalls below {s.load_fraction:.0%} load")
+        out.print(f"{result.unit}: {verdict}; needs {result.drainage.required}, has {result.drainage.installed} "
+                  f"({'adequate' if result.drainage.adequate else 'NOT adequate'})", highlight=False, markup=False)
+        terminal.emit(out, terminal.chart_text(result, result.system, width=min(out.width, 100) - 2))
+        out.print("")
+        path = file
+        while True:
+            if path is None:
+                default = "".join(c if c.isalnum() else "_" for c in answers["unit.name"].lower()).strip("_")
+                path = Path(Prompt.ask("Save the unit file as", default=f"{default or 'unit'}.toml", console=err))
+            if path.exists() and not Confirm.ask(f"{path} exists. Replace it?", default=False, console=err):
+                path = None
+                continue
+            try:
+                files.write_new(path, text, "FILE", force=True)
+            except InputError as exc:
+                err.print(f"  {exc}", highlight=False, markup=False)
+                if file is not None:
+                    raise typer.Exit(2)
+                path = None
+                continue
+            break
+    except KeyboardInterrupt:
+        typer.echo("\nstallcheck: stopped; nothing written.", err=True)
+        raise typer.Exit(130)
+    except EOFError:
+        _fail("the answers ended before the unit was complete; nothing written.")
+    typer.echo(f"wrote {path}", err=True)
+
+
+def _ask_all(answers: dict, system: str, err) -> None:
+    """Ask every question not yet answered, each again until its answer is accepted."""
+    from rich.prompt import Prompt
+
+    from stallcheck import wizard
+
+    skipped: set = set()
+    while True:
+        pending = [x for x in wizard.asked(answers) if x.key not in answers and x.key not in skipped]
+        if not pending:
+            return
+        x = pending[0]
+        err.print(f"[dim]{x.key}: {x.explain}[/dim]")
+        default = x.example.get(system)
+        if x.choices:
+            err.print(f"[dim]  one of: {', '.join(x.choices)}[/dim]")
+        text = Prompt.ask(x.ask, default=default, console=err) if default else Prompt.ask(x.ask, default="", console=err,
+                                                                                          show_default=False)
+        try:
+            value = wizard.accept(x, text, answers)
+        except InputError as exc:
+            err.print(f"  {exc.message}", highlight=False, markup=False)
+            continue
+        if value is None:
+            skipped.add(x.key)
+        else:
+            answers[x.key] = value
+
+
+def _analyse_text(text: str):
+    """The unit a wizard wrote, validated and analysed (InputError names the key)."""
+    from stallcheck import analysis, unitfile
+
+    unit = unitfile.parse(text, "the new unit")
+    return unit, analysis.analyse(unit)
+
+
 #: Show a progress bar on stderr above this many units.
 PROGRESS_FROM = 300
 

@@ -1,0 +1,185 @@
+"""The questions ``stallcheck new`` asks, how each answer is checked, and the commented
+unit file written from the answers.
+
+Nothing here prompts or prints: the command line asks each :class:`Question` in turn,
+hands the answer to :func:`accept` (which raises :class:`InputError` with what is
+accepted) and, at the end, writes :func:`to_toml`. An answer is checked on its own
+(unit, range) and against earlier answers (a set point above the entering temperature,
+a supply above the coil pressure) as it is given.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass, field
+from typing import Callable
+
+from stallcheck import quantities as q
+from stallcheck.errors import InputError
+from stallcheck.inputs import ARRANGEMENTS, CHARACTERISTICS, MEDIA, TRAPS
+
+
+@dataclass(frozen=True)
+class Question:
+    """One value the unit needs.
+
+    Attributes
+    ----------
+    key : str
+        Dotted unit-file key.
+    ask : str
+        The question.
+    explain : str
+        One line on what it means (also the comment in the file).
+    kind : str
+        ``"text"``, ``"choice"``, ``"number"`` or a quantity kind (``"flow"``,
+        ``"temperature"``, ``"pressure"``, ``"length"``, ``"fraction"``).
+    example : dict
+        Example answer by unit system (``"us"``, ``"si"``), shown as the default.
+    choices : tuple
+    low, high : float
+        Range for plain numbers.
+    optional : bool
+        A blank answer leaves the key out.
+    when : callable
+        Asked only where this returns True for the answers so far.
+    """
+
+    key: str
+    ask: str
+    explain: str
+    kind: str
+    example: dict = field(default_factory=dict)
+    choices: tuple = ()
+    low: float = 0.0
+    high: float = 0.0
+    optional: bool = False
+    when: Callable[[dict], bool] = lambda answers: True
+
+
+QUESTIONS = (
+    Question("unit.name", "Name of the unit", "what the unit is called in reports", "text",
+             {"us": "", "si": ""}),
+    Question("unit.tag", "Equipment tag (blank for none)", "the plant's own tag for it", "text", optional=True),
+    Question("design.medium", "What does it heat?", "the medium on the other side of the coil", "choice",
+             {"us": "air", "si": "air"}, choices=MEDIA),
+    Question("design.concentration", "Glycol concentration (mass %)", "mass fraction of glycol in the mix",
+             "fraction", {"us": "30 %", "si": "30 %"}, when=lambda a: str(a.get("design.medium", "")).endswith("glycol")),
+    Question("design.flow", "Design flow", "mass or volume flow at full load (air volumes are standard air)",
+             "flow", {"us": "6000 cfm", "si": "10000 m3/h"}),
+    Question("design.inlet_temperature", "Entering temperature at full load",
+             "for an outdoor-air coil, the coldest air", "temperature", {"us": "0 degF", "si": "-18 degC"}),
+    Question("design.outlet_temperature", "Leaving temperature (the set point)",
+             "what the control valve holds", "temperature", {"us": "55 degF", "si": "13 degC"}),
+    Question("design.steam_pressure", "Steam pressure in the coil at full load (gauge)",
+             "the pressure the coil was selected for; it fixes the coil's size", "pressure",
+             {"us": "5 psig", "si": "0.35 barg"}),
+    Question("steam.supply_pressure", "Steam pressure ahead of the control valve (gauge)",
+             "must be above the coil pressure so the valve can pass steam", "pressure",
+             {"us": "15 psig", "si": "1 barg"}),
+    Question("valve.cv", "Control valve Cv (blank if not known)", "full-travel flow coefficient, US Cv",
+             "number", low=0.01, high=1e5, optional=True),
+    Question("valve.characteristic", "Valve characteristic", "inherent flow characteristic", "choice",
+             {"us": "equal-percentage", "si": "equal-percentage"}, choices=CHARACTERISTICS,
+             when=lambda a: "valve.cv" in a),
+    Question("load.minimum", "Lowest load it runs at, as a fraction (0 to below 1)",
+             "below this load the unit is off or held by other controls", "number",
+             {"us": "0", "si": "0"}, low=0.0, high=0.999),
+    Question("drain.arrangement", "What drains it now?", "the installed drainage", "choice",
+             {"us": "trap", "si": "trap"}, choices=ARRANGEMENTS),
+    Question("drain.trap", "Trap type", "the trade type of the trap", "choice",
+             {"us": "float-thermostatic", "si": "float-thermostatic"}, choices=TRAPS),
+    Question("drain.fill_head", "Height from the coil outlet down to the trap inlet",
+             "the fill head: more of it drains a coil at low pressure", "length", {"us": "12 in", "si": "0.3 m"}),
+    Question("drain.lift", "Rise in the discharge after the trap (0 if none)",
+             "condensate lifted after the trap adds to the back pressure", "length", {"us": "0 ft", "si": "0 m"}),
+    Question("drain.return_pressure", "Pressure in the return or receiver (gauge)",
+             "what the trap discharges against", "pressure", {"us": "0 psig", "si": "0 barg"}),
+)
+
+
+def asked(answers: dict) -> list[Question]:
+    """The questions that apply given the answers so far."""
+    return [x for x in QUESTIONS if x.when(answers)]
+
+
+def accept(question: Question, text: str, answers: dict, atmospheric: float = q.STANDARD_ATMOSPHERE):
+    """Check one answer; return the value to write (a string or a number), or None for a
+    blank optional answer.
+
+    Raises
+    ------
+    InputError
+        Naming the key and what is accepted.
+    """
+    text = (text or "").strip()
+    key = question.key
+    if not text:
+        if question.optional:
+            return None
+        raise InputError(key, "needs an answer" + (f", such as \"{question.example.get('us')}\"."
+                                                    if question.example.get("us") else "."))
+    kind = question.kind
+    if kind == "text":
+        return text
+    if kind == "choice":
+        if text not in question.choices:
+            raise InputError(key, f"'{text}' is not one of: {', '.join(question.choices)}.")
+        return text
+    if kind == "number":
+        try:
+            value = float(text)
+        except ValueError:
+            raise InputError(key, f"takes a plain number from {question.low:g} to {question.high:g}.") from None
+        if not question.low <= value <= question.high:
+            raise InputError(key, f"{value:g} is out of range; accepted: {question.low:g} to {question.high:g}.")
+        return value
+    if kind == "fraction":
+        value = q.fraction(key, text)
+        if not 0.0 < value <= 0.6:
+            raise InputError(key, "is out of range; accepted: above 0 % to 60 %.")
+        return text
+    if kind == "flow":
+        if q.flow(key, text).value <= 0:
+            raise InputError(key, "must be greater than zero.")
+        return text
+    if kind == "temperature":
+        t = q.temperature(key, text)
+        if key == "design.outlet_temperature" and "design.inlet_temperature" in answers:
+            t_in = q.temperature(key, answers["design.inlet_temperature"])
+            if t <= t_in:
+                raise InputError(key, f"must be above the entering temperature ({answers['design.inlet_temperature']}).")
+        if key == "design.inlet_temperature" and answers.get("design.medium", "air") != "air" and t <= 273.15:
+            raise InputError(key, "is at or below freezing for a liquid; accepted: above 0 °C (32 °F).")
+        return text
+    if kind == "pressure":
+        p = q.pressure(key, text).absolute(atmospheric)
+        if p <= 0:
+            raise InputError(key, "is at or below absolute zero; check the sign and the gauge/absolute spelling.")
+        if key == "steam.supply_pressure" and "design.steam_pressure" in answers:
+            coil = q.pressure(key, answers["design.steam_pressure"]).absolute(atmospheric)
+            if p <= coil:
+                raise InputError(key, f"must be above the coil pressure ({answers['design.steam_pressure']}).")
+        return text
+    if kind == "length":
+        if not 0.0 <= q.length(key, text) <= 100.0:
+            raise InputError(key, "is out of range; accepted: 0 to 100 m.")
+        return text
+    raise ValueError(f"unknown question kind {kind}")
+
+
+def to_toml(answers: dict) -> str:
+    """A commented unit file (format 1) from the answers."""
+    lines = ["# Unit file written by stallcheck new. Each value is commented with what it means;",
+             "# the README lists every key the format accepts.", "format = 1"]
+    section = None
+    for x in QUESTIONS:
+        if x.key not in answers:
+            continue
+        part, name = x.key.split(".")
+        if part != section:
+            lines += ["", f"[{part}]"]
+            section = part
+        value = answers[x.key]
+        written = f"{value:g}" if isinstance(value, float) else '"' + str(value).replace('"', '\\"') + '"'
+        lines.append(f"{name} = {written}".ljust(40) + f"# {x.explain}")
+    return "\n".join(lines) + "\n"

@@ -1,0 +1,138 @@
+"""stallcheck new: scripted answers, wrong ones asked again, the file compared with the
+same unit written by hand."""
+
+
+import pytest
+from typer.testing import CliRunner
+
+from stallcheck import unitfile, wizard
+from stallcheck.cli import app
+from stallcheck.errors import InputError
+
+runner = CliRunner()
+
+BY_HAND = """
+format = 1
+[unit]
+name = "Quarry Lane AHU-9 preheat"
+tag = "AHU-9 PH"
+[design]
+medium = "air"
+flow = "7500 cfm"
+inlet_temperature = "-5 degF"
+outlet_temperature = "52 degF"
+steam_pressure = "6 psig"
+[steam]
+supply_pressure = "20 psig"
+[valve]
+cv = 18
+characteristic = "equal-percentage"
+[load]
+minimum = 0.25
+[drain]
+arrangement = "trap-vacuum-breaker"
+trap = "float-thermostatic"
+fill_head = "20 in"
+lift = "0 ft"
+return_pressure = "0 psig"
+"""
+
+# (answer, and why), in the order asked; the wrong ones must be asked again.
+ANSWERS = [
+    ("us", "units"),
+    ("Quarry Lane AHU-9 preheat", "name"),
+    ("AHU-9 PH", "tag"),
+    ("steam", "medium: not one of the media -> asked again"),
+    ("air", "medium"),
+    ("7500 ft", "flow: a length -> asked again"),
+    ("7500 cfm", "flow"),
+    ("-5 degF", "entering"),
+    ("-10 degF", "set point below the entering temperature -> asked again"),
+    ("52 degF", "set point"),
+    ("6 psi", "coil pressure: neither gauge nor absolute -> asked again"),
+    ("6 psig", "coil pressure"),
+    ("4 psig", "supply below the coil pressure -> asked again"),
+    ("20 psig", "supply"),
+    ("-3", "Cv out of range -> asked again"),
+    ("18", "Cv"),
+    ("", "characteristic: the default, equal-percentage"),
+    ("1.5", "minimum load out of range -> asked again"),
+    ("0.25", "minimum load"),
+    ("trap-vacuum-breaker", "arrangement"),
+    ("", "trap: the default, float-thermostatic"),
+    ("20 in", "fill head"),
+    ("0 ft", "lift"),
+    ("0 psig", "return pressure"),
+]
+
+
+def _run(tmp_path, answers, args=()):
+    text = "\n".join(a for a, _ in answers) + "\n"
+    return runner.invoke(app, ["new", *args], input=text)
+
+
+def _same_unit(a, b):
+    for part in ("design", "drain", "load", "valve", "site"):
+        assert getattr(a, part) == getattr(b, part), part
+    assert (a.name, a.tag, a.supply_pressure) == (b.name, b.tag, b.supply_pressure)
+
+
+def test_scripted_answers_write_the_unit_written_by_hand(tmp_path):
+    out = tmp_path / "ahu9.toml"
+    result = _run(tmp_path, ANSWERS, [str(out)])
+    assert result.exit_code == 0, result.output
+    for fragment in ("is not one of: air", "not a mass flow",
+                     "must be above the entering temperature", "does not say gauge or absolute",
+                     "must be above the coil pressure", "out of range"):
+        assert fragment in result.stderr, fragment
+    written = unitfile.load(out)
+    _same_unit(written, unitfile.parse(BY_HAND, "by-hand.toml"))
+    assert "# " in out.read_text(encoding="utf-8")  # commented
+    assert "stalls below" in result.stdout and "load, % of design" in result.stdout
+
+
+def test_never_overwrites_without_confirmation(tmp_path, monkeypatch):
+    monkeypatch.chdir(tmp_path)
+    existing = tmp_path / "ahu9.toml"
+    existing.write_text("keep\n", encoding="utf-8")
+    answers = ANSWERS + [("ahu9.toml", "save as"), ("n", "do not replace"), ("other.toml", "save as")]
+    result = _run(tmp_path, answers)
+    assert result.exit_code == 0, result.output
+    assert existing.read_text(encoding="utf-8") == "keep\n"
+    _same_unit(unitfile.load(tmp_path / "other.toml"), unitfile.parse(BY_HAND, "x"))
+
+
+def test_answers_that_end_early_write_nothing(tmp_path):
+    out = tmp_path / "half.toml"
+    result = _run(tmp_path, ANSWERS[:8], [str(out)])
+    assert result.exit_code == 2 and "nothing written" in result.stderr
+    assert list(tmp_path.iterdir()) == []
+
+
+def test_ctrl_c_writes_nothing(tmp_path, monkeypatch):
+    from rich.prompt import Prompt
+
+    calls = {"n": 0}
+    real = Prompt.ask
+
+    def interrupt(*args, **kwargs):
+        calls["n"] += 1
+        if calls["n"] == 6:
+            raise KeyboardInterrupt
+        return real(*args, **kwargs)
+
+    monkeypatch.setattr(Prompt, "ask", interrupt)
+    out = tmp_path / "x.toml"
+    result = _run(tmp_path, ANSWERS, [str(out)])
+    assert result.exit_code == 130 and "nothing written" in result.stderr
+    assert list(tmp_path.iterdir()) == []
+
+
+def test_every_question_names_a_key_the_unit_file_knows():
+    from stallcheck.unitfile import _KNOWN
+
+    for x in wizard.QUESTIONS:
+        section, name = x.key.split(".")
+        assert name in _KNOWN[section], x.key
+    with pytest.raises(InputError, match="needs an answer"):
+        wizard.accept(wizard.QUESTIONS[0], "", {})
