@@ -267,6 +267,18 @@ def _analyse_text(text: str):
     return unit, analysis.analyse(unit)
 
 
+@app.command()
+def explore(unit: Path = UNIT_ARG, units: Optional[Units] = UNITS_OPT) -> None:
+    """Explore what-ifs on a live stall chart: keys nudge the lift (l/L), return pressure
+    (r/R), fill head (f/F), design steam pressure (p/P), valve Cv (c/C) and minimum load
+    (m/M); d shows the changes, s saves them as a new unit file, q quits.
+    """
+    unit_obj, _ = _load(unit, units, None)
+    from stallcheck import tui
+
+    tui.Explorer(unit_obj, units.value if units else None).run()
+
+
 #: Show a progress bar on stderr above this many units.
 PROGRESS_FROM = 300
 

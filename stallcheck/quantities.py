@@ -418,6 +418,12 @@ def convert(value: float, kind: str, system: str, atmospheric: float = STANDARD_
     return offset + scale * value
 
 
+def express(value: float, si: str, unit: str) -> float:
+    """An SI value in another unit of the same dimension (``express(0.3048, "m", "ft")``)."""
+    offset, scale = _line(si, unit)
+    return offset + scale * value
+
+
 def convert_array(values, kind: str, system: str, atmospheric: float = STANDARD_ATMOSPHERE):
     """:func:`convert` for a sequence; returns a list of floats."""
     if not len(values):

@@ -1,0 +1,121 @@
+"""A unit back to unit-file text (format 1): for files saved from ``stallcheck explore``.
+
+Values are written in the unit's own system (US or SI) to nine significant figures,
+pressures as gauge, so the file reads as a person would have written it and reads back
+to the same unit within about 1e-8.
+"""
+
+from __future__ import annotations
+
+from stallcheck import quantities as q
+from stallcheck.inputs import Unit
+
+#: Units written, by system: (pressure, differential, temperature, length, mass flow,
+#: diameter, mass).
+_UNITS = {
+    "us": {"pressure": ("psi", "psig"), "differential": "psi", "temperature": "degF", "length": "ft",
+           "mass_flow": "lb/h", "diameter": "in", "mass": "lb"},
+    "si": {"pressure": ("bar", "barg"), "differential": "kPa", "temperature": "degC", "length": "m",
+           "mass_flow": "kg/h", "diameter": "mm", "mass": "kg"},
+}
+_SI = {"pressure": "Pa", "differential": "Pa", "temperature": "K", "length": "m", "mass_flow": "kg/s",
+       "diameter": "m", "mass": "kg"}
+
+
+def _g(x: float) -> str:
+    return f"{0.0 if abs(x) < 1e-9 else x:.9g}"
+
+
+def dumps(unit: Unit, system: str | None = None) -> str:
+    """The unit as TOML text.
+
+    Parameters
+    ----------
+    unit : Unit
+    system : str, optional
+        ``"us"`` or ``"si"``; default the unit's own.
+    """
+    system = system or unit.system
+    names = _UNITS[system]
+    atm = unit.site.atmospheric_pressure
+
+    def val(value: float, kind: str) -> str:
+        if kind == "pressure":
+            unit_name, spelled = names["pressure"]
+            return f'"{_g(q.express(value - atm, "Pa", unit_name))} {spelled}"'
+        return f'"{_g(q.express(value, _SI[kind], names[kind]))} {names[kind]}"'
+
+    def text(s: str) -> str:
+        return '"' + s.replace("\\", "\\\\").replace('"', '\\"') + '"'
+
+    d, dr, ld = unit.design, unit.drain, unit.load
+    out = ["format = 1", "", "[unit]", f"name = {text(unit.name)}"]
+    if unit.tag:
+        out.append(f"tag = {text(unit.tag)}")
+    site = []
+    if abs(atm - q.STANDARD_ATMOSPHERE) > 1e-6:
+        site.append(f'atmospheric_pressure = "{_g(q.express(atm, "Pa", "kPa"))} kPaa"')
+    if unit.site.hours_per_year is not None:
+        site.append(f"hours_per_year = {_g(unit.site.hours_per_year)}")
+    if unit.site.steam_price is not None:
+        site += [f"steam_price = {_g(unit.site.steam_price)}",
+                 f"steam_price_per = {val(unit.site.steam_price_per, 'mass')}"]
+    if unit.site.currency:
+        site.append(f"currency = {text(unit.site.currency)}")
+    if site:
+        out += ["", "[site]"] + site
+
+    out += ["", "[design]", f'medium = "{d.medium}"']
+    if d.concentration is not None:
+        out.append(f'concentration = "{_g(d.concentration * 100)} %"')
+    if d.flow_is_mass:
+        out.append(f"flow = {val(d.flow, 'mass_flow')}")
+    else:
+        volume = "cfm" if system == "us" and d.medium == "air" else "gpm" if system == "us" else "m3/h"
+        out.append(f'flow = "{_g(q.express(d.flow, "m**3/s", volume))} {volume}"')
+    out += [f"inlet_temperature = {val(d.inlet_temperature, 'temperature')}",
+            f"outlet_temperature = {val(d.outlet_temperature, 'temperature')}",
+            f"steam_pressure = {val(d.steam_pressure, 'pressure')}",
+            f"ua_flow_exponent = {_g(d.ua_flow_exponent)}", f'method = "{d.method}"',
+            "", "[steam]", f"supply_pressure = {val(unit.supply_pressure, 'pressure')}"]
+    if unit.valve is not None:
+        v = unit.valve
+        out += ["", "[valve]", f"cv = {_g(v.cv)}", f'characteristic = "{v.characteristic}"',
+                f"rangeability = {_g(v.rangeability)}", f"xt = {_g(v.xt)}"]
+    out += ["", "[load]", f'varies = "{ld.varies}"', f"minimum = {_g(ld.minimum)}"]
+    for b in ld.bins:
+        out += ["[[load.bins]]", (f"inlet_temperature = {val(b.inlet_temperature, 'temperature')}"
+                                  if b.inlet_temperature is not None else f"load = {_g(b.load)}"),
+                f"hours = {_g(b.hours)}"]
+
+    out += ["", "[drain]", f'arrangement = "{dr.arrangement}"', f'trap = "{dr.trap}"',
+            f"fill_head = {val(dr.fill_head, 'length')}", f"lift = {val(dr.lift, 'length')}",
+            f"return_pressure = {val(dr.return_pressure, 'pressure')}",
+            f"trap_min_differential = {val(dr.trap_min_differential, 'differential')}",
+            f"capacity_margin = {_g(dr.capacity_margin)}"]
+    optional = [("trap_orifice", dr.trap_orifice, "diameter"), ("motive_pressure", dr.motive_pressure, "pressure"),
+                ("pump_fill_head", dr.pump_fill_head, "length"), ("pump_capacity", dr.pump_capacity, "mass_flow"),
+                ("purge_orifice", dr.purge_orifice, "diameter"), ("purge_rate", dr.purge_rate, "mass_flow"),
+                ("return_line", dr.return_line, "diameter"),
+                ("return_temperature", dr.return_temperature, "temperature")]
+    out += [f"{key} = {val(value, kind)}" for key, value, kind in optional if value is not None]
+    for c in dr.capacity:
+        out += ["[[drain.capacity]]", f"differential = {val(c.differential, 'differential')}",
+                f"flow = {val(c.flow, 'mass_flow')}"]
+
+    g = unit.geometry
+    if g is not None:
+        rows = []
+        for key in ("tubes", "supply_feed"):
+            if getattr(g, key) is not None:
+                rows.append(f'{key} = "{getattr(g, key)}"')
+        for key in ("distributing_tubes", "pitched_to_return", "drop_vented", "drip_before_valve"):
+            if getattr(g, key) is not None:
+                rows.append(f"{key} = {'true' if getattr(g, key) else 'false'}")
+        if g.coils_per_trap is not None:
+            rows.append(f"coils_per_trap = {g.coils_per_trap}")
+        if g.drop_to_trap is not None:
+            rows.append(f"drop_to_trap = {val(g.drop_to_trap, 'length')}")
+        if rows:
+            out += ["", "[geometry]"] + rows
+    return "\n".join(out) + "\n"
