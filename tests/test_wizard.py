@@ -136,3 +136,9 @@ def test_every_question_names_a_key_the_unit_file_knows():
         assert name in _KNOWN[section], x.key
     with pytest.raises(InputError, match="needs an answer"):
         wizard.accept(wizard.QUESTIONS[0], "", {})
+
+
+def test_a_missing_folder_is_a_clear_message(tmp_path):
+    result = _run(tmp_path, ANSWERS, [str(tmp_path / "no" / "unit.toml")])
+    assert result.exit_code == 2 and "does not exist" in result.stderr
+    assert list(tmp_path.iterdir()) == []
