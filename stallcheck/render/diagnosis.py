@@ -11,7 +11,7 @@ from rich.text import Text
 from stallcheck import quantities as q
 from stallcheck.diagnosis import Diagnosis
 from stallcheck.render import json as json_out
-from stallcheck.render.terminal import _bullets, _heading, _para
+from stallcheck.render.terminal import _bullets, _heading, _para, heading
 
 AGREEMENT = {
     "agree": "the coil gauge agrees with what the model needs for this load",
@@ -34,11 +34,7 @@ def report(d: Diagnosis, system: str) -> Group:
     def t(k):
         return q.show(k, "temperature", system)
 
-    parts: list = []
-    title = Text(r.unit, style="bold")
-    if r.tag:
-        title.append(f"  ({r.tag})")
-    parts += [title, Text(f"{r.source}: diagnosis from readings in service", style="dim"), Text("")]
+    parts: list = heading(r, f"{r.source}: diagnosis from readings in service")
 
     read = []
     if rd.coil_pressure is not None:

@@ -36,6 +36,14 @@ def chart_text(result: Result, system: str, width: int, x_axis: str = "load") ->
     return out
 
 
+def heading(r: Result, *lines: str) -> list:
+    """The unit's name and tag in bold, then dim lines, then a blank line."""
+    title = Text(r.unit, style="bold")
+    if r.tag:
+        title.append(f"  ({r.tag})")
+    return [title, *(Text(line, style="dim") for line in lines), Text("")]
+
+
 def _para(text: Text | str, indent: int = 2) -> Padding:
     """A paragraph wrapped with every line indented."""
     return Padding(text if isinstance(text, Text) else Text(text), (0, 0, 0, indent))
@@ -74,12 +82,7 @@ def report(result: Result, system: str, width: int = 80) -> Group:
     def w(kg_s):
         return q.show(kg_s, "mass_flow", system)
 
-    parts: list = []
-    title = Text(r.unit, style="bold")
-    if r.tag:
-        title.append(f"  ({r.tag})")
-    parts += [title, Text(r.source, style="dim"),
-              Text(f"{r.medium}; load varies with {r.varies}; method {r.method}", style="dim"), Text("")]
+    parts: list = heading(r, r.source, f"{r.medium}; load varies with {r.varies}; method {r.method}")
 
     d = r.design
     fill_note = (f"fill head {q.show(r.fill_head, 'length', system)} = "
