@@ -303,9 +303,9 @@ def _analyse(units: list[Unit], systems: list[str], tabulate: bool = True) -> li
         drains.append(Drainage(u.drain.arrangement, need.required, ok, (need.reason, why)))
         effective.append(u.drain.arrangement if ok else need.required)
 
-    traps, _ = devices.trap_figures(b, effective, stall)
+    _, p_min, w_min = b.state(b.minimum)
+    traps = devices.trap_figures(b, effective, stall, p_min, w_min)
     flashes = devices.flash_figures(b)
-    p_min = b.state(b.minimum)[1]
     fixes = remedies.solve(b, p_min, systems)
 
     results = []

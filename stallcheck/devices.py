@@ -98,7 +98,7 @@ class TrapCapacity:
         return out.reshape(dp.shape)
 
 
-def working_points(b, effective, stall):
+def working_points(b, effective, stall, p_min, w_min):
     """The lowest differential each trap must still drain at, as arranged: (load [-],
     condensate [kg/s], differential [Pa]), arrays with one element per unit.
 
@@ -109,7 +109,6 @@ def working_points(b, effective, stall):
     * a pump-trap: at the stall point, the fill head alone drives condensate into it.
     """
     f_min = b.minimum
-    _, p_min, w_min = b.state(f_min)
     f_atm = np.clip(coilmod.load_at_steam_temperature(b.coil, properties.saturation_temperature(b.atm)), 0.0, 1.0)
     w_atm = b.state(f_atm)[2]
     effective = np.array(effective)
@@ -124,7 +123,7 @@ def working_points(b, effective, stall):
     return load, flow, dp
 
 
-def trap_figures(b, effective, stall):
+def trap_figures(b, effective, stall, p_min, w_min):
     """Trap selection figures and the drainage limit for every unit of a batch.
 
     Parameters
@@ -134,10 +133,12 @@ def trap_figures(b, effective, stall):
         The arrangement each trap works in: the installed one where it is adequate,
         else the required one.
     stall : list of StallPoint
+    p_min, w_min : ndarray
+        Coil pressure [Pa] and condensate [kg/s] at each unit's minimum load.
 
     Returns
     -------
-    list of TrapFigures, and the :class:`Capacities` of the batch's traps.
+    list of TrapFigures
 
     References
     ----------
@@ -147,7 +148,7 @@ def trap_figures(b, effective, stall):
     """
     drains = [u.drain for u in b.units]
     margin = np.array([d.capacity_margin for d in drains])
-    w_load, w_flow, w_dp = working_points(b, effective, stall)
+    w_load, w_flow, w_dp = working_points(b, effective, stall, p_min, w_min)
     required = margin * b.steam_design
     basis = np.array(["table" if d.capacity else "orifice" if d.trap_orifice is not None else "selected"
                       for d in drains])
@@ -178,7 +179,7 @@ def trap_figures(b, effective, stall):
                            limit_condensate=float(w_l[i]),
                            limit_inlet_temperature=float(inlet_l[i]) if by_inlet else None)
         out.append(TrapFigures(**figures))
-    return out, capacity
+    return out
 
 
 def _limits(b, capacity, stall):
