@@ -86,6 +86,8 @@ def analyse_many(units: list[Unit], system: str | None = None, method: str | Non
         For each unit in order, its :class:`Result`, or the :class:`InputError` that
         stops it (the others are analysed all the same).
     """
+    if not units:
+        return []
     if method:
         units = [u.with_method(method) for u in units]
     out: list = [None] * len(units)
