@@ -225,7 +225,6 @@ def diagnose(unit: Unit, result: Result, readings: Readings) -> Diagnosis:
     """
     r = result
     dr = unit.drain
-    atm = r.atmospheric_pressure
     coil = analysis.coil_of(unit.with_method(r.method), r.design.steam_temperature)
     t_out_limit = float(properties.saturation_temperature(
         readings.coil_pressure if readings.coil_pressure is not None else r.supply_pressure))
