@@ -217,6 +217,14 @@ def pump_trap_figures(unit: Unit, required: str, stall: StallPoint, back: float,
     installed = dr.arrangement == "pump-trap"
     if not installed and required != "pump-trap":
         return None
+    capacity, outside = dr.pump_capacity, False
+    if dr.pump_table:
+        backs = np.array([row[0] for row in dr.pump_table])
+        flows = np.array([row[1] for row in dr.pump_table])
+        # Capacity falls as the back pressure rises: below the table's lowest row its
+        # first figure is kept (on the safe side); above its highest there is no figure.
+        outside = back > backs[-1]
+        capacity = None if outside else float(np.interp(back, backs, flows))
     return PumpTrapFigures(
         installed=installed,
         condensate=stall.condensate if stall.occurs else 0.0,
@@ -227,7 +235,8 @@ def pump_trap_figures(unit: Unit, required: str, stall: StallPoint, back: float,
         fill_head=dr.fill_head,
         required_fill_head=dr.pump_fill_head if dr.pump_fill_head is not None else PUMP_FILL_HEAD,
         fill_head_given=dr.pump_fill_head is not None,
-        capacity=dr.pump_capacity)
+        capacity=capacity, outside_table=bool(outside),
+        capacity_basis="table" if dr.pump_table else "given" if dr.pump_capacity is not None else "")
 
 
 def purge_figures(unit: Unit, state: State, back: float, design_pressure: float, p_min: float,

@@ -170,6 +170,12 @@ def _devices(unit: Unit, r: Result, system: str) -> list[Finding]:
                 f"The pump-trap has {q.show(pt.fill_head, 'length', system)} of fill head; {source} "
                 f"{q.show(pt.required_fill_head, 'length', system)}. With less, condensate cannot run into "
                 f"its body fast enough and backs into the coil. Set it lower below the coil."))
+        if pt.outside_table:
+            out.append(Finding(
+                "pump-trap-outside-table", "warning",
+                f"The back pressure ({p(pt.back_pressure)}) is above the highest row of the pump-trap's capacity "
+                f"table: the maker does not rate it for this duty. Check with the maker, or cut the lift or "
+                f"return pressure."))
         if pt.capacity is not None and pt.capacity < pt.condensate:
             out.append(Finding(
                 "pump-trap-undersized", "warning",

@@ -170,6 +170,9 @@ class Drain:
     pump_capacity : float or None
         Pump-trap capacity from the maker's table at this unit's motive pressure,
         back pressure and fill head. [kg/s]
+    pump_table : tuple of (float, float)
+        Or the maker's table itself at this motive pressure and fill head: rows of
+        back pressure [Pa] absolute, increasing, and capacity [kg/s].
     purge_orifice, purge_rate : float or None
         A constant purge's bore [m], or its stated steam rate [kg/s].
     return_line : float or None
@@ -191,6 +194,7 @@ class Drain:
     motive_pressure: float | None = None
     pump_fill_head: float | None = None
     pump_capacity: float | None = None
+    pump_table: tuple[tuple[float, float], ...] = ()
     purge_orifice: float | None = None
     purge_rate: float | None = None
     return_line: float | None = None

@@ -235,7 +235,12 @@ class PumpTrapFigures:
         Available, and asked for by the maker (or common practice). [m]
     fill_head_given : bool
     capacity : float or None
-        Rated pumping capacity at this duty. [kg/s]
+        Rated pumping capacity at this duty: as given, or read from the maker's table
+        at this back pressure. [kg/s]
+    outside_table : bool
+        The back pressure lies beyond the maker's table (no capacity is read off it).
+    capacity_basis : str
+        ``"given"``, ``"table"`` or ``""`` (not known).
     """
 
     installed: bool
@@ -248,6 +253,8 @@ class PumpTrapFigures:
     required_fill_head: float
     fill_head_given: bool
     capacity: float | None
+    outside_table: bool = False
+    capacity_basis: str = ""
 
 
 @dataclass(frozen=True)

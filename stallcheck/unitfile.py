@@ -45,6 +45,7 @@ _KNOWN = {
               "motive_pressure", "pump_fill_head", "pump_capacity", "purge_orifice", "purge_rate",
               "return_line", "return_temperature"},
     "drain.capacity": {"differential", "flow"},
+    "drain.pump_capacity": {"back_pressure", "flow"},
     "geometry": {"tubes", "supply_feed", "distributing_tubes", "pitched_to_return",
                  "coils_per_trap", "drop_to_trap", "drop_vented", "drip_before_valve"},
 }
@@ -495,7 +496,11 @@ def _drain_devices(r: _Reader, d: dict, atm: float) -> dict:
             if value > 1.0:
                 raise InputError(f"drain.{key}", f"\"{d[key]}\" is over 1 m; check the units.")
             out[key] = value
+    if isinstance(d.get("pump_capacity"), list):
+        out["pump_table"] = _pump_table(r, d["pump_capacity"], atm)
     for key in ("pump_capacity", "purge_rate"):
+        if key == "pump_capacity" and "pump_table" in out:
+            continue
         value = r.optional(d, "drain", key, q.mass_flow)
         if value is not None:
             _require_positive(f"drain.{key}", value, f", got \"{d[key]}\"")
@@ -519,6 +524,29 @@ def _drain_devices(r: _Reader, d: dict, atm: float) -> dict:
                                                          "accepted: 0 °C to 200 °C.")
         out["return_temperature"] = t
     return out
+
+
+def _pump_table(r: _Reader, rows, atm: float) -> tuple:
+    """``[[drain.pump_capacity]]``: the maker's pumping capacity against back pressure."""
+    if not all(isinstance(row, dict) for row in rows):
+        raise InputError("drain.pump_capacity", "takes a mass flow, or [[drain.pump_capacity]] rows of "
+                                                "back_pressure and flow.")
+    table = []
+    for i, row in enumerate(rows, start=1):
+        section = f"drain.pump_capacity[{i}]"
+        r.unknown(row, "drain.pump_capacity")
+        back = r.quantity(row, section, "back_pressure", q.pressure).absolute(atm)
+        _absolute_positive(f"{section}.back_pressure", back, row.get("back_pressure"))
+        flow = r.quantity(row, section, "flow", q.mass_flow)
+        _require_positive(f"{section}.flow", flow)
+        table.append((back, flow))
+    if len(table) < 2:
+        raise InputError("drain.pump_capacity", "a table needs at least two rows; for one figure write "
+                                                "pump_capacity = \"<flow>\".")
+    for a, b in zip(table, table[1:]):
+        if b[0] <= a[0]:
+            raise InputError("drain.pump_capacity", "back pressures must increase from row to row.")
+    return tuple(table)
 
 
 def _geometry(r: _Reader) -> Geometry | None:

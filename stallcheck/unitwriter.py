@@ -99,6 +99,9 @@ def dumps(unit: Unit, system: str | None = None) -> str:
                 ("return_line", dr.return_line, "diameter"),
                 ("return_temperature", dr.return_temperature, "temperature")]
     out += [f"{key} = {val(value, kind)}" for key, value, kind in optional if value is not None]
+    for back, flow in dr.pump_table:
+        out += ["[[drain.pump_capacity]]", f"back_pressure = {val(back, 'pressure')}",
+                f"flow = {val(flow, 'mass_flow')}"]
     for c in dr.capacity:
         out += ["[[drain.capacity]]", f"differential = {val(c.differential, 'differential')}",
                 f"flow = {val(c.flow, 'mass_flow')}"]

@@ -9,6 +9,7 @@ import pytest
 from iapws import IAPWS97
 
 from stallcheck import analysis, flash, properties, purge, traps, unitfile
+from stallcheck.errors import InputError
 from conftest import BASE_UNIT
 
 PSI = 6894.757293168
@@ -336,3 +337,36 @@ def test_more_lift_never_lowers_the_largest_lift_remedy_below_zero_margin():
     la = next(m for m in analysis.analyse(a).remedies if m.key == "drain.lift").value
     lb = next(m for m in analysis.analyse(b).remedies if m.key == "drain.lift").value
     assert la == pytest.approx(lb)
+
+
+PUMP_TABLE = """
+[[drain.pump_capacity]]
+back_pressure = "0 psig"
+flow = "3000 lb/h"
+[[drain.pump_capacity]]
+back_pressure = "10 psig"
+flow = "1800 lb/h"
+"""
+
+
+def test_pump_trap_capacity_read_from_the_makers_table_by_hand():
+    # Hand calculation: the back pressure is 0 psig plus the 12 ft lift head, ρ·g·h with
+    # saturated water at 1 atm (iapws); capacity straight-line between the two rows.
+    r = analysis.analyse(unit(PUMP_UNIT, PUMP_TABLE))
+    rho = IAPWS97(P=ATM / 1e6, x=0).rho
+    back_psig = rho * 9.80665 * 12 * FT / PSI
+    expected = 3000 + (1800 - 3000) * back_psig / 10
+    assert r.pump_trap.capacity_basis == "table"
+    assert r.pump_trap.capacity / LB_H == pytest.approx(expected, rel=1e-6)
+
+
+def test_pump_trap_beyond_its_table_is_flagged():
+    r = analysis.analyse(unit(PUMP_UNIT.replace('lift = "12 ft"', 'lift = "40 ft"'), PUMP_TABLE))
+    assert r.pump_trap.outside_table and r.pump_trap.capacity is None
+    assert "pump-trap-outside-table" in {f.code for f in r.findings}
+
+
+def test_pump_table_rows_must_rise_in_back_pressure():
+    rows = PUMP_TABLE.replace('"10 psig"', '"-1 psig"')
+    with pytest.raises(InputError, match="back pressures must increase"):
+        unit(PUMP_UNIT, rows)

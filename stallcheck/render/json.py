@@ -150,6 +150,8 @@ def _pump_trap(r: Result):
         "fill_head_m": pt.fill_head,
         "required_fill_head_m": pt.required_fill_head,
         "capacity_kg_h": q.kg_h(pt.capacity),
+        "capacity_basis": pt.capacity_basis or None,
+        "outside_table": pt.outside_table,
         "capacity_ok": None if pt.capacity is None else pt.capacity >= pt.condensate,
     }
 

@@ -219,8 +219,12 @@ def _devices(r: Result, system: str) -> list:
         need = "the maker's figure" if pt.fill_head_given else "common practice"
         parts.append(_para(f"fill head {q.show(pt.fill_head, 'length', system)}; needs "
                            f"{q.show(pt.required_fill_head, 'length', system)} ({need})"))
-        if pt.capacity is not None:
-            parts.append(_para(f"rated {w(pt.capacity)} at this duty: "
+        if pt.outside_table:
+            parts.append(_para(Text("the back pressure is above the maker's capacity table: not rated for this duty",
+                                    style="yellow")))
+        elif pt.capacity is not None:
+            source = " (read from the maker's table)" if pt.capacity_basis == "table" else ""
+            parts.append(_para(f"rated {w(pt.capacity)} at this duty{source}: "
                                + ("enough" if pt.capacity >= pt.condensate else "SHORT")))
         parts.append(Text(""))
     pu = r.purge
