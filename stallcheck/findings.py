@@ -31,6 +31,11 @@ POOR_AT_LOW_DIFFERENTIAL = {
 }
 
 
+#: A working differential below this is low for traps that need one to operate [Pa]
+#: (1 psi; common practice, from memory).
+LOW_DIFFERENTIAL = 6894.757
+
+
 def core(unit: Unit, r: Result, system: str) -> tuple[Finding, ...]:
     """The findings of the core analysis, worst first.
 
@@ -85,9 +90,13 @@ def core(unit: Unit, r: Result, system: str) -> tuple[Finding, ...]:
                            f"of a coil that stalls: the lift adds to the back pressure and floods the coil at low "
                            f"load (common practice: never lift directly after the trap of a modulating coil). "
                            f"Drain by gravity to a vented receiver and pump from there, or use a pump-trap."))
-    if in_range and unit.drain.trap in POOR_AT_LOW_DIFFERENTIAL:
+    low_working = r.trap is not None and r.trap.working_differential < LOW_DIFFERENTIAL
+    if (in_range or low_working) and unit.drain.trap in POOR_AT_LOW_DIFFERENTIAL:
+        where = ("The coil runs at low differential" if in_range else
+                 f"At its lowest working point the trap has only "
+                 f"{q.show(r.trap.working_differential, 'differential', system)} across it")
         out.append(Finding("trap-type-modulating", "warning",
-                           f"The coil runs at low differential, and {POOR_AT_LOW_DIFFERENTIAL[unit.drain.trap]}. "
+                           f"{where}, and {POOR_AT_LOW_DIFFERENTIAL[unit.drain.trap]}. "
                            f"Use a float-and-thermostatic trap on modulating coils (common practice; "
                            f"VA HVAC Design Manual)."))
     v = r.valve

@@ -370,3 +370,16 @@ def test_pump_table_rows_must_rise_in_back_pressure():
     rows = PUMP_TABLE.replace('"10 psig"', '"-1 psig"')
     with pytest.raises(InputError, match="back pressures must increase"):
         unit(PUMP_UNIT, rows)
+
+
+def test_poor_trap_type_at_low_working_differential_without_a_stall():
+    # A unit that never stalls in its range but whose trap works below 1 psi: an
+    # inverted-bucket trap there is flagged (common practice); a float-thermostatic one is not.
+    text = BASE_UNIT.replace('steam_pressure = "5 psig"', 'steam_pressure = "12 psig"').replace(
+        'supply_pressure = "15 psig"', 'supply_pressure = "30 psig"')
+    extra = "[load]\nminimum = 0.83\n"
+    bucket = analysis.analyse(unit(text.replace('arrangement = "trap"', 'arrangement = "trap"\ntrap = "inverted-bucket"'), extra))
+    assert bucket.stall.load_fraction < 0.83 and bucket.trap.working_differential < PSI
+    assert "trap-type-modulating" in {f.code for f in bucket.findings}
+    ft = analysis.analyse(unit(text, extra))
+    assert "trap-type-modulating" not in {f.code for f in ft.findings}
