@@ -67,13 +67,19 @@ class Capacities:
         [Pa], for the units at ``index``; shapes (n,) or (n, m). Zero at or below the
         trap's minimum opening differential."""
         dp = np.asarray(differential, dtype=float)
+        inlet = np.broadcast_to(np.asarray(inlet_pressure, dtype=float), dp.shape)
         back, bores, trap_min, table = (a[index] for a in (self.back, self.bores, self.trap_min, self.table))
-        if dp.ndim == 2:
-            back, bores, trap_min, table = back[:, None], bores[:, None], trap_min[:, None], table[:, None]
-        with np.errstate(invalid="ignore"):
-            orifice = traps.orifice_capacity(np.nan_to_num(bores, nan=0.0), np.maximum(inlet_pressure, back), back)
-        rated = traps.table_capacity_rows(dp, self.table_dp[index], self.table_w[index])
-        return np.where(dp > trap_min, np.where(table, rated, orifice), 0.0)
+        column = (slice(None), None) if dp.ndim == 2 else slice(None)
+        out = np.zeros(dp.shape)
+        # each row by its own model: steam-table calls only for the rows that need them
+        if table.any():
+            rows = np.flatnonzero(table)
+            out[rows] = traps.table_capacity_rows(dp[rows], self.table_dp[index][rows], self.table_w[index][rows])
+        if (~table).any():
+            rows = np.flatnonzero(~table)
+            b = back[rows][column]
+            out[rows] = traps.orifice_capacity(bores[rows][column], np.maximum(inlet[rows], b), b)
+        return np.where(dp > trap_min[column], out, 0.0)
 
 
 class TrapCapacity:
