@@ -33,6 +33,9 @@ from pathlib import Path
 ROOT = Path(__file__).resolve().parent.parent
 SAMPLE = ROOT / "sample_units" / "us_outdoor_air_preheat.toml"
 ENV = dict(os.environ, NO_COLOR="1")
+# Measure the program as installed, with its modules compiled once: some machines set
+# this to keep source folders clean, which would make every run recompile them.
+ENV.pop("PYTHONDONTWRITEBYTECODE", None)
 
 ARRANGEMENTS = ("trap", "trap-vacuum-breaker", "pump-trap", "constant-purge")
 TRAPS = ("float-thermostatic", "inverted-bucket", "thermodynamic", "thermostatic")
@@ -110,6 +113,7 @@ def ratios(repeat: int) -> None:
          "import CoolProp", [py, "-c", "import CoolProp.CoolProp"]),
     ]
     for name, cmd, floor_name, floor in pairs:
+        run(cmd), run(floor)  # warm-up: compiled modules and the units cache in place
         a, b = [], []
         for _ in range(repeat):  # interleaved: both sides see the same machine load
             a.append(run(cmd)[0])
