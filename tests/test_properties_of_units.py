@@ -9,46 +9,21 @@ import pytest
 
 from stallcheck import analysis, quantities, unitfile
 
+# One template for both unit systems: SI (degC, kPag, m) or the same unit in US customary
+# units (degF, psig, ft), every number written at full precision (repr).
 TEMPLATE = """
 format = 1
 [unit]
 name = "Generated"
 [design]
 medium = "{medium}"
-flow = "{flow} {flow_unit}"
-inlet_temperature = "{t_in} degC"
-outlet_temperature = "{t_out} degC"
-steam_pressure = "{p_design} kPag"
-ua_flow_exponent = {n}
-[steam]
-supply_pressure = "{p_supply} kPag"
-[valve]
-cv = {cv}
-characteristic = "{characteristic}"
-[load]
-varies = "{varies}"
-minimum = {minimum}
-[drain]
-arrangement = "{arrangement}"
-fill_head = "{fill} m"
-lift = "{lift} m"
-return_pressure = "{p_return} kPag"
-"""
-
-# The same unit in US customary units, every number converted with pint at full precision.
-TEMPLATE_US = """
-format = 1
-[unit]
-name = "Generated"
-[design]
-medium = "{medium}"
 flow = "{flow!r} {flow_unit}"
-inlet_temperature = "{t_in!r} degF"
-outlet_temperature = "{t_out!r} degF"
-steam_pressure = "{p_design!r} psig"
+inlet_temperature = "{t_in!r} {t_unit}"
+outlet_temperature = "{t_out!r} {t_unit}"
+steam_pressure = "{p_design!r} {p_unit}"
 ua_flow_exponent = {n}
 [steam]
-supply_pressure = "{p_supply!r} psig"
+supply_pressure = "{p_supply!r} {p_unit}"
 [valve]
 cv = {cv}
 characteristic = "{characteristic}"
@@ -57,10 +32,12 @@ varies = "{varies}"
 minimum = {minimum}
 [drain]
 arrangement = "{arrangement}"
-fill_head = "{fill!r} ft"
-lift = "{lift!r} ft"
-return_pressure = "{p_return!r} psig"
+fill_head = "{fill!r} {l_unit}"
+lift = "{lift!r} {l_unit}"
+return_pressure = "{p_return!r} {p_unit}"
 """
+SI_UNITS = dict(t_unit="degC", p_unit="kPag", l_unit="m")
+US_UNITS = dict(t_unit="degF", p_unit="psig", l_unit="ft")
 
 units = st.fixed_dictionaries({
     "medium": st.sampled_from(["air", "water"]),
@@ -92,7 +69,7 @@ def _values(d, **over):
 
 
 def build(d, **over):
-    return unitfile.parse(TEMPLATE.format(**_values(d, **over)), "generated.toml")
+    return unitfile.parse(TEMPLATE.format(**_values(d, **over), **SI_UNITS), "generated.toml")
 
 
 def build_us(d):
@@ -109,7 +86,7 @@ def build_us(d):
               t_in=to(v["t_in"], "degC", "degF"), t_out=to(v["t_out"], "degC", "degF"),
               p_design=to(v["p_design"], "kPa", "psi"), p_supply=to(v["p_supply"], "kPa", "psi"),
               fill=to(v["fill"], "m", "ft"), lift=to(v["lift"], "m", "ft"), p_return=to(v["p_return"], "kPa", "psi"))
-    return unitfile.parse(TEMPLATE_US.format(**us), "generated-us.toml")
+    return unitfile.parse(TEMPLATE.format(**us, **US_UNITS), "generated-us.toml")
 
 
 @settings(max_examples=40, deadline=None)
