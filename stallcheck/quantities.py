@@ -451,7 +451,8 @@ def show(value: float | None, kind: str, system: str, atmospheric: float = STAND
     if kind in ("mass_flow", "power", "mass", "volume_flow") and abs(number) >= 100:
         number = float(f"{number:.3g}")
         places = 0
-    text = f"{number:,.{places}f}"
+    # bores read as a drawing gives them: three significant figures (1/16 in is 0.0625 in)
+    text = f"{number:.3g}" if kind == "diameter" and decimals is None else f"{number:,.{places}f}"
     if text.startswith("-") and float(text.replace(",", "")) == 0:
         text = text[1:]
     return f"{text} {label(kind, system)}"
