@@ -24,7 +24,6 @@ import json
 import math
 import os
 import re
-import tempfile
 from dataclasses import dataclass
 from functools import lru_cache
 from pathlib import Path
@@ -124,6 +123,8 @@ class _Answers:
     def save(self) -> None:
         if not self.dirty or self.file is None:
             return
+        import tempfile  # only when there is something new to keep
+
         try:
             self.file.parent.mkdir(parents=True, exist_ok=True)
             handle, temporary = tempfile.mkstemp(dir=self.file.parent, suffix=".part")

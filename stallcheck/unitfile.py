@@ -498,9 +498,7 @@ def _drain_devices(r: _Reader, d: dict, atm: float) -> dict:
             out[key] = value
     if isinstance(d.get("pump_capacity"), list):
         out["pump_table"] = _pump_table(r, d["pump_capacity"], atm)
-    for key in ("pump_capacity", "purge_rate"):
-        if key == "pump_capacity" and "pump_table" in out:
-            continue
+    for key in ("purge_rate",) if "pump_table" in out else ("pump_capacity", "purge_rate"):
         value = r.optional(d, "drain", key, q.mass_flow)
         if value is not None:
             _require_positive(f"drain.{key}", value, f", got \"{d[key]}\"")
