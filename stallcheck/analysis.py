@@ -280,16 +280,18 @@ def _steam_at(coil, load, load_design):
 def _analyse(units: list[Unit], systems: list[str], tabulate: bool = True) -> list[Result]:
     b = columns(units)
     n = len(units)
-    stall = _stall_points(b)
+    _, p_min, w_min = b.state(b.minimum)
+    stall = _stall_points(b, p_min)
     # the steam temperature rises with load, so it is lowest at no load
     clipped = coilmod.steam_temperature(b.coil, np.zeros(n)) < properties.T_MIN
+    floor_load = coilmod.set_point_floor_load(b.coil)
 
     grid = None
     if tabulate:
         f = LOAD_GRID[None, :]
         steam_t, coil_p, steam_flow = b.state(np.broadcast_to(f, (n, LOAD_GRID.size)))
         differential = coil_p + b.fill[:, None] - b.back[:, None]
-        grid = (steam_t, coil_p, steam_flow, differential, differential <= b.trap_min[:, None],
+        grid = (steam_t, coil_p, steam_flow, differential, differential <= b.trap_min[:, None] - drainage.PRESSURE_TOLERANCE,
                 coilmod.inlet_temperature(b.coil.column(), f))
 
     valves, opening = _valves(b, None if grid is None else grid[1], None if grid is None else grid[2])
@@ -299,16 +301,15 @@ def _analyse(units: list[Unit], systems: list[str], tabulate: bool = True) -> li
     for i, u in enumerate(units):
         s = stall[i]
         atm = b.atm[i]
-        need = drainage.requirement(s.load_fraction or 0.0, u.load.minimum, b.threshold[i], atm,
-                                    lambda pa, system=systems[i], atm=atm: q.show(pa, "pressure", system, atm))
+        need = drainage.requirement(s.load_fraction or 0.0, s.in_range, b.threshold[i], atm,
+                                    lambda pa, kind, system=systems[i], atm=atm: q.show(pa, kind, system, atm))
         ok, why = drainage.adequacy(u.drain.arrangement, need.required)
         drains.append(Drainage(u.drain.arrangement, need.required, ok, (need.reason, why)))
         effective.append(u.drain.arrangement if ok else need.required)
 
-    _, p_min, w_min = b.state(b.minimum)
     traps = devices.trap_figures(b, effective, stall, p_min, w_min)
     flashes = devices.flash_figures(b)
-    fixes = remedies.solve(b, p_min, systems)
+    fixes = remedies.solve(b, p_min, [d.adequate for d in drains], systems)
 
     results = []
     for i, u in enumerate(units):
@@ -337,24 +338,33 @@ def _analyse(units: list[Unit], systems: list[str], tabulate: bool = True) -> li
             supply_pressure=float(b.supply[i]), design=d, stall=s, points=points, stalled_hours=stalled_hours,
             total_hours=total_hours, drainage=drains[i], valve=valves[i], findings=(),
             assumptions=_assumptions(u, bool(clipped[i]), traps[i]), trap=traps[i], pump_trap=pump, purge=purge,
-            flash=flashes[i], remedies=fixes[i], warnings=u.warnings)
+            flash=flashes[i], remedies=fixes[i], warnings=u.warnings,
+            set_point_floor_load=float(floor_load[i]))
         results.append(replace(result, findings=findings.core(u, result, systems[i])))
     return results
 
 
-def _stall_points(b: Batch) -> list[StallPoint]:
-    """Exact stall points, from the closed-form inverse of the coil model."""
+def _stall_points(b: Batch, p_min) -> list[StallPoint]:
+    """Exact stall points, from the closed-form inverse of the coil model.
+
+    A stall counts only where the stall pressure is above the coil pressure at no load
+    by more than :data:`drainage.PRESSURE_TOLERANCE`, and lies in the operating range
+    only where it is that far above the coil pressure at the minimum load, ``p_min``
+    [Pa], too.
+    """
     thr = b.threshold
     valid = thr > properties.P_MIN
     t_stall = properties.saturation_temperature(np.clip(thr, properties.P_MIN, properties.P_CRIT))
     f_stall = coilmod.load_at_steam_temperature(b.coil, t_stall)
-    occurs = valid & (f_stall > 0.0)
+    p_zero = b.state(np.zeros(len(thr)))[1]
+    occurs = valid & (f_stall > 0.0) & (thr - p_zero > drainage.PRESSURE_TOLERANCE)
     full = occurs & (f_stall >= 1.0)
     f = np.where(full, 1.0, np.where(occurs, f_stall, 0.0))
     p = np.where(full, b.design_pressure, np.clip(thr, properties.P_MIN, properties.P_CRIT))
     t = np.where(full, b.coil.steam_design, t_stall)
     condensate = f * b.load_design / properties.latent_heat(p)
     inlet = coilmod.inlet_temperature(b.coil, f)
+    in_range = occurs & drainage.stalls_in_range(f, b.minimum, thr, p_min)
     out = []
     for i in range(len(thr)):
         if not occurs[i]:
@@ -362,7 +372,7 @@ def _stall_points(b: Batch) -> list[StallPoint]:
             continue
         by_inlet = b.units[i].load.varies == "inlet-temperature"
         out.append(StallPoint(True, float(thr[i]), float(f[i]), float(p[i]), float(t[i]), float(condensate[i]),
-                              float(inlet[i]) if by_inlet else None))
+                              float(inlet[i]) if by_inlet else None, bool(in_range[i])))
     return out
 
 
@@ -487,6 +497,10 @@ def _assumptions(unit: Unit, clipped: bool, trap) -> tuple[str, ...]:
     if unit.valve is not None:
         out.append("Valve: IEC 60534-2-1 with γ = 1.30 for steam, F_P = 1, inherent characteristic.")
     out.append(_trap_basis(trap))
+    if d.method == "mean-temperature" and unit.load.varies == "flow":
+        out.append("Mean temperature with the flow varying: where the method would ask for steam colder than "
+                   "the leaving set point, the set point's saturation temperature is used (a lower bound on "
+                   "what the coil needs, so the stall point is on the safe side).")
     if clipped:
         out.append("At the lowest loads the steam temperature the model asks for is below 0 °C; "
                    "those points are held at the bottom of the steam tables (0 °C, 0.61 kPa(abs)).")

@@ -19,6 +19,14 @@ Two methods:
 With the flow fixed both methods give the same straight line
 T_steam(f) = T_out + f·(T_steam,design − T_out); they differ where the flow varies.
 
+Where the flow varies, the mean-temperature line falls towards the *mean* of the
+entering and leaving temperatures as the load goes to zero, so below some load it asks
+for steam colder than the leaving set point, which no coil can heat with. There the
+steam temperature is held at the set point (:func:`set_point_floor_load` gives the load
+below which this happens). The set point is a lower bound on what the real coil needs,
+so the stall point found on the held curve is on the safe side (it stalls no later than
+the real coil would).
+
 References
 ----------
 .. [1] Incropera, F. P., DeWitt, D. P., Fundamentals of Heat and Mass Transfer, 6th ed.,
@@ -118,8 +126,26 @@ def steam_temperature(coil: CoilModel, load):
     with np.errstate(divide="ignore", over="ignore", invalid="ignore"):
         ntu = coil.ntu_design * np.power(f, n - 1.0)
         by_ntu = t_in + (outlet - t_in) / -np.expm1(-ntu)
-        mean = coil.mean_design + np.power(f, 1.0 - n) * (steam - coil.mean_design)
+        mean = np.maximum(coil.mean_design + np.power(f, 1.0 - n) * (steam - coil.mean_design), outlet)
     return np.where(coil.by_inlet, linear, np.where(coil.by_ntu, by_ntu, mean))
+
+
+def set_point_floor_load(coil: CoilModel):
+    """Load fraction below which the mean-temperature method, with the flow varying,
+    would ask for steam colder than the set point, and the set point is used instead [-].
+
+    Zero for every other coil (the NTU method, or a load that follows the entering
+    temperature, never asks for less than the set point).
+
+    .. math:: f_* = \\left(\\frac{T_{out} - T_{mean}}{T_{s,d} - T_{mean}}\\right)^{1/(1-n)}
+    """
+    outlet, steam = np.asarray(coil.outlet, dtype=float), np.asarray(coil.steam_design, dtype=float)
+    n = np.asarray(coil.ua_exponent, dtype=float)
+    with np.errstate(divide="ignore", invalid="ignore"):
+        ratio = (outlet - coil.mean_design) / (steam - coil.mean_design)
+        f = np.power(np.clip(ratio, 0.0, 1.0), 1.0 / (1.0 - n))
+    applies = ~coil.by_inlet & ~coil.by_ntu & (n < 1.0)
+    return np.where(applies, np.nan_to_num(f), 0.0)
 
 
 def load_at_steam_temperature(coil: CoilModel, temperature):
@@ -146,7 +172,8 @@ def load_at_steam_temperature(coil: CoilModel, temperature):
         ntu = -np.log1p(-np.clip(eps, 0.0, 1.0))
         by_ntu = np.where(t <= outlet, 0.0, np.power(ntu / coil.ntu_design, 1.0 / (n - 1.0)))
         ratio = (t - coil.mean_design) / (steam - coil.mean_design)
-        mean = np.power(np.maximum(ratio, 0.0), 1.0 / (1.0 - n))
+        # held at the set point below the floor load: every load there needs the set point
+        mean = np.where(t < outlet, 0.0, np.power(np.maximum(ratio, 0.0), 1.0 / (1.0 - n)))
     constant_ua = np.where(t >= steam, np.inf, 0.0)
     flow = np.where(n >= 1.0, constant_ua, np.where(coil.by_ntu, by_ntu, mean))
     return np.where(coil.by_inlet, linear, flow)

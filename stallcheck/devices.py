@@ -163,7 +163,7 @@ def trap_figures(b, effective, stall, p_min, w_min):
     selected = traps.equivalent_bore(required, b.back + sizing, b.back)
     bores = np.where(basis == "selected", selected, np.where(basis == "orifice", given, np.nan))
     capacity = Capacities(drains, b.back, bores)
-    installed = capacity(w_dp, b.back + w_dp)
+    installed = capacity(sizing, b.back + sizing)
 
     limit = _limits(b, capacity, stall)
     has = np.isfinite(limit)
@@ -176,7 +176,8 @@ def trap_figures(b, effective, stall, p_min, w_min):
                        margin=float(margin[i]), design_condensate=float(b.steam_design[i]),
                        design_differential=float(b.design_pressure[i] + b.fill[i] - b.back[i]),
                        working_load=float(w_load[i]), working_condensate=float(w_flow[i]),
-                       working_differential=float(w_dp[i]), required_capacity=float(required[i]),
+                       working_differential=float(w_dp[i]), selection_differential=float(sizing[i]),
+                       required_capacity=float(required[i]),
                        installed_capacity=None if basis[i] == "selected" else float(installed[i]), limit_load=None)
         if has[i]:
             by_inlet = b.units[i].load.varies == "inlet-temperature"

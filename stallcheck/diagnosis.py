@@ -286,7 +286,7 @@ def _facts(unit, r, readings, load, model_p, condensate, back, fill, stalled_mod
     return {
         "stalled_model": bool(stalled_model),
         "stalled_gauges": bool(stalled_gauges),
-        "stalls_in_range": bool(s.occurs and s.load_fraction > r.minimum_load),
+        "stalls_in_range": s.in_range,
         "near_stall": bool(s.occurs and load is not None and s.load_fraction <= load <= s.load_fraction + 0.1),
         "noise_startup": "start-up" in noise,
         "noise_low_load": "low-load" in noise,

@@ -11,6 +11,12 @@ The trap discharges while
 so the coil stalls at or below the *stall pressure*
 
     p_stall = p_return + ρ·g·(lift − fill_head) + Δp_trap,min.
+
+Verdicts compare with stated tolerances, so that a figure on a limit is not turned
+into a stall by floating-point noise: a stall counts only where the stall pressure is
+above the coil pressure by more than :data:`PRESSURE_TOLERANCE`. A vacuum breaker
+counts only where gravity leaves the trap a working differential of at least
+:data:`GRAVITY_MARGIN`.
 """
 
 from __future__ import annotations
@@ -18,6 +24,17 @@ from __future__ import annotations
 from dataclasses import dataclass
 
 from stallcheck.quantities import GRAVITY
+from stallcheck.traps import SELECTION_DIFFERENTIAL
+
+#: A stall counts only where the stall pressure exceeds the coil pressure by more than
+#: this [Pa] (0.1 mbar, far below what any gauge reads): on a coil whose pressure curve
+#: is flat at low load, a smaller gap is rounding, not a crossing.
+PRESSURE_TOLERANCE = 10.0
+#: The least differential gravity must leave across the trap for a vacuum breaker to
+#: drain the coil [Pa]: 1/4 psi, the differential traps on modulating coils are sized
+#: at (US Department of Veterans Affairs, HVAC Design Manual, steam section; common
+#: practice).
+GRAVITY_MARGIN = SELECTION_DIFFERENTIAL
 
 #: What each installed arrangement can cope with: the required arrangements it covers.
 COVERS = {
@@ -59,54 +76,80 @@ class Requirement:
     reason: str
 
 
-def requirement(stall_fraction: float, minimum: float, stall_pressure_: float,
+def stalls_in_range(stall_fraction, minimum, stall_pressure_, coil_pressure_at_minimum):
+    """True where a unit stalls above its minimum load: the stall point lies above the
+    minimum load *and* at the minimum load the coil pressure is below the stall pressure
+    by more than :data:`PRESSURE_TOLERANCE` (arrays or floats)."""
+    return (stall_fraction > minimum) & (stall_pressure_ - coil_pressure_at_minimum > PRESSURE_TOLERANCE)
+
+
+def vacuum_breaker_acts(stall_pressure_, atmospheric):
+    """True where a vacuum breaker lets the coil drain by gravity: with the coil held at
+    atmospheric pressure, the fill head leaves the trap at least :data:`GRAVITY_MARGIN`
+    beyond its minimum differential against the back pressure,
+    p_atm + ρ·g·fill ≥ p_back + Δp_trap,min + margin, that is
+    p_stall ≤ p_atm − margin."""
+    return stall_pressure_ <= atmospheric - GRAVITY_MARGIN
+
+
+def requirement(stall_fraction: float, in_range: bool, stall_pressure_: float,
                 atmospheric: float, words) -> Requirement:
     """Choose the drainage from the computed pressures.
 
     * never stalls above the minimum load → a plain trap;
-    * stalls, but only once the coil is below atmospheric pressure → a vacuum breaker
-      lets air in at atmospheric pressure, and the fill head then drains the coil by
-      gravity (stall pressure ≤ atmospheric);
-    * stalls while the coil is still above atmospheric → only a pump-trap (or pump
-      and receiver) can lift the condensate against the back pressure.
+    * stalls, but a vacuum breaker holding the coil at atmospheric pressure leaves
+      gravity a working differential (:func:`vacuum_breaker_acts`) → a trap with a
+      vacuum breaker;
+    * otherwise only a pump-trap (or pump and receiver) can move the condensate against
+      the back pressure.
 
     Parameters
     ----------
     stall_fraction : float
         Load below which the unit stalls (0: never). [-]
-    minimum : float
-        Lowest load the unit runs at. [-]
+    in_range : bool
+        Whether it stalls above its minimum load (:func:`stalls_in_range`).
     stall_pressure_ : float
         Coil pressure at which the trap stops discharging. [Pa]
     atmospheric : float
         Site atmospheric pressure. [Pa]
     words : callable
-        Formats a pressure [Pa] for the reason text (display units).
+        ``words(pa, kind)`` formats a pressure [Pa] (``kind`` ``"pressure"`` or
+        ``"differential"``) for the reason text (display units).
 
     References
     ----------
     .. [1] US Department of Veterans Affairs, HVAC Design Manual, steam section:
-       float-and-thermostatic traps with vacuum breakers on modulating equipment.
+       float-and-thermostatic traps with vacuum breakers on modulating equipment,
+       sized at 1/4 psi differential.
     """
-    if stall_fraction <= minimum:
+    if not in_range:
         if stall_fraction > 0:
-            why = (f"it stalls only below {stall_fraction:.0%} load, under the minimum load of "
-                   f"{minimum:.0%}, so a trap alone drains it wherever it runs")
+            why = (f"it stalls only below {stall_fraction:.0%} load, at or under its minimum load, so a trap "
+                   f"alone drains it wherever it runs")
         else:
-            why = "the coil pressure stays above the back pressure at every load, so a trap alone drains it"
+            why = "the coil pressure stays above the stall pressure at every load, so a trap alone drains it"
         return Requirement("trap", why)
     where = (f"it stalls below {stall_fraction:.0%} load, where the coil pressure falls to "
-             f"{words(stall_pressure_)}" if stall_fraction < 1 else
-             f"it stalls at every load: the trap needs the coil above {words(stall_pressure_)}, "
+             f"{words(stall_pressure_, 'pressure')}" if stall_fraction < 1 else
+             f"it stalls at every load: the trap needs the coil above {words(stall_pressure_, 'pressure')}, "
              f"more than it has at full load")
-    if stall_pressure_ <= atmospheric:
+    gravity = atmospheric - stall_pressure_
+    if vacuum_breaker_acts(stall_pressure_, atmospheric):
         return Requirement(
             "trap-vacuum-breaker",
-            f"{where}; that is below atmospheric, so a vacuum breaker "
-            f"can hold the coil at atmospheric pressure and the fill head then drains it by gravity")
+            f"{where}; a vacuum breaker holds the coil at atmospheric pressure there, and the fill head then "
+            f"drives the condensate through the trap by gravity with {words(gravity, 'differential')} to spare "
+            f"(at least {words(GRAVITY_MARGIN, 'differential')} wanted)")
+    if gravity > 0:
+        return Requirement(
+            "pump-trap",
+            f"{where}; a vacuum breaker would leave gravity only {words(gravity, 'differential')} across the trap, "
+            f"less than the {words(GRAVITY_MARGIN, 'differential')} a trap is sized at, so a pump-trap (or pump "
+            f"and receiver) must move the condensate, or more fill head must be found (see what to do)")
     return Requirement(
         "pump-trap",
-        f"{where}; that is above atmospheric, and a vacuum breaker cannot help against "
+        f"{where}; that is at or above atmospheric, and a vacuum breaker cannot help against "
         f"that back pressure, so a pump-trap (or pump and receiver) must lift the condensate")
 
 

@@ -57,7 +57,7 @@ def core(unit: Unit, r: Result, system: str) -> tuple[Finding, ...]:
 
     out: list[Finding] = []
     s = r.stall
-    in_range = s.occurs and s.load_fraction > r.minimum_load
+    in_range = s.in_range
     if s.occurs and s.load_fraction >= 1.0:
         out.append(Finding("stall-at-full-load", "danger",
                            f"The back pressure on the trap ({p(r.back_pressure)} with the lift) is at or above "
@@ -123,6 +123,14 @@ def core(unit: Unit, r: Result, system: str) -> tuple[Finding, ...]:
             out.append(Finding("valve-low-load-control", "info",
                                f"Below about {v.min_controllable_load:.0%} load the valve cannot modulate "
                                f"(Cv/rangeability = {v.cv / v.rangeability:.2g}) and will cycle."))
+    if r.set_point_floor_load > 0:
+        out.append(Finding(
+            "method-below-set-point", "info",
+            f"Below {r.set_point_floor_load:.0%} load the mean-temperature method would need steam colder than "
+            f"the leaving set point ({t(unit.design.outlet_temperature)}), which cannot heat to it; there the "
+            f"set point's saturation temperature is used instead, a lower bound on what the coil needs, so the "
+            f"stall point and the remedies are on the safe side. The NTU method (design.method = \"ntu\") "
+            f"models a coil whose flow varies without this limit."))
     out.extend(_devices(unit, r, system))
     out.extend(layout.rules(unit, r, system))
     order = {"danger": 0, "warning": 1, "info": 2}
@@ -152,12 +160,12 @@ def _devices(unit: Unit, r: Result, system: str) -> list[Finding]:
                 f"{w(trap.limit_condensate)}), before the stall proper"
                 + (f" at {r.stall.load_fraction:.0%}" if r.stall.occurs else "")
                 + ": condensate backs into the coil from there down. Fit a trap rated for "
-                  f"{w(trap.required_capacity)} at {p(trap.working_differential, 'differential')}, "
+                  f"{w(trap.required_capacity)} at {p(trap.selection_differential, 'differential')}, "
                   f"or give it more fill head."))
         if trap.capacity_ok is False:
             out.append(Finding(
                 "trap-undersized", "warning",
-                f"At its working differential ({p(trap.working_differential, 'differential')}) the trap passes "
+                f"At the differential it is selected at ({p(trap.selection_differential, 'differential')}) the trap passes "
                 f"{w(trap.installed_capacity)}; common practice for modulating coils asks "
                 f"{trap.margin:g} x the full-load condensate, {w(trap.required_capacity)} (VA HVAC Design "
                 f"Manual: 1.5-2 x; NAVFAC MO-209: 2-4 x). Select a larger trap on its hot-condensate rating."))

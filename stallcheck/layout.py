@@ -39,7 +39,7 @@ def rules(unit: Unit, r: Result, system: str) -> list[Finding]:
         return out
 
     if g.supply_feed == "center" and not g.distributing_tubes:
-        if purge_holds and not (r.stall.occurs and r.stall.load_fraction > r.minimum_load):
+        if purge_holds and not r.stall.in_range:
             severity, tail = "info", ("The installed constant purge keeps steam moving from the supply end at "
                                       "every load; keep it open and clean.")
         elif r.drainage.installed == "constant-purge":

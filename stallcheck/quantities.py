@@ -419,6 +419,39 @@ def convert(value: float, kind: str, system: str, atmospheric: float = STANDARD_
     return offset + scale * value
 
 
+def from_display(number: float, kind: str, system: str, atmospheric: float = STANDARD_ATMOSPHERE) -> float:
+    """The inverse of :func:`convert`: a number in the display unit of ``kind`` back to SI."""
+    offset, scale = _line(_SI_UNIT[kind], DISPLAY[system][kind][0])
+    value = (number - offset) / scale
+    return value + atmospheric if kind == "pressure" else value
+
+
+def rounded(value: float, kind: str, system: str, atmospheric: float = STANDARD_ATMOSPHERE,
+            up: bool = False) -> float:
+    """An SI value rounded, in its display unit and at the precision :func:`show` prints,
+    down (or ``up``) rather than to the nearest: the figure a user reads and applies is
+    then on the safe side of ``value``. Returns the SI value of the printed figure.
+
+    Parameters
+    ----------
+    value : float
+        SI value (absolute [Pa] for ``pressure``).
+    kind : str
+        A display kind of :data:`DISPLAY` with fixed decimals (pressures, lengths...).
+    up : bool
+        Round up (towards +inf in the display unit) instead of down.
+    """
+    number = convert(value, kind, system, atmospheric)
+    step = 10.0 ** -DISPLAY[system][kind][2]
+    steps = number / step
+    # a figure already on a printed step stays there (no step lost to the last bit)
+    nearest = round(steps)
+    if abs(steps - nearest) < 1e-9:
+        steps = nearest
+    figure = (math.ceil(steps) if up else math.floor(steps)) * step
+    return from_display(figure, kind, system, atmospheric)
+
+
 def express(value: float, si: str, unit: str) -> float:
     """An SI value in another unit of the same dimension (``express(0.3048, "m", "ft")``)."""
     offset, scale = _line(si, unit)

@@ -1,12 +1,22 @@
-"""What single change moves the stall point down to the minimum load.
+"""What single change lets the installed drainage drain the unit, or how far each
+value can go before it no longer does.
 
-The unit drains at load f while p_coil(f) + ρ·g·fill_head > p_return + ρ·g·lift + Δp_trap.
-Holding that with equality at the minimum load f_min, where the coil pressure is
-p_min, and solving it for one term at a time gives the limit of each: the largest
-lift, return pressure and trap differential, the smallest fill head, and the smallest
-design steam pressure (a smaller coil run hotter at full load, which keeps the coil
-pressure up at part load). Each is exact, not a search: the density ρ depends only
-on the return pressure, and the coil model has a closed-form inverse.
+The installed trap (or constant purge) drains the unit wherever it runs while the stall
+pressure p_stall = p_return + ρ·g·(lift − fill_head) + Δp_trap stays below the coil
+pressure at the minimum load, p_min. A trap with a vacuum breaker also drains it where
+the vacuum breaker acts, p_stall ≤ p_atm − margin (:func:`drainage.vacuum_breaker_acts`).
+Holding the more lenient of the two with equality and solving it for one term at a time
+gives the limit of each: the largest lift, return pressure and trap differential, the
+smallest fill head, and the smallest design steam pressure (a smaller coil run hotter at
+full load, which keeps the coil pressure up at part load; it moves p_min, not p_stall).
+Each is exact, not a search: ρ depends only on the return pressure, and the coil model
+has a closed-form inverse.
+
+Advice must survive being followed, so every limit is moved :data:`MARGIN` beyond the
+exact one, and the figure is then rounded at the precision it is printed in, in the safe
+direction (a largest value down, a smallest value up): the figure as printed, put in the
+unit file, gives an adequate verdict. A pump-trap drains at every load, so it has no
+remedies here.
 """
 
 from __future__ import annotations
@@ -14,17 +24,32 @@ from __future__ import annotations
 import numpy as np
 
 from stallcheck import coil as coilmod
-from stallcheck import properties
+from stallcheck import drainage, properties
 from stallcheck import quantities as q
 from stallcheck.inputs import Unit
 from stallcheck.quantities import GRAVITY
 from stallcheck.result import Remedy
 
+#: Differential every remedy figure leaves across the trap beyond its exact limit [Pa]
+#: (1 kPa: 0.15 psi, about 10 cm of water), before rounding in the safe direction.
+MARGIN = 1000.0
 #: Highest design steam pressure proposed [Pa] (the unit file's own limit).
 DESIGN_PRESSURE_LIMIT = 2.0e6
+#: More fill head than this is seldom found under a coil [m] (common practice, from
+#: memory: about 10 ft).
+PRACTICAL_FILL_HEAD = 3.0
 
 
-def solve(b, p_min, systems) -> list[tuple[Remedy, ...]]:
+def targets(b, p_min):
+    """The stall pressure [Pa] each unit's installed drainage can live with, less the
+    margin: the coil pressure at the minimum load, or with a vacuum breaker installed
+    atmospheric less the gravity margin where that is higher."""
+    arrangement = np.array([u.drain.arrangement for u in b.units])
+    breaker = np.where(arrangement == "trap-vacuum-breaker", b.atm - drainage.GRAVITY_MARGIN, -np.inf)
+    return np.maximum(p_min, breaker) - MARGIN
+
+
+def solve(b, p_min, adequate, systems) -> list[tuple[Remedy, ...]]:
     """The limit of each single change (see the module docstring), for every unit of a
     batch.
 
@@ -33,46 +58,57 @@ def solve(b, p_min, systems) -> list[tuple[Remedy, ...]]:
     b : analysis.Batch
     p_min : ndarray
         Coil pressure each unit needs at its minimum load. [Pa]
+    adequate : list of bool
+        Whether each unit's installed drainage is adequate now: its remedies are then
+        margins (how far each value can go), else changes.
     systems : list of str
-        ``"si"`` or ``"us"`` for each unit's words.
+        ``"si"`` or ``"us"`` for each unit's words and rounding.
 
     Returns
     -------
     list of tuple of Remedy
         For each unit: lift, return pressure, trap minimum differential, fill head and
-        design steam pressure, in that order.
+        design steam pressure, in that order; empty where a pump-trap is installed.
     """
-    rho, back, fill_p = b.density, b.back, b.fill
-    lift = (p_min + fill_p - b.return_pressure - b.trap_min) / (rho * GRAVITY)
-    # return pressure r: r + ρ(r)·g·(lift − fill) + Δp_trap = p_min, ρ at r (a few passes)
+    target = targets(b, p_min)
+    rho = b.density
+    lift = (target + b.fill - b.return_pressure - b.trap_min) / (rho * GRAVITY)
+    # return pressure r: r + ρ(r)·g·(lift − fill) + Δp_trap = target, ρ at r (a few passes)
     r = b.return_pressure.copy()
-    for _ in range(4):
+    for _ in range(6):
         dens = properties.liquid_density(np.clip(r, properties.P_MIN, properties.P_CRIT))
-        r = p_min - b.trap_min - dens * GRAVITY * (b.lift - b.fill_height)
-    dp = p_min + fill_p - back
-    fill = np.maximum((back + b.trap_min - p_min) / (rho * GRAVITY), 0.0)
+        r = target - b.trap_min - dens * GRAVITY * (b.lift - b.fill_height)
+    dp = target + b.fill - b.back
+    fill = np.maximum((b.back + b.trap_min - target) / (rho * GRAVITY), 0.0)
     design_t = _design_temperatures(b)
-    return [_words(b.units[i], systems[i], float(p_min[i]), float(lift[i]), float(r[i]), float(dp[i]),
-                   float(fill[i]), float(back[i]), float(fill_p[i]), float(b.threshold[i]), design_t[i])
-            for i in range(len(b.units))]
+    out = []
+    for i, u in enumerate(b.units):
+        if u.drain.arrangement == "pump-trap":
+            out.append(())
+            continue
+        words = _Words(u, systems[i], bool(adequate[i]), float(p_min[i]))
+        out.append((words.lift(float(lift[i])), words.return_pressure(float(r[i])),
+                    words.trap(float(dp[i]), float(b.back[i] - b.fill[i])), words.fill(float(fill[i])),
+                    words.design(design_t[i], float(b.threshold[i]), float(target[i]) + MARGIN > p_min[i])))
+    return out
 
 
 def _design_temperatures(b) -> list:
-    """Design steam temperature [K] putting each unit's stall at its minimum load, or a
-    reason word where none does (see :func:`_design_pressure`)."""
-    thr = b.threshold
-    valid = thr > properties.P_MIN
-    t_thr = properties.saturation_temperature(np.clip(thr, properties.P_MIN, properties.P_CRIT))
-    t_design = coilmod.design_steam_temperature_for(b.coil, b.minimum, t_thr)
+    """Design steam temperature [K] at which each unit's coil pressure at its minimum
+    load is the stall pressure plus the margin, or a reason word where none is."""
+    aim = b.threshold + MARGIN
+    valid = aim > properties.P_MIN
+    t_aim = properties.saturation_temperature(np.clip(aim, properties.P_MIN, properties.P_CRIT))
+    t_design = coilmod.design_steam_temperature_for(b.coil, b.minimum, t_aim)
     finite = np.isfinite(t_design) & valid
     t_safe = np.where(finite, np.clip(t_design, properties.T_MIN, properties.T_CRIT), properties.T_MIN)
     p_design = properties.saturation_pressure(t_safe)
     out = []
-    for i in range(len(thr)):
-        if not valid[i]:
-            out.append("below-tables")
+    for i in range(len(aim)):
+        if not valid[i] or t_aim[i] <= b.coil.outlet[i]:
+            out.append("any")
         elif not finite[i]:
-            out.append("set-point" if t_thr[i] <= b.coil.outlet[i] else "none")
+            out.append("none")
         elif t_design[i] >= properties.T_CRIT or p_design[i] > DESIGN_PRESSURE_LIMIT:
             out.append("too-high")
         else:
@@ -80,89 +116,137 @@ def _design_temperatures(b) -> list:
     return out
 
 
-def _words(unit: Unit, system: str, p_min: float, lift: float, ret: float, dp: float, fill: float,
-           back: float, fill_p: float, threshold: float, design) -> tuple[Remedy, ...]:
-    """The remedies of one unit with their notes."""
-    dr = unit.drain
-    atm = unit.site.atmospheric_pressure
-    f_min = unit.load.minimum
-    below = f"below {f_min:.0%} load" if f_min > 0 else "at every load"
-    down_to = f"down to {f_min:.0%} load" if f_min > 0 else "at every load"
+class _Words:
+    """Builds one unit's remedies: the safe rounding of each figure and its note."""
 
-    def p(pa, kind="pressure"):
-        return q.show(pa, kind, system, atm)
+    def __init__(self, unit: Unit, system: str, adequate: bool, p_min: float):
+        self.unit = unit
+        self.system = system
+        self.atm = unit.site.atmospheric_pressure
+        self.adequate = adequate
+        self.p_min = p_min
+        f_min = unit.load.minimum
+        self.down_to = f"down to {f_min:.0%} load" if f_min > 0 else "at every load"
+        self.status = "margin" if adequate else "change"
 
-    def length(m):
-        return q.show(m, "length", system)
+    def p(self, pa, kind="pressure"):
+        return q.show(pa, kind, self.system, self.atm)
 
-    out = []
-    if lift < 0:
-        out.append(Remedy("drain.lift", "length", dr.lift, None,
-                          f"no lift keeps this unit draining {below}: even with none, the coil pressure "
-                          f"there ({p(p_min)}) falls below the return pressure ({p(dr.return_pressure)}) "
-                          f"and the trap's own differential first"))
-    else:
-        out.append(Remedy("drain.lift", "length", dr.lift, lift,
-                          f"a lift of at most {length(lift)} after the trap keeps it draining {down_to} "
-                          f"(now {length(dr.lift)})"))
+    def length(self, m):
+        return q.show(m, "length", self.system)
 
-    if ret < properties.P_MIN:
-        out.append(Remedy("drain.return_pressure", "pressure", dr.return_pressure, None,
-                          f"no return pressure keeps it draining {below}: the lift needs more than the coil "
-                          f"has there ({p(p_min)}) even against a full vacuum"))
-    else:
-        vacuum = " (below atmospheric: only a vacuum return holds that)" if ret < atm else ""
-        out.append(Remedy("drain.return_pressure", "pressure", dr.return_pressure, ret,
-                          f"a return pressure of at most {p(ret)}{vacuum} keeps it draining {down_to} "
-                          f"(now {p(dr.return_pressure)})"))
+    def safe(self, value, kind, up=False):
+        return q.rounded(value, kind, self.system, self.atm, up=up)
 
-    if dp <= 0:
-        out.append(Remedy("drain.trap_min_differential", "differential", dr.trap_min_differential, None,
-                          f"no trap keeps it draining {below}: there the coil pressure plus the fill head "
-                          f"({p(p_min + fill_p)}) is already at or below the back pressure ({p(back)})"))
-    else:
-        out.append(Remedy("drain.trap_min_differential", "differential", dr.trap_min_differential, dp,
-                          f"a trap that opens at {p(dp, 'differential')} or less keeps it draining {down_to} "
-                          f"(now {p(dr.trap_min_differential, 'differential')})"))
+    def tight(self, key: str, kind: str, current: float) -> Remedy:
+        """A unit that drains now, but closer to its limit than the margin."""
+        return Remedy(key, kind, current, None,
+                      f"leave it as it is: the unit drains now, but with less than the "
+                      f"{self.p(MARGIN, 'differential')} margin these figures keep", "margin", False)
 
-    if fill > dr.fill_head:
-        note = (f"a fill head of {length(fill)} ({length(fill - dr.fill_head)} more than now) keeps it "
-                f"draining {down_to}")
-        if fill > 3.0:
-            note += "; that much height is seldom available, so a pump-trap is the practical fix"
-    elif fill == 0.0:
-        note = f"no fill head is needed to drain {down_to} (now {length(dr.fill_head)})"
-    else:
-        note = f"a fill head of {length(fill)} is enough to drain {down_to} (now {length(dr.fill_head)})"
-    out.append(Remedy("drain.fill_head", "length", dr.fill_head, fill, note))
-    out.append(_design_pressure(unit, design, threshold, below, down_to, p))
-    return tuple(out)
+    def lift(self, limit: float) -> Remedy:
+        dr = self.unit.drain
+        if self.adequate and limit < dr.lift:
+            return self.tight("drain.lift", "length", dr.lift)
+        if limit < 0:
+            return Remedy("drain.lift", "length", dr.lift, None,
+                          f"even with no lift the trap cannot drain it {self.down_to}: the return pressure "
+                          f"({self.p(dr.return_pressure)}) and the trap's own differential are more than the coil "
+                          f"and fill head have there", "impossible", False)
+        value = max(self.safe(limit, "length"), 0.0)
+        if self.adequate:
+            note = f"up to {self.length(value)} of lift after the trap still drains it {self.down_to}"
+        else:
+            note = f"a lift of at most {self.length(value)} after the trap"
+        return Remedy("drain.lift", "length", dr.lift, value, f"{note} (now {self.length(dr.lift)})",
+                      self.status, True)
 
+    def return_pressure(self, limit: float) -> Remedy:
+        dr = self.unit.drain
+        key = "drain.return_pressure"
+        value = self.safe(limit, "pressure") if limit > properties.P_MIN else limit
+        if self.adequate and value < dr.return_pressure:
+            return self.tight(key, "pressure", dr.return_pressure)
+        if value <= properties.P_MIN:
+            return Remedy(key, "pressure", dr.return_pressure, None,
+                          f"even against a full vacuum the lift takes more than the coil and fill head have "
+                          f"{self.down_to}", "impossible", False)
+        vacuum = " (below atmospheric: only a vacuum return holds that)" if value < self.atm else ""
+        if self.adequate:
+            note = f"a return pressure up to {self.p(value)}{vacuum} still drains it {self.down_to}"
+        else:
+            note = f"a return pressure of at most {self.p(value)}{vacuum}"
+        return Remedy(key, "pressure", dr.return_pressure, value, f"{note} (now {self.p(dr.return_pressure)})",
+                      self.status, True)
 
-def _design_pressure(unit: Unit, design, threshold: float, below: str, down_to: str, p) -> Remedy:
-    """The design steam pressure remedy from its solved value or the reason none works."""
-    current = unit.design.steam_pressure
-    key = "design.steam_pressure"
-    if design == "below-tables":
-        return Remedy(key, "pressure", current, properties.P_MIN,
-                      "any design pressure: the trap drains even with the coil at the bottom of the steam tables")
-    if design == "set-point":
-        return Remedy(key, "pressure", current, properties.P_MIN,
-                      "any design pressure: the stall pressure is below the set point's saturation pressure")
-    if design == "none":
-        return Remedy(key, "pressure", current, None,
-                      f"no design pressure keeps it draining {below}: at no load the coil needs only the "
-                      f"set point's saturation pressure, below the stall pressure ({p(threshold)})")
-    if design == "too-high":
-        return Remedy(key, "pressure", current, None,
-                      f"no practical design pressure keeps it draining {below}: it would take more than "
-                      f"{p(DESIGN_PRESSURE_LIMIT)} at full load")
-    value = design
-    if value > current:
-        note = (f"a smaller coil selected for {p(value)} at full load (now {p(current)}) keeps the coil "
-                f"pressure up and drains {down_to}")
+    def trap(self, limit: float, back_less_fill: float) -> Remedy:
+        dr = self.unit.drain
+        key = "drain.trap_min_differential"
+        value = self.safe(limit, "differential") if limit > 0 else 0.0
+        if self.adequate and (value <= 0 or value < dr.trap_min_differential):
+            return self.tight(key, "differential", dr.trap_min_differential)
+        if value <= 0:
+            return Remedy(key, "differential", dr.trap_min_differential, None,
+                          f"even a trap that opens at no differential cannot drain it {self.down_to}: the back "
+                          f"pressure less the fill head ({self.p(back_less_fill)}) is more than the coil has there",
+                          "impossible", False)
+        if self.adequate:
+            note = f"a trap that needs up to {self.p(value, 'differential')} to open still drains it {self.down_to}"
+        else:
+            note = f"a trap that opens at {self.p(value, 'differential')} or less"
+        return Remedy(key, "differential", dr.trap_min_differential, value,
+                      f"{note} (now {self.p(dr.trap_min_differential, 'differential')})", self.status, True)
+
+    def fill(self, limit: float) -> Remedy:
+        dr = self.unit.drain
+        value = self.safe(limit, "length", up=True) if limit > 0 else 0.0
+        now = self.length(dr.fill_head)
+        if self.adequate and value > dr.fill_head:
+            return self.tight("drain.fill_head", "length", dr.fill_head)
+        if self.adequate:
+            note = (f"no fill head is needed to drain it {self.down_to}" if value == 0 else
+                    f"a fill head down to {self.length(value)} still drains it {self.down_to}")
+            return Remedy("drain.fill_head", "length", dr.fill_head, value, f"{note} (now {now})", "margin", True)
+        if value > PRACTICAL_FILL_HEAD:
+            return Remedy("drain.fill_head", "length", dr.fill_head, value,
+                          f"it would take a fill head of {self.length(value)} (now {now}), more than the "
+                          f"{self.length(PRACTICAL_FILL_HEAD)} or so found under a coil", "change", False)
+        return Remedy("drain.fill_head", "length", dr.fill_head, value,
+                      f"a fill head of at least {self.length(value)} (now {now}: "
+                      f"{self.length(value - dr.fill_head)} more)", "change", True)
+
+    def design(self, design, threshold: float, breaker_decides: bool) -> Remedy:
+        unit = self.unit
+        current = unit.design.steam_pressure
+        key = "design.steam_pressure"
+        now = f"(now {self.p(current)})"
+        if breaker_decides and self.adequate:
+            return Remedy(key, "pressure", current, None,
+                          "any design pressure: the vacuum breaker drains it whatever the coil pressure", "any", False)
+        if design == "any":
+            return Remedy(key, "pressure", current, None,
+                          f"any design pressure: the coil needs more than the stall pressure ({self.p(threshold)}) "
+                          f"at every load, since it can never run below the set point's saturation pressure",
+                          "any", False)
+        if design == "none":
+            return Remedy(key, "pressure", current, None,
+                          f"no design pressure does it: at no load the coil needs only the set point's saturation "
+                          f"pressure, below the stall pressure ({self.p(threshold)})", "impossible", False)
+        if design == "too-high":
+            return Remedy(key, "pressure", current, None,
+                          f"no practical design pressure does it: it would take more than "
+                          f"{self.p(DESIGN_PRESSURE_LIMIT)} at full load", "impossible", False)
+        value = self.safe(design, "pressure", up=True)
+        if self.adequate and value > current:
+            return self.tight(key, "pressure", current)
+        if self.adequate:
+            return Remedy(key, "pressure", current, value,
+                          f"a design pressure down to {self.p(value)} still drains it {self.down_to} {now}",
+                          "margin", True)
+        note = (f"a smaller coil selected for {self.p(value)} at full load {now}: run hotter, it keeps the "
+                f"coil pressure up at part load")
         if value >= unit.supply_pressure:
-            note += f"; that is above the supply pressure ({p(unit.supply_pressure)}), so the supply must rise too"
-    else:
-        note = f"a design pressure down to {p(value)} still drains {down_to} (now {p(current)})"
-    return Remedy(key, "pressure", current, value, note)
+            return Remedy(key, "pressure", current, value,
+                          f"{note}; but that is at or above the supply ({self.p(unit.supply_pressure)}), so it "
+                          f"needs the supply raised too", "change", False)
+        return Remedy(key, "pressure", current, value, note, "change", True)

@@ -76,6 +76,11 @@ class StallPoint:
         Load below which it stalls; 1.0 where stalled even at full load. [-]
     coil_pressure, steam_temperature, condensate, inlet_temperature : float or None
         At the stall point [Pa], [K], [kg/s], [K] (inlet only where the load follows it).
+        Where the unit is stalled even at full load, these are the coil's own figures
+        at full load, and ``threshold_pressure`` (above them) is what the trap needs.
+    in_range : bool
+        True where it stalls above its minimum load, beyond the verdict's tolerance
+        (:func:`stallcheck.drainage.stalls_in_range`).
     """
 
     occurs: bool
@@ -85,6 +90,7 @@ class StallPoint:
     steam_temperature: float | None = None
     condensate: float | None = None
     inlet_temperature: float | None = None
+    in_range: bool = False
 
 
 @dataclass(frozen=True)
@@ -179,10 +185,13 @@ class TrapFigures:
         The lowest differential the trap must still drain at, as arranged (or as the
         required arrangement would have it), with the load and condensate there.
         [-], [kg/s], [Pa]
+    selection_differential : float
+        The differential the trap is selected at: the working differential, but not
+        less than 1/4 psi (no trap passes anything at no differential). [Pa]
     required_capacity : float
-        margin × design condensate, to be passed at ``working_differential``. [kg/s]
+        margin × design condensate, to be passed at ``selection_differential``. [kg/s]
     installed_capacity : float or None
-        What the trap passes at ``working_differential`` (None when selected). [kg/s]
+        What the trap passes at ``selection_differential`` (None when selected). [kg/s]
     limit_load : float or None
         Drainage limit: the highest load at which the trap cannot pass the condensate
         at the differential available there (None where it keeps up at every load). [-]
@@ -199,6 +208,7 @@ class TrapFigures:
     working_load: float
     working_condensate: float
     working_differential: float
+    selection_differential: float
     required_capacity: float
     installed_capacity: float | None
     limit_load: float | None
@@ -316,7 +326,8 @@ class FlashFigures:
 
 @dataclass(frozen=True)
 class Remedy:
-    """One change that moves the stall point down to the minimum load.
+    """One single change that lets the installed drainage drain the unit, or, where it
+    already does, how far one value can go before it stops doing so.
 
     Attributes
     ----------
@@ -327,11 +338,18 @@ class Remedy:
     current : float
         Its value now (SI).
     value : float or None
-        The limit: the largest (lift, return pressure, trap differential) or smallest
-        (fill head, design steam pressure) value that keeps the unit draining down to
-        the minimum load (SI); None where no value does.
+        The figure to apply, as printed (rounded in the safe direction, with the margin
+        beyond the exact limit): the largest lift, return pressure or trap differential,
+        the smallest fill head or design steam pressure (SI). None where no value works
+        (``status`` ``"impossible"``) or any does (``"any"``).
     note : str
         Plain words: what it means, or why no value works.
+    status : str
+        ``"change"`` (a change the unit needs), ``"margin"`` (the unit drains already:
+        how far the value can go), ``"impossible"`` or ``"any"``.
+    achievable : bool
+        The figure can be applied to this unit as it stands (not: a fill head beyond
+        what is found under a coil, or a design pressure at or above the supply).
     """
 
     key: str
@@ -339,6 +357,8 @@ class Remedy:
     current: float
     value: float | None
     note: str
+    status: str = "change"
+    achievable: bool = True
 
 
 @dataclass(frozen=True)
@@ -381,6 +401,10 @@ class Result:
     flash: FlashFigures | None = None
     remedies: tuple[Remedy, ...] = ()
     warnings: tuple[str, ...] = ()
+    #: Load below which the mean-temperature method, with the flow varying, would ask
+    #: for steam colder than the set point, and the set point is used instead [-]
+    #: (0 for every other coil; :func:`stallcheck.coil.set_point_floor_load`).
+    set_point_floor_load: float = 0.0
     cautions: tuple[str, ...] = field(default=CAUTIONS)
     format: int = 1
 

@@ -32,7 +32,8 @@ def test_fixed_flow_is_a_straight_line_by_hand():
 @pytest.mark.parametrize("varies, n", [("inlet-temperature", 0.0), ("flow", 0.0), ("flow", 0.5), ("flow", 0.8)])
 def test_inverse_round_trip(method, varies, n):
     m = _model(method, varies, n)
-    f = np.linspace(0.05, 1.0, 20)
+    # above the load where the mean-temperature line is held at the set point
+    f = np.linspace(max(0.05, 1.01 * float(coil.set_point_floor_load(m))), 1.0, 20)
     t = coil.steam_temperature(m, f)
     assert coil.load_at_steam_temperature(m, t) == pytest.approx(f, rel=1e-9)
     assert coil.steam_temperature(m, 1.0) == pytest.approx(380.0)
@@ -51,5 +52,23 @@ def test_flow_varying_ntu_by_hand():
 def test_steam_temperature_rises_with_load():
     for method in ("ntu", "mean-temperature"):
         for varies in ("inlet-temperature", "flow"):
-            t = coil.steam_temperature(_model(method, varies, 0.3), np.linspace(0.01, 1, 50))
-            assert np.all(np.diff(t) > 0)
+            m = _model(method, varies, 0.3)
+            t = coil.steam_temperature(m, np.linspace(0.01, 1, 50))
+            assert np.all(np.diff(t) >= 0)
+            above = coil.steam_temperature(m, np.linspace(float(coil.set_point_floor_load(m)) + 0.01, 1, 50))
+            assert np.all(np.diff(above) > 0)
+
+
+def test_mean_temperature_line_held_at_the_set_point_by_hand():
+    # Hand calculation, mean-temperature method with the flow varying, n = 0:
+    # T_s(f) = T_mean + f·(T_s,d − T_mean), T_mean = (250 + 283.15)/2 = 266.575 K. It
+    # reaches the set point 283.15 K at f* = 16.575/113.425 = 0.146133...; below that
+    # the coil cannot heat with steam colder than the air it must deliver, so the
+    # steam is held at the set point (a lower bound: the stall is then on the safe side).
+    m = _model("mean-temperature", "flow", 0.0)
+    assert float(coil.set_point_floor_load(m)) == pytest.approx(16.575 / 113.425, rel=1e-12)
+    assert coil.steam_temperature(m, 0.05) == pytest.approx(283.15, abs=1e-12)
+    assert coil.steam_temperature(m, 0.5) == pytest.approx(266.575 + 0.5 * 113.425, rel=1e-12)
+    # every steam temperature below the set point is needed at no load; at it, below f*
+    assert coil.load_at_steam_temperature(m, 280.0) == 0.0
+    assert float(coil.set_point_floor_load(_model("ntu", "flow", 0.0))) == 0.0

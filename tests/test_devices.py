@@ -286,9 +286,11 @@ def _with(u, key, value):
     return replace(u, design=replace(u.design, **{name: value}))
 
 
-def test_each_remedy_puts_the_stall_point_at_the_minimum_load():
+def test_each_remedy_puts_the_stall_point_at_or_below_the_minimum_load():
     # Independent of the closed forms: re-run the whole analysis with each proposed
-    # value; the stall point must land on load.minimum.
+    # value; the stall point must land at or a little below load.minimum (the figures
+    # keep a 1 kPa margin and are rounded in the safe direction), and the installed
+    # trap is then adequate.
     achieved = set()
     for spec in REMEDY_UNITS:
         u = _remedy_unit(**spec)
@@ -296,12 +298,14 @@ def test_each_remedy_puts_the_stall_point_at_the_minimum_load():
             if m.value is None:
                 continue
             again = analysis.analyse(_with(u, m.key, m.value))
+            assert again.drainage.adequate, m.key
+            assert not again.stall.in_range, m.key
             if m.key == "drain.fill_head" and m.value == 0.0:
-                # no fill head at all is needed: it drains below the minimum load without any
-                assert again.stall.load_fraction < spec["minimum"]
                 continue
             achieved.add(m.key)
-            assert again.stall.load_fraction == pytest.approx(spec["minimum"], abs=1e-6), m.key
+            assert (again.stall.load_fraction or 0.0) <= spec["minimum"], m.key
+            if again.stall.occurs:
+                assert again.stall.load_fraction > spec["minimum"] - 0.15, m.key
     assert achieved == {"drain.lift", "drain.return_pressure", "drain.trap_min_differential",
                         "drain.fill_head", "design.steam_pressure"}
 
@@ -317,16 +321,19 @@ def test_lift_remedy_by_hand():
     t = t_out + 0.95 * (t_design - t_out)
     p = IAPWS97(T=t, x=0).P * 1e6
     rho = IAPWS97(P=ATM / 1e6, x=0).rho
-    expected = (p + rho * 9.80665 * 18 * INCH - ATM) / (rho * 9.80665)
+    # less the stated 1 kPa margin, then rounded down to the 0.1 ft it is printed in
+    exact = (p - 1000.0 + rho * 9.80665 * 18 * INCH - ATM) / (rho * 9.80665)
+    expected = math.floor(exact / 0.3048 * 10) / 10 * 0.3048
     lift = next(m for m in analysis.analyse(u).remedies if m.key == "drain.lift")
-    assert lift.value == pytest.approx(expected, rel=1e-4)
+    assert lift.value == pytest.approx(expected, rel=1e-9)
+    assert f"{expected / 0.3048:.1f} ft" in lift.note
 
 
 def test_impossible_remedy_says_so_in_words():
     u = _remedy_unit(lift="6 ft", ret="1 psig", steam="5 psig", minimum=0.9)
     lift = next(m for m in analysis.analyse(u).remedies if m.key == "drain.lift")
-    assert lift.value is None
-    assert lift.note.startswith("no lift keeps this unit draining below 90% load")
+    assert lift.value is None and lift.status == "impossible" and not lift.achievable
+    assert lift.note.startswith("even with no lift the trap cannot drain it down to 90% load")
 
 
 def test_more_lift_never_lowers_the_largest_lift_remedy_below_zero_margin():

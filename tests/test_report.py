@@ -25,7 +25,7 @@ def test_report_for_every_sample_has_its_sections(tmp_path, sample):
     assert positions == sorted(positions)
     assert f"stallcheck {__version__}" in text
     assert "local codes" in text and "scald" in text
-    assert ("## What would fix it" in text) or ("## Margins" in text)
+    assert ("## What to do" in text) or ("## Margins" in text)
     assert "STALL CHART" not in text and "load, % of design" in text
 
 

@@ -11,6 +11,8 @@ import json
 import math
 
 from stallcheck import quantities as q
+from stallcheck.remedies import MARGIN
+from stallcheck.render import advice
 from stallcheck.result import Result
 
 
@@ -47,6 +49,7 @@ def to_dict(r: Result) -> dict:
         "method": r.method,
         "load_varies": r.varies,
         "minimum_load_fraction": r.minimum_load,
+        "set_point_floor_load_fraction": r.set_point_floor_load,
         "atmospheric_pressure_kpa": q.kpa(r.atmospheric_pressure),
         "return_pressure_kpa": q.kpa(r.return_pressure),
         "back_pressure_kpa": q.kpa(r.back_pressure),
@@ -68,6 +71,7 @@ def to_dict(r: Result) -> dict:
             "condensate_kg_h": q.kg_h(s.condensate),
             "inlet_temperature_c": q.celsius(s.inlet_temperature),
             "threshold_pressure_kpa": q.kpa(s.threshold_pressure),
+            "in_operating_range": s.in_range,
         },
         "stalled_hours": r.stalled_hours,
         "total_hours": r.total_hours,
@@ -94,9 +98,10 @@ def to_dict(r: Result) -> dict:
         "pump_trap": _pump_trap(r),
         "purge": _purge(r),
         "flash": _flash(r),
-        "remedies": [{"key": m.key, "current_si": m.current, "value_si": m.value,
-                      "unit_si": _SI_UNIT[m.kind], "achievable": m.value is not None, "note": m.note}
+        "remedies": [{"key": m.key, "status": m.status, "current_si": m.current, "value_si": m.value,
+                      "unit_si": _SI_UNIT[m.kind], "achievable": m.achievable, "note": m.note}
                      for m in r.remedies],
+        "advice": _advice(r),
         "findings": [{"code": f.code, "severity": f.severity, "message": f.message} for f in r.findings],
         "assumptions": list(r.assumptions),
         "warnings": list(r.warnings),
@@ -108,6 +113,13 @@ def to_dict(r: Result) -> dict:
 
 #: SI unit of each remedy's value: pressures absolute Pa, differentials Pa, heights m.
 _SI_UNIT = {"length": "m", "pressure": "Pa", "differential": "Pa"}
+
+
+def _advice(r: Result):
+    a = advice.advise(r, r.system)
+    return {"mode": a.mode, "fit": a.fit, "margin_kpa": q.kpa(MARGIN),
+            "text": list(a.lead) + [f"{m.key}: {m.note}" for m in a.changes]
+            + [f"{m.key}: {m.note}" for m in a.cannot] + list(a.notes)}
 
 
 def _trap(r: Result):
@@ -123,6 +135,7 @@ def _trap(r: Result):
         "working_load_fraction": t.working_load,
         "working_condensate_kg_h": q.kg_h(t.working_condensate),
         "working_differential_kpa": q.kpa(t.working_differential),
+        "selection_differential_kpa": q.kpa(t.selection_differential),
         "required_capacity_kg_h": q.kg_h(t.required_capacity),
         "installed_capacity_kg_h": q.kg_h(t.installed_capacity),
         "capacity_ok": t.capacity_ok,

@@ -7,7 +7,7 @@ import io
 
 from stallcheck import quantities as q
 from stallcheck.inputs import Unit
-from stallcheck.render import chart
+from stallcheck.render import advice, chart
 from stallcheck.result import Result
 
 SEVERITY_WORD = {"danger": "DANGER", "warning": "Warning", "info": "Note"}
@@ -88,8 +88,18 @@ def markdown(unit: Unit, r: Result, system: str, version: str, date: str) -> str
 
     out += _figures(r, show)
 
-    out += ["## What would fix it" if s.occurs and s.load_fraction > r.minimum_load else "## Margins", ""]
-    out += [f"- `{m.key}`: {m.note}" for m in r.remedies] + [""]
+    a = advice.advise(r, system)
+    out += [f"## {a.title}", ""]
+    lead = list(a.lead)
+    if a.fit:
+        lead[0] = f"**{lead[0]}**"
+    out += [" ".join(lead), ""]
+    if a.changes:
+        out += [f"- `{m.key}`: {m.note}" for m in a.changes] + [""]
+    if a.cannot:
+        out += (["Not by changing one of these alone:", ""] if a.changes else [])
+        out += [f"- `{m.key}`: {m.note}" for m in a.cannot] + [""]
+    out += [f"_{note}_" for note in a.notes] + ([""] if a.notes else [])
 
     out += ["## Findings", ""]
     out += [f"- **{SEVERITY_WORD[f.severity]}** `{f.code}`: {f.message}" for f in r.findings] or ["None."]
@@ -113,7 +123,7 @@ def _figures(r: Result, show) -> list[str]:
         rows.append(("Trap: full-load condensate", f"{show(t.design_condensate, 'mass_flow')} at "
                      f"{show(t.design_differential, 'differential')}"))
         rows.append(("Trap: select for", f"{show(t.required_capacity, 'mass_flow')} ({t.margin:g} x full load) at "
-                     f"{show(t.working_differential, 'differential')}"
+                     f"{show(t.selection_differential, 'differential')}"
                      + ("" if t.installed_capacity is None else
                         f"; passes {show(t.installed_capacity, 'mass_flow')} there")))
         rows.append(("Drainage limit", "none" if t.limit_load is None else f"{t.limit_load:.0%} load"))

@@ -12,7 +12,7 @@ from rich.table import Table
 from rich.text import Text
 
 from stallcheck import quantities as q
-from stallcheck.render import chart
+from stallcheck.render import advice, chart
 from stallcheck.result import Result
 
 CHART_COLOURS = {"curve": "bold cyan", "back": "yellow", "atmos": "dim", "stall": "bold red", "limit": "bold magenta",
@@ -110,9 +110,14 @@ def report(result: Result, system: str, width: int = 80) -> Group:
             if s.inlet_temperature is not None:
                 lead.append(f": entering {t(s.inlet_temperature)} and warmer")
         parts.append(lead)
-        parts.append(_para(f"coil pressure {p(s.coil_pressure)}, steam {t(s.steam_temperature)}, "
-                          f"condensate {w(s.condensate)}"))
-        if s.load_fraction < 1.0 and s.load_fraction <= r.minimum_load:
+        if s.load_fraction >= 1.0:
+            parts.append(_para(f"the coil has {p(s.coil_pressure)} at full load (steam {t(s.steam_temperature)}, "
+                               f"condensate {w(s.condensate)}); the trap needs more than {p(s.threshold_pressure)} "
+                               f"(the stall pressure)"))
+        else:
+            parts.append(_para(f"coil pressure {p(s.coil_pressure)}, steam {t(s.steam_temperature)}, "
+                               f"condensate {w(s.condensate)}"))
+        if not s.in_range:
             parts.append(_para(Text(f"below the minimum load of {r.minimum_load:.0%}: it never runs there.",
                                    style="green")))
     if r.stalled_hours is not None:
@@ -186,8 +191,10 @@ def _devices(r: Result, system: str) -> list:
                            f"differential"))
         parts.append(_para(f"lowest working differential: {p(tr.working_differential, 'differential')} at "
                            f"{tr.working_load:.0%} load, with {w(tr.working_condensate)}"))
+        floor = ("" if tr.selection_differential <= tr.working_differential else
+                 " (1/4 psi, the usual sizing floor: it has less than that)")
         select = Text(f"select for {w(tr.required_capacity)} ({tr.margin:g} x full load, common practice) at "
-                      f"{p(tr.working_differential, 'differential')}")
+                      f"{p(tr.selection_differential, 'differential')}{floor}")
         if tr.installed_capacity is not None:
             select.append(f"; it passes {w(tr.installed_capacity)} there: ")
             select.append("enough" if tr.capacity_ok else "SHORT",
@@ -262,26 +269,31 @@ def _devices(r: Result, system: str) -> list:
 
 
 def _remedies(r: Result, system: str) -> list:
-    """The 'what would fix it' section: one line per single change."""
-    if not r.remedies:
-        return []
-    stalls = r.stall.occurs and r.stall.load_fraction > r.minimum_load
-    title = ("What would fix it: any one of these moves the stall down" if stalls
-             else "Margins: how far each can go before it stalls")
-    parts: list = [_heading(title)]
-    if stalls:
-        parts.append(_para(Text(f"each, alone, puts the stall point at the minimum load "
-                                f"({r.minimum_load:.0%})", style="dim")))
-        if r.minimum_load == 0:
-            parts.append(_para(Text("load.minimum is 0, so these must drain it at no load at all; give the "
-                                    "lowest load the unit really runs at for figures that can be met",
-                                    style="dim")))
+    """The 'what to do' section (:mod:`stallcheck.render.advice`)."""
+    a = advice.advise(r, system)
+    parts: list = [_heading(a.title)]
+    lead = list(a.lead)
+    if a.fit:
+        parts.append(_para(Text(lead.pop(0), style="bold")))
+    parts += [_para(line) for line in lead]
     grid = Table.grid(padding=(0, 1))
-    grid.add_column(width=2)
+    grid.add_column(width=3)
     grid.add_column()
-    for rem in r.remedies:
+    for rem in a.changes:
         grid.add_row("", Text.assemble((rem.key, "bold"), ": ", rem.note))
-    parts += [grid, Text("")]
+    if a.changes:
+        parts.append(grid)
+    if a.cannot:
+        if a.changes:
+            parts.append(_para("Not by changing one of these alone:"))
+        cannot = Table.grid(padding=(0, 1))
+        cannot.add_column(width=3)
+        cannot.add_column()
+        for rem in a.cannot:
+            cannot.add_row("", Text.assemble((rem.key, "dim bold"), ": ", (rem.note, "dim")))
+        parts.append(cannot)
+    parts += [_para(Text(note, style="dim")) for note in a.notes]
+    parts.append(Text(""))
     return parts
 
 
