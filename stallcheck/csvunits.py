@@ -19,7 +19,7 @@ from typing import Iterator
 
 from stallcheck import quantities as q
 from stallcheck.errors import InputError
-from stallcheck.unitfile import MAX_FILE_BYTES, read_text
+from stallcheck.unitfile import _KNOWN, MAX_FILE_BYTES, known_key, read_text, unknown_key
 
 #: Largest CSV read [bytes]: a table of many thousands of units.
 MAX_CSV_BYTES = 100 * MAX_FILE_BYTES
@@ -81,6 +81,15 @@ def _columns(header: list[str], source: str) -> list[_Column]:
             raise InputError(text.strip(), "is not a column name; write the unit file's dotted key, such as "
                                            "\"drain.lift\" or \"drain.lift [ft]\".", file=source, line=1)
         key, unit = match.group(1), match.group(2)
+        if not known_key(key):
+            section, _, name = key.rpartition(".")
+            if section in _KNOWN:
+                error = unknown_key(section, name).in_file(source)
+                error.line = 1
+                raise error
+            raise InputError(key, f"unknown key; a column is named by a key of the unit file, such as "
+                                  f"\"drain.lift\"; sections: {', '.join(sorted(k for k in _KNOWN if k))}.",
+                             file=source, line=1)
         if key in seen:
             raise InputError(key, "appears in two columns.", file=source, line=1)
         seen.add(key)

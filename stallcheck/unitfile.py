@@ -123,7 +123,10 @@ def parse(text: str, source: str = "unit file") -> Unit:
     try:
         return _build(data, source)
     except InputError as exc:
-        raise exc.in_file(source) from None
+        exc = exc.in_file(source)
+        if exc.line is None and exc.message.startswith("unknown key"):
+            exc.line = _line_of(text, exc.key)
+        raise exc from None
 
 
 def from_data(data: dict, source: str, line: int | None = None) -> Unit:
@@ -149,6 +152,32 @@ def from_data(data: dict, source: str, line: int | None = None) -> Unit:
 # --- helpers -----------------------------------------------------------------------
 
 
+def unknown_key(section: str, key: str) -> InputError:
+    """The error for a key the format does not know, naming the nearest known key."""
+    known = _KNOWN[section]
+    full = f"{section}.{key}" if section else key
+    near = difflib.get_close_matches(key, sorted(known), n=1, cutoff=0.6)
+    where = f"[{section}]" if section else "the top level"
+    hint = (f"did you mean '{near[0]}'?" if near else f"known keys in {where}: {', '.join(sorted(known))}.")
+    return InputError(full, f"unknown key; {hint} Nothing is computed from a file with a key it does "
+                            f"not know, since a misspelt key would leave its default in force.")
+
+
+def known_key(dotted: str) -> bool:
+    """True where ``dotted`` (``"drain.lift"``, ``"format"``) is a key of the format."""
+    section, _, name = dotted.rpartition(".")
+    return section in _KNOWN and name in _KNOWN[section]
+
+
+def _line_of(text: str, key: str) -> int | None:
+    """The line where a dotted key is written (its last part as a key, or as a table)."""
+    name = key.rpartition(".")[2]
+    pattern = re.compile(rf'^[ \t]*(?:"{re.escape(name)}"|{re.escape(name)})[ \t]*=|^[ \t]*\[+[ \t]*{re.escape(key)}'
+                         rf'[ \t]*\]+', re.MULTILINE)
+    match = pattern.search(text)
+    return text.count("\n", 0, match.start()) + 1 if match else None
+
+
 class _Reader:
     """Walks the TOML tables, recording unknown keys and defaults taken."""
 
@@ -171,13 +200,11 @@ class _Reader:
         return value
 
     def unknown(self, table: dict, name: str) -> None:
-        known = _KNOWN[name]
+        """Refuse a key the format does not know: a misspelt key would otherwise leave
+        its default in force and change the answer without a word."""
         for key in table:
-            if key not in known:
-                full = f"{name}.{key}" if name else key
-                near = difflib.get_close_matches(key, sorted(known), n=1, cutoff=0.6)
-                hint = f"; did you mean '{near[0]}'?" if near else f"; known keys here: {', '.join(sorted(known))}."
-                self.warnings.append(f"unknown key '{full}' ignored{hint}")
+            if key not in _KNOWN[name]:
+                raise unknown_key(name, key)
 
     def vote(self, text) -> None:
         if q.is_us(text):

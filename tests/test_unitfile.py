@@ -74,9 +74,10 @@ def test_toml_syntax_error_gives_the_line():
     assert err.value.line == 3 and "not valid TOML" in str(err.value)
 
 
-def test_unknown_key_warns_with_nearest():
-    u = parse(**{'lift = "0 ft"': 'lift = "0 ft"\nretrun_pressure = "0 psig"'})
-    assert any("retrun_pressure" in w and "return_pressure" in w for w in u.warnings)
+def test_unknown_key_is_refused_with_nearest():
+    with pytest.raises(InputError, match="unknown key; did you mean 'return_pressure'") as err:
+        parse(**{'lift = "0 ft"': 'lift = "0 ft"\nretrun_pressure = "0 psig"'})
+    assert err.value.key == "drain.retrun_pressure" and err.value.line is not None
 
 
 def test_differential_refuses_gauge():
