@@ -357,7 +357,7 @@ def survey(paths: list[Path] = typer.Argument(..., help="Unit files, folders of 
 
 #: What diagnose asks for, in order: (option, field, question).
 QUESTIONS = (
-    ("--coil-pressure", "coil_pressure", "Steam pressure read at the coil inlet (such as 3 psig), blank if not read"),
+    ("--coil-pressure", "coil_pressure", "Steam pressure read at the coil inlet (such as 3 psig, or 10 inHg vacuum), blank if not read"),
     ("--return-pressure", "return_pressure", "Return or receiver pressure (such as 0 psig), blank if not read"),
     ("--load", "load", "Present load as a fraction or % of design, blank if not known"),
     ("--inlet-temperature", "inlet_temperature", "Entering temperature now (such as 35 degF), blank if not read"),
@@ -396,7 +396,7 @@ def _ask_missing(unit, given: dict) -> dict:
 @app.command()
 def diagnose(unit: Path = UNIT_ARG,
              coil_pressure: Optional[str] = typer.Option(None, "--coil-pressure", help="Gauge at the coil inlet, "
-                                                         "such as '3 psig'."),
+                                                         "such as '3 psig', '-0.3 barg' or '10 inHg vacuum'."),
              return_pressure: Optional[str] = typer.Option(None, "--return-pressure",
                                                            help="Return or receiver pressure."),
              load: Optional[str] = typer.Option(None, "--load", help="Present load: 0.4 or '40 %'."),

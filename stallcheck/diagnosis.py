@@ -17,7 +17,7 @@ import numpy as np
 
 from stallcheck import analysis, coil as coilmod, layout, properties
 from stallcheck import quantities as q
-from stallcheck.devices import TrapCapacity
+from stallcheck.devices import MOTIVE_MARGIN, TrapCapacity
 from stallcheck.errors import InputError
 from stallcheck.findings import POOR_AT_LOW_DIFFERENTIAL
 from stallcheck.inputs import Unit
@@ -64,6 +64,15 @@ FACTS = {
     "valve_oversized": "the valve is oversized (under half open at design)",
     "freezing_air": "the entering air is below freezing",
     "cool_return": "the trap discharges into a return running below boiling",
+    "breaker_holding_vacuum": "a vacuum breaker is fitted, yet the coil gauge reads a vacuum",
+    "breaker_cannot_act": "a vacuum breaker is fitted where gravity has too little differential for it to drain "
+                          "the coil (the check requires a pump-trap)",
+    "pump_flooding": "a pump-trap is fitted, yet the coil floods (the gauges, a cold trap or a low outlet say so)",
+    "pump_motive_low": "the pump-trap's motive pressure is not well above the back pressure",
+    "pump_short": "the condensate at the stall point is more than the pump-trap is rated for",
+    "trap_cold_with_differential": "the trap outlet is cold although the coil gauge is above the back pressure",
+    "drainage_covers_stall": "the installed drainage is the one the check requires for its stall, so a stall "
+                             "floods the coil only where that equipment fails",
 }
 
 
@@ -83,11 +92,10 @@ CAUSES = (
     Cause("stall", "The coil stalls: its pressure falls to the back pressure and condensate backs up",
           {"stalled_model": 3, "stalled_gauges": 3, "near_stall": 1, "stalls_in_range": 1, "noise_low_load": 2,
            "noise_mild_weather": 2, "trap_cold": 1, "outlet_low": 1, "lift_after_trap": 1,
-           "trap_blowing": -3, "noise_all_the_time": -1},
+           "trap_blowing": -3, "noise_all_the_time": -1, "drainage_covers_stall": -5},
           "Read the coil gauge and the return gauge together at low load: the coil at or below the return "
           "pressure plus the lift head confirms it.",
-          "Drain it as the check requires (for this unit: {required}), or make one of the changes under 'what "
-          "would fix it'."),
+          "{drain_advice}"),
     Cause("tube-fill-pattern", "Tubes fill from both ends and shut in steam pockets",
           {"centre_fed": 3, "noise_low_load": 1, "noise_valve_opens": 1, "noise_startup": 1,
            "stalled_model": 1, "stalls_in_range": 1, "trap_blowing": -2},
@@ -116,7 +124,7 @@ CAUSES = (
           "failed open; bubbles collapsing in a cool return hammer continuously.",
           "Repair or replace the trap; where it discharges into a cool or pumped return, do so along the "
           "direction of flow through a sparging fitting."),
-    Cause("trap-flooding", "An undersized or failed trap floods the coil",
+    Cause("trap-flooding", "The trap is too small for the condensate at the differential it has",
           {"trap_short_now": 3, "trap_undersized": 2, "trap_cold": 2, "reading_high": 2, "outlet_low": 1,
            "poor_trap_type": 1, "noise_all_the_time": 1, "stalled_model": -2, "stalled_gauges": -1,
            "trap_blowing": -3},
@@ -135,8 +143,42 @@ CAUSES = (
           {"freezing_air": 2, "stalled_model": 3, "stalled_gauges": 2, "trap_cold": 2, "outlet_low": 1},
           "Check the leaving-air low-limit and the condensate outlet temperature; look for split tubes or "
           "leaks at the return header.",
-          "Drain the coil so it cannot hold water at any load (as the check requires); keep a low-limit on the "
-          "leaving air; consider preheat or face-and-bypass control with the steam valve held open."),
+          "{freeze_advice} Keep a low-limit on the leaving air; consider preheat or face-and-bypass control with "
+          "the steam valve held open."),
+    Cause("vacuum-breaker-stuck", "The vacuum breaker is stuck shut, or fitted where it cannot let air in",
+          {"breaker_holding_vacuum": 6, "stalled_gauges": 2, "trap_cold": 1, "outlet_low": 1, "noise_low_load": 1,
+           "noise_mild_weather": 1, "trap_blowing": -3},
+          "With the coil gauge reading a vacuum, listen and feel at the vacuum breaker: it should be drawing air "
+          "in. One that stays shut is stuck or fouled, or fitted on the trap outlet or below the water line "
+          "instead of on the coil side above its condensate outlet.",
+          "Free, clean or replace the vacuum breaker, fitted on the coil side above the condensate outlet; then "
+          "read the coil gauge at low load again: it should no longer hold a vacuum."),
+    Cause("vacuum-breaker-cannot-act", "The vacuum breaker cannot drain this coil: gravity has too little "
+                                       "differential against the back pressure",
+          {"breaker_cannot_act": 6, "stalled_gauges": 2, "stalled_model": 1, "trap_cold": 1, "noise_low_load": 1,
+           "noise_mild_weather": 1, "trap_blowing": -3},
+          "Read the coil gauge and the return gauge together at low load: with the breaker open the coil sits at "
+          "atmospheric pressure, and where the return pressure plus the lift head, less the fill head, is not "
+          "well below that, the condensate cannot leave by gravity.",
+          "Fit {required_words} as the check requires: a vacuum breaker alone cannot drain against this back "
+          "pressure (see the check's drainage section)."),
+    Cause("pump-trap-not-pumping", "The pump-trap is not moving the condensate: motive steam off or too low, a "
+                                   "stuck check valve, or more condensate than it is rated for",
+          {"pump_flooding": 4, "pump_motive_low": 3, "pump_short": 3, "noise_low_load": 1,
+           "noise_all_the_time": 1, "trap_blowing": -3},
+          "Check that the motive steam valve is open and its gauge reads well above the back pressure; listen "
+          "for the pump's cycle (a regular exhaust at load). A body that stays full without cycling, or cycles "
+          "without discharging, points to the inlet or outlet check valve: test each. Compare its rated "
+          "capacity at this back pressure with the condensate (the check's pump-trap figures).",
+          "Test the installed pump-trap first; then restore the motive steam, free or replace a stuck check "
+          "valve, or select one rated for the condensate at this back pressure."),
+    Cause("trap-failed-closed", "The trap has failed shut, or its strainer is blocked",
+          {"trap_cold_with_differential": 4, "outlet_low": 1, "reading_high": 1, "noise_all_the_time": 1,
+           "trap_blowing": -5},
+          "With the coil gauge above the back pressure the trap should discharge: a cold trap with a cold pipe "
+          "ahead of it means it is not opening. Test it (ultrasonic, or temperatures either side), then isolate "
+          "it and look at the strainer and the trap's internals.",
+          "Clean the strainer, or repair or replace the trap with one of the same rating."),
 )
 
 #: Facts a cause cannot do without: it is listed only where at least one of these holds
@@ -151,7 +193,37 @@ REQUIRES = {
     "trap-flooding": ("trap_short_now", "trap_undersized", "trap_cold", "reading_high", "outlet_low"),
     "valve-hunting": ("valve_cycling", "valve_oversized"),
     "freeze-damage": ("freezing_air",),
+    "vacuum-breaker-stuck": ("breaker_holding_vacuum",),
+    "vacuum-breaker-cannot-act": ("breaker_cannot_act",),
+    "pump-trap-not-pumping": ("pump_flooding", "pump_motive_low", "pump_short"),
+    "trap-failed-closed": ("trap_cold_with_differential",),
 }
+
+#: A vacuum breaker lets air in before the coil holds more vacuum than this [Pa]:
+#: about 1 inHg (common practice, from memory; breakers open at a fraction of an inch).
+BREAKER_VACUUM = 3386.389
+
+_REQUIRED_WORDS = {"trap": "a trap", "trap-vacuum-breaker": "a vacuum breaker on the coil",
+                   "pump-trap": "a pump-trap (or a pump and receiver)"}
+
+
+def drain_context(r: Result) -> dict:
+    """The words the remedies fill in from the check: never prescribe what is fitted."""
+    dr = r.drainage
+    required = _REQUIRED_WORDS[dr.required]
+    if dr.adequate and dr.required != "trap":
+        drain = (f"The installed {dr.installed} should drain it at this load: test it before adding anything "
+                 f"(see the causes on the installed equipment below, if listed).")
+        freeze = f"Test the installed {dr.installed} before each winter: it must drain the coil at every load."
+    elif dr.adequate:
+        drain = ("By the check a trap alone drains it wherever it runs: test the trap and compare the gauges "
+                 "with the check's figures (a return or lift higher than the unit file says would explain it).")
+        freeze = "Test the trap before each winter, so the coil cannot hold water at any load."
+    else:
+        drain = (f"Fit {required} as the check requires (the installed {dr.installed} cannot drain it), or make one "
+                 f"of the changes under 'what to do'.")
+        freeze = f"Drain the coil so it cannot hold water at any load: fit {required} as the check requires."
+    return {"drain_advice": drain, "freeze_advice": freeze, "required_words": required}
 
 
 @dataclass(frozen=True)
@@ -264,7 +336,7 @@ def diagnose(unit: Unit, result: Result, readings: Readings) -> Diagnosis:
 
     facts = _facts(unit, r, readings, load, model_p, condensate, back, fill, stalled_model, stalled_gauges,
                    agreement)
-    causes = rank(facts, required=r.drainage.required)
+    causes = rank(facts, **drain_context(r))
     return Diagnosis(readings, load, basis, model_p, back, stalled_model, stalled_gauges, agreement, facts,
                      causes, r, unit.design.outlet_temperature)
 
@@ -283,7 +355,24 @@ def _facts(unit, r, readings, load, model_p, condensate, back, fill, stalled_mod
         capacity = TrapCapacity(unit, back, r.trap.bore)
         trap_short = bool(capacity(model_p + fill - back, model_p + fill) < condensate)
     v = r.valve
+    installed = dr.arrangement
+    atm = unit.site.atmospheric_pressure
+    coil_reading = readings.coil_pressure
+    flooding = bool(stalled_gauges or readings.trap_outlet == "cold" or agreement == "high" or (
+        readings.outlet_temperature is not None
+        and readings.outlet_temperature < unit.design.outlet_temperature - OUTLET_SHORTFALL))
+    pt = r.pump_trap
+    pump = installed == "pump-trap" and pt is not None
     return {
+        "breaker_holding_vacuum": bool(installed == "trap-vacuum-breaker" and coil_reading is not None
+                                       and coil_reading < atm - BREAKER_VACUUM),
+        "breaker_cannot_act": bool(installed == "trap-vacuum-breaker" and r.drainage.required == "pump-trap"),
+        "pump_flooding": bool(pump and flooding),
+        "pump_motive_low": bool(pump and pt.motive_pressure - pt.back_pressure < MOTIVE_MARGIN),
+        "pump_short": bool(pump and pt.capacity is not None and pt.capacity < pt.condensate),
+        "trap_cold_with_differential": bool(readings.trap_outlet == "cold" and coil_reading is not None
+                                            and installed != "pump-trap" and not stalled_gauges),
+        "drainage_covers_stall": bool(r.drainage.adequate and s.in_range),
         "stalled_model": bool(stalled_model),
         "stalled_gauges": bool(stalled_gauges),
         "stalls_in_range": s.in_range,
@@ -321,8 +410,7 @@ def _facts(unit, r, readings, load, model_p, condensate, back, fill, stalled_mod
 def rank(facts: dict, **context) -> tuple[RankedCause, ...]:
     """Score every cause on the facts that hold; best first, unsupported causes left out.
 
-    ``context`` fills the placeholders of the remedies (``required``: the drainage the
-    check requires).
+    ``context`` fills the placeholders of the remedies (:func:`drain_context`).
 
     Ties go to the cause with more supporting facts, then to the code's alphabetical
     order (so the result never depends on the table's order alone).

@@ -285,6 +285,49 @@ def pressure(key: str, text) -> Pressure:
     return Pressure(_magnitude(key, text, q, "Pa"), unit in _GAUGE)
 
 
+#: Units a vacuum or compound gauge reads in, below atmospheric (``"10 inHg vacuum"``).
+_VACUUM_UNITS = {"inhg": "inHg", "in hg": "inHg", '"hg': "inHg", "mmhg": "mmHg", "kpa": "kPa", "bar": "bar",
+                 "psi": "psi"}
+_VACUUM = re.compile(r"^\s*([-+]?(?:\d+(?:\.\d*)?|\.\d+))\s*(inhg|in hg|\"hg|mmhg|kpa|bar|psi)\s*(vac|vacuum)?\s*$",
+                     re.IGNORECASE)
+
+
+def gauge_reading(key: str, text, atmospheric: float) -> float:
+    """A gauge reading as typed at a unit [Pa, absolute]: what :func:`pressure` reads,
+    and what vacuum and compound gauges show below atmospheric: ``"10 inHg vacuum"``,
+    ``"10 inHg vac"``, ``"-10 inHg"``, ``"25 kPa vacuum"``, ``"-0.3 barg"``.
+
+    Parameters
+    ----------
+    key : str
+        The option or key, for messages.
+    text : str
+    atmospheric : float
+        The site's atmospheric pressure [Pa], which gauge and vacuum readings are
+        relative to.
+    """
+    match = _VACUUM.match(str(text))
+    if match:
+        number, unit, vacuum = float(match.group(1)), _VACUUM_UNITS[match.group(2).lower()], match.group(3)
+        mercury = unit in ("inHg", "mmHg")
+        if vacuum or (mercury and number < 0):
+            if vacuum and number < 0:
+                raise InputError(key, f"'{text}' gives a vacuum with a minus sign; write \"{-number:g} {unit} vacuum\" "
+                                      f"or \"{number:g} {unit}\".")
+            offset, scale = _line(_unit_info(unit)[0], "Pa")
+            below = offset + scale * abs(number)
+            if below >= atmospheric:
+                raise InputError(key, f"'{text}' is more vacuum than the atmosphere here "
+                                      f"({show(atmospheric, 'pressure_abs', 'us' if unit in ('inHg', 'psi') else 'si')}) "
+                                      f"allows; check the gauge and its units.")
+            return atmospheric - below
+        if mercury:
+            raise InputError(key, f"'{text}' does not say it is a vacuum: a compound gauge reads inches or "
+                                  f"millimetres of mercury below atmospheric; write \"{number:g} {unit} vacuum\" or "
+                                  f"\"-{number:g} {unit}\".")
+    return pressure(key, text).absolute(atmospheric)
+
+
 def differential(key: str, text) -> float:
     """Parse a pressure difference [Pa]: plain ``psi``, ``bar``, ``kPa`` or ``inH2O``."""
     accepted = "psi, bar, kPa, inH2O"
@@ -489,6 +532,10 @@ def show(value: float | None, kind: str, system: str, atmospheric: float = STAND
     text = f"{number:.3g}" if kind == "diameter" and decimals is None else f"{number:,.{places}f}"
     if text.startswith("-") and float(text.replace(",", "")) == 0:
         text = text[1:]
+    if kind == "pressure" and system == "us" and decimals is None and text.startswith("-"):
+        # below atmospheric, as a US compound gauge reads it: inches of mercury vacuum
+        offset, scale = _line("Pa", "inch_Hg")
+        return f"{text} {label(kind, system)} ({offset + scale * (atmospheric - value):.1f} inHg vac)"
     return f"{text} {label(kind, system)}"
 
 

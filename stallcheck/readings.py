@@ -53,7 +53,7 @@ class Readings:
 def _pressure(option: str, text, atm: float) -> float | None:
     if text is None or str(text).strip() == "":
         return None
-    value = q.pressure(option, str(text)).absolute(atm)
+    value = q.gauge_reading(option, str(text), atm)
     if value <= 0:
         raise InputError(option, f"\"{text}\" is at or below absolute zero pressure; check the gauge/absolute "
                                  f"spelling and the sign.")

@@ -82,6 +82,24 @@ SCENARIOS = {
                       dict(load="0.03", noise="valve-opens,low-load", trap_outlet="hot-passing")),
     "freeze-damage": (BASE_UNIT, "", dict(inlet_temperature="5 degF", outlet_temperature="38 degF",
                                           trap_outlet="cold")),
+    # a vacuum breaker fitted where it can act (18 in of fill head against a vented
+    # return), yet the coil reads a vacuum: the breaker is not letting air in
+    "vacuum-breaker-stuck": (BASE_UNIT.replace('arrangement = "trap"', 'arrangement = "trap-vacuum-breaker"'), "",
+                             dict(inlet_temperature="40 degF", coil_pressure="5 inHg vacuum",
+                                  noise="low-load,mild-weather", trap_outlet="cold")),
+    # a vacuum breaker with 6 in of fill head: about 0.2 psi, under the 1/4 psi a trap is
+    # sized at, so it cannot drain the coil by gravity (common practice)
+    "vacuum-breaker-cannot-act": (BASE_UNIT.replace('arrangement = "trap"', 'arrangement = "trap-vacuum-breaker"')
+                                  .replace('fill_head = "18 in"', 'fill_head = "6 in"'), "",
+                                  dict(inlet_temperature="40 degF", noise="low-load", trap_outlet="cold")),
+    # a pump-trap whose motive steam is barely above the back pressure of a 10 ft lift
+    "pump-trap-not-pumping": (BASE_UNIT.replace('arrangement = "trap"', 'arrangement = "pump-trap"')
+                              .replace('lift = "0 ft"', 'lift = "10 ft"'), 'motive_pressure = "6 psig"\n',
+                              dict(inlet_temperature="40 degF", coil_pressure="2 psig", noise="low-load",
+                                   trap_outlet="cold")),
+    # a coil that never stalls, its gauge well above the return, and a cold trap
+    "trap-failed-closed": (HOT_WATER, "", dict(load="0.6", coil_pressure="4 barg", trap_outlet="cold",
+                                               outlet_temperature="115 degC")),
 }
 
 
@@ -226,3 +244,58 @@ def test_good_layout_gives_no_layout_finding():
     codes = {f.code for f in analysis.analyse(_unit(BASE_UNIT, good)).findings}
     assert not codes & {"tube-fill-both-ends", "group-trapping", "drop-not-vented", "valve-not-dripped",
                         "tubes-not-pitched"}
+
+
+@pytest.mark.parametrize("cause", sorted(SCENARIOS))
+def test_diagnose_never_prescribes_what_is_installed(cause):
+    text, extra, given = SCENARIOS[cause]
+    d = _diagnose(text, extra, **given)
+    installed = d.result.drainage.installed
+    fitted = {"pump-trap": "fit a pump-trap", "trap-vacuum-breaker": "fit a vacuum breaker"}.get(installed)
+    for c in d.causes:
+        if fitted and d.result.drainage.adequate:
+            assert fitted not in c.remedy.lower(), (c.code, c.remedy)
+        if installed == "pump-trap":
+            assert "fit a pump-trap" not in c.remedy.lower(), (c.code, c.remedy)
+
+
+def test_installed_pump_trap_that_floods_is_to_be_tested_not_fitted():
+    text, extra, given = SCENARIOS["pump-trap-not-pumping"]
+    d = _diagnose(text, extra, **given)
+    stall = next(c for c in d.causes if c.code == "stall")
+    assert "installed pump-trap should drain it" in stall.remedy and "test it" in stall.remedy
+
+
+@pytest.mark.parametrize("reading", ["10 inHg vacuum", "10 inHg vac", "-10 inHg", "10 in Hg vacuum"])
+def test_compound_gauge_readings_are_accepted(reading):
+    # NIST SP 811, Appendix B: 1 inHg (32 °F) = 3.38638 kPa, so 10 inHg of vacuum at
+    # sea level is 101.325 − 33.864 = 67.461 kPa(abs).
+    u = _unit(BASE_UNIT.replace('arrangement = "trap"', 'arrangement = "trap-vacuum-breaker"'))
+    got = readings.parse(u, coil_pressure=reading)
+    assert got.coil_pressure == pytest.approx(101325 - 33863.8, abs=1.0)
+
+
+def test_negative_gauge_and_vacuum_in_kpa_are_accepted():
+    u = _unit(BASE_UNIT)
+    assert readings.parse(u, coil_pressure="-0.3 barg").coil_pressure == pytest.approx(71325.0)
+    assert readings.parse(u, coil_pressure="25 kPa vacuum").coil_pressure == pytest.approx(76325.0)
+
+
+@pytest.mark.parametrize("reading, fragment", [
+    ("10 inHg", "does not say it is a vacuum"),
+    ("35 inHg vacuum", "more vacuum than the atmosphere"),
+    ("-5 inHg vacuum", "minus sign"),
+])
+def test_ambiguous_or_impossible_vacuum_readings_are_refused(reading, fragment):
+    u = _unit(BASE_UNIT)
+    with pytest.raises(InputError, match=fragment) as err:
+        readings.parse(u, coil_pressure=reading)
+    assert err.value.key == "--coil-pressure"
+
+
+def test_us_output_shows_vacuum_as_a_compound_gauge_reads_it():
+    # 10 inHg below 14.696 psia is 4.91 psi of vacuum (NIST SP 811: 1 inHg = 0.491154 psi).
+    from stallcheck import quantities
+    assert quantities.show(101325 - 33863.8, "pressure", "us") == "-4.9 psig (10.0 inHg vac)"
+    assert quantities.show(101325 + 1000, "pressure", "us") == "0.1 psig"
+    assert "inHg" not in quantities.show(101325 - 33863.8, "pressure", "si")

@@ -147,7 +147,12 @@ def test_the_same_unit_in_si_and_us_gives_the_same_results(d):
         if a.value is not None and b.value is not None:
             assert b.value == pytest.approx(a.value, rel=1e-6, abs=step[a.kind] * 1.0001), a.key
         elif a.status != b.status:
-            assert "margin" in (a.status, b.status), a.key
+            # rounding down to a printed step can cross a bound in one system only: the
+            # bottom of the steam tables for a return pressure (IF97 triple point,
+            # 611.657 Pa), zero for a lift or a trap differential
+            given = a.value if a.value is not None else b.value
+            bound = 611.657 if a.kind == "pressure" else 0.0
+            assert "margin" in (a.status, b.status) or abs(given - bound) <= step[a.kind] * 1.0001, a.key
         else:
             assert a.value is None and b.value is None, a.key
     for a, b in pairs:
