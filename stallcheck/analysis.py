@@ -493,7 +493,8 @@ def _assumptions(unit: Unit, clipped: bool, trap) -> tuple[str, ...]:
     if d.medium == "air":
         out.append("Air cp 1.006 kJ/(kg·K); air volumes are standard air, 1.204 kg/m³.")
     else:
-        out.append("Liquid cp (and density, for volume flows) at the mean design temperature (CoolProp).")
+        out.append("Liquid cp (and density, for volume flows) at the mean design temperature (CoolProp: "
+                   "HEOS water, incompressible glycol mixtures).")
     if unit.valve is not None:
         out.append("Valve: IEC 60534-2-1 with γ = 1.30 for steam, F_P = 1, inherent characteristic.")
     out.append(_trap_basis(trap))

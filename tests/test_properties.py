@@ -51,3 +51,54 @@ def test_latent_heat_at_one_atmosphere_steam_table():
 def test_below_triple_point_is_refused():
     with pytest.raises(PropertyRangeError, match="outside IAPWS-IF97"):
         properties.saturation_temperature(500.0)
+
+
+# Independent: CoolProp's own IF97 backend, over the whole saturation line from the
+# triple point to just below the critical point, to 1e-9 relative.
+def test_whole_saturation_line_against_coolprop_if97():
+    import CoolProp.CoolProp as CP
+
+    p = np.geomspace(properties.P_MIN, 0.999 * properties.P_CRIT, 1500)
+    t = np.linspace(properties.T_MIN, 0.999 * properties.T_CRIT, 1500)
+
+    def ref(output, name, value, quality):
+        return CP.PropsSI(output, name, value, "Q", quality, "IF97::Water")
+
+    checks = [
+        (properties.saturation_temperature(p), ref("T", "P", p, 0)),
+        (properties.saturation_pressure(t), ref("P", "T", t, 0)),
+        (properties.latent_heat(p), ref("H", "P", p, 1) - ref("H", "P", p, 0)),
+        (properties.latent_heat_at(t), ref("H", "T", t, 1) - ref("H", "T", t, 0)),
+        (properties.liquid_enthalpy(p[p > 1e3]), ref("H", "P", p[p > 1e3], 0)),
+        (properties.liquid_density(p), ref("D", "P", p, 0)),
+        (properties.vapour_density(p), ref("D", "P", p, 1)),
+        (properties.liquid_cp(p), ref("C", "P", p, 0)),
+    ]
+    for ours, theirs in checks:
+        assert np.max(np.abs(ours / theirs - 1.0)) < 1e-9
+
+
+# Independent: CoolProp's HEOS (IAPWS-95) liquid water at 500 kPa, which the shipped
+# Chebyshev series stands for, checked between the fit's nodes over 0 °C to 150 °C.
+def test_liquid_water_series_against_coolprop_heos():
+    import CoolProp.CoolProp as CP
+
+    t = np.linspace(273.15, 423.15, 3001)
+    for output, ours in (("C", properties.medium_cp("water", None, t)),
+                         ("D", properties.medium_density("water", None, t))):
+        theirs = CP.PropsSI(output, "T", t, "P", properties.LIQUID_PRESSURE, "HEOS::Water")
+        assert np.max(np.abs(ours / theirs - 1.0)) < 1e-10
+
+
+def test_a_steam_and_air_or_water_check_does_not_import_coolprop():
+    # CoolProp's import costs seconds; saturated steam and liquid water need none of it.
+    import subprocess
+    import sys
+
+    code = ("import sys\nfrom stallcheck import analysis, unitfile\n"
+            "for f in ('sample_units/us_vacuum_breaker_gravity.toml', 'sample_units/si_water_heater.toml'):\n"
+            "    analysis.analyse(unitfile.load(f))\n"
+            "print('CoolProp' in sys.modules)")
+    out = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True, check=True,
+                         cwd=str(__import__("conftest").ROOT))
+    assert out.stdout.strip() == "False"
