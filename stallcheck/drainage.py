@@ -55,11 +55,6 @@ def back_pressure(return_pressure, lift, density):
     return return_pressure + head(lift, density)
 
 
-def stall_pressure(return_pressure, lift, fill_head, trap_min_differential, density):
-    """Coil pressure at or below which the trap cannot discharge [Pa] (module docstring)."""
-    return back_pressure(return_pressure, lift, density) + trap_min_differential - head(fill_head, density)
-
-
 @dataclass(frozen=True)
 class Requirement:
     """The drainage a unit needs and why.

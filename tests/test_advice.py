@@ -191,3 +191,33 @@ def test_mean_temperature_method_held_at_the_set_point_with_a_finding():
     assert min(r.points.steam_temperature) >= (140 - 32) / 1.8 + 273.15 - 1e-9
     assert "method-below-set-point" in {f.code for f in r.findings}
     assert r.set_point_floor_load > 0
+
+
+def test_a_unit_draining_with_less_than_the_margin_is_told_to_leave_things_as_they_are():
+    # Hand-built edge: the minimum load set where the coil pressure is only 300 Pa above
+    # the stall pressure, less than the 1 kPa margin every figure keeps. The unit drains
+    # (adequate), but no value may move the wrong way, so each margin says to leave it.
+    import numpy as np
+
+    data = _unit(fill_head="12 in", lift="1 ft")
+    probe = analysis.analyse(unitfile.from_data(data, "t.toml"))
+    thr = probe.stall.threshold_pressure
+    loads = np.linspace(probe.stall.load_fraction, 1.0, 200001)
+    pressures = np.interp(loads, probe.points.load_fraction, probe.points.coil_pressure)
+    f_min = float(loads[np.searchsorted(pressures, thr + 300.0)])
+    data["load"]["minimum"] = round(f_min, 6)
+    r = analysis.analyse(unitfile.from_data(data, "t.toml"))
+    assert r.drainage.adequate and not r.stall.in_range
+    by_key = {m.key: m for m in r.remedies}
+    for key in ("drain.lift", "drain.return_pressure", "drain.trap_min_differential", "drain.fill_head",
+                "design.steam_pressure"):
+        m = by_key[key]
+        assert m.status == "margin" and m.value is None and not m.achievable, key
+        assert m.note.startswith("leave it as it is"), key
+    # with 5 kPa to spare the same unit gets figures, each on the safe side of now
+    data["load"]["minimum"] = round(float(loads[np.searchsorted(pressures, thr + 5000.0)]), 6)
+    r = analysis.analyse(unitfile.from_data(data, "t.toml"))
+    by_key = {m.key: m for m in r.remedies}
+    assert by_key["drain.lift"].value > r.lift
+    assert by_key["drain.fill_head"].value < r.fill_head
+    assert by_key["design.steam_pressure"].value < r.design.coil_pressure
