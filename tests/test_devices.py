@@ -155,12 +155,26 @@ PURGE_UNIT = BASE_UNIT.replace('arrangement = "trap"', 'arrangement = "constant-
 def test_purge_yearly_cost_by_hand():
     # Hand calculation: hours × the full-load bleed (the stated basis without bins)
     # × price per 1000 lb.
+    # The bleed itself by hand: US DOE Steam Tip Sheet #1, W = 24.24·p·d² (lb/h, psia,
+    # in) for critical flow; from 5 psig (19.70 psia) into 0 psig the pressure ratio
+    # 14.696/19.70 = 0.746 is above the critical 0.577, so the flow is scaled by the
+    # nozzle flow function ψ(r) = √(2γ/(γ−1)·(r^(2/γ) − r^((γ+1)/γ))), γ = 1.135
+    # (saturated steam), against its value at the critical ratio.
     r = analysis.analyse(unit(PURGE_UNIT, 'purge_orifice = "0.0625 in"\n'))
     pu = r.purge
-    rate = float(purge.steam_orifice_flow(0.0625 * INCH, r.design.coil_pressure, r.back_pressure))
-    assert pu.design_rate == pytest.approx(rate)
-    assert pu.yearly_mass == pytest.approx(rate * 4000 * 3600)
-    assert pu.yearly_cost == pytest.approx(rate * 4000 * 3600 / (1000 * 0.45359237) * 15)
+    p1 = 5.0 + 14.696
+    gamma = 1.135
+
+    def psi(ratio):
+        return math.sqrt(2 * gamma / (gamma - 1) * (ratio ** (2 / gamma) - ratio ** ((gamma + 1) / gamma)))
+
+    critical = (2 / (gamma + 1)) ** (gamma / (gamma - 1))
+    rate_lb_h = 24.24 * p1 * 0.0625 ** 2 * psi(14.696 / p1) / psi(critical)
+    rate = rate_lb_h * 0.45359237 / 3600
+    assert pu.design_rate == pytest.approx(rate, rel=2e-3)
+    # then hours x the full-load bleed x the price per 1000 lb
+    assert pu.yearly_mass == pytest.approx(rate * 4000 * 3600, rel=2e-3)
+    assert pu.yearly_cost == pytest.approx(rate * 4000 * 3600 / (1000 * 0.45359237) * 15, rel=2e-3)
     assert pu.currency == "USD"
 
 
@@ -390,3 +404,17 @@ def test_poor_trap_type_at_low_working_differential_without_a_stall():
     assert "trap-type-modulating" in {f.code for f in bucket.findings}
     ft = analysis.analyse(unit(text, extra))
     assert "trap-type-modulating" not in {f.code for f in ft.findings}
+
+
+def test_trap_selected_at_a_quarter_psi_where_it_works_below_that():
+    # Published rule: US Department of Veterans Affairs, HVAC Design Manual, steam
+    # section: size traps on modulating equipment at 1/4 psi differential. A coil that
+    # stalls at its minimum load has almost no differential there, so the trap is
+    # selected at 1/4 psi (1.724 kPa), and the figures say so.
+    u = unit(BASE_UNIT.replace("[drain]", "[load]\nminimum = 0.4\n[drain]").replace(
+        'fill_head = "18 in"', 'fill_head = "2 in"'))
+    r = analysis.analyse(u)
+    assert r.trap.working_differential < 0.25 * PSI
+    assert r.trap.selection_differential == pytest.approx(0.25 * PSI, rel=1e-9)
+    from stallcheck.render import json as contract
+    assert contract.to_dict(r)["trap"]["selection_differential_kpa"] == pytest.approx(1.7237, abs=1e-4)
