@@ -45,6 +45,12 @@ _SPELLINGS = {"kPa(g)": "kPag", "kPa(abs)": "kPaa", "kpa(g)": "kPag", "kpa(abs)"
 #: Unit spellings that mark a file as written in US customary units.
 _US_UNITS = {"psig", "psia", "psi", "degF", "in", "ft", "lb/h", "cfm", "gpm", "inH2O"}
 
+#: Longest unit text looked up [characters]: every unit spelling a unit file needs is a
+#: few characters; anything longer is refused unparsed.
+MAX_UNIT_TEXT = 40
+#: Longest quantity string read [characters].
+MAX_QUANTITY_TEXT = 120
+
 _NUMBER_UNIT = re.compile(r"^\s*([-+]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][-+]?\d+)?)\s*(\S.*?)\s*$")
 
 
@@ -108,9 +114,12 @@ class _Answers:
                 pass
         return self.data
 
-    def get(self, key: str, compute):
+    def get(self, key: str, compute, valid=lambda value: True):
+        """pint's answer for ``key``: from the file where it is there and of the shape
+        ``valid`` accepts (a cache file damaged or written by something else is not
+        trusted), else computed and kept."""
         data = self._load()
-        if key in data:
+        if key in data and valid(data[key]):
             value = data[key]
             return tuple(value) if isinstance(value, list) else value
         value = compute()
@@ -165,6 +174,9 @@ def _split(key: str, text, example: str) -> tuple[float, str]:
                 dict: "table"}.get(type(text), type(text).__name__)
         raise InputError(key, f"expected a quantity string such as \"{example}\", got a {kind} ({text!r}); "
                               "write the number and its unit inside quotes.")
+    if len(text) > MAX_QUANTITY_TEXT:
+        raise InputError(key, f"is {len(text):,} characters long; a quantity is a number and a unit, such as "
+                              f"\"{example}\".")
     if "(" in text:
         for spelled, name in _SPELLINGS.items():
             text = text.replace(spelled, name)
@@ -195,7 +207,11 @@ class _Parsed:
 def _unit_info(unit_text: str) -> tuple[str, str] | None:
     """(canonical unit name, dimensionality) of a unit as written; None if pint does not
     know it. Cached: a survey meets the same few spellings thousands of times."""
-    return _answers.get(f"unit|{unit_text}", lambda: _pint_unit(unit_text))
+    if len(unit_text) > MAX_UNIT_TEXT:
+        return None
+    return _answers.get(f"unit|{unit_text}", lambda: _pint_unit(unit_text),
+                        lambda v: v is None or (isinstance(v, list) and len(v) == 2
+                                                and all(isinstance(x, str) for x in v)))
 
 
 def _pint_unit(unit_text: str):
@@ -205,7 +221,9 @@ def _pint_unit(unit_text: str):
     try:
         units = ureg.parse_units(unit_text)
     except (pint.errors.UndefinedUnitError, pint.errors.DefinitionSyntaxError, AttributeError,
-            TypeError, ValueError, SyntaxError):
+            TypeError, ValueError, SyntaxError, AssertionError, RecursionError, KeyError, IndexError):
+        # pint's parser fails in several ways on text that is no unit at all (characters
+        # it cannot tokenise, thousands of nested parentheses): all mean "not a unit"
         return None
     return [str(units), str(units.dimensionality)]
 
@@ -217,7 +235,8 @@ def unit_known(unit_text: str) -> bool:
 
 @lru_cache(maxsize=64)
 def _dimension(si: str) -> str:
-    return _answers.get(f"dimension|{si}", lambda: str(registry().parse_units(si).dimensionality))
+    return _answers.get(f"dimension|{si}", lambda: str(registry().parse_units(si).dimensionality),
+                        lambda v: isinstance(v, str))
 
 
 @lru_cache(maxsize=1024)
@@ -230,7 +249,10 @@ def _line(unit: str, si: str) -> tuple[float, float]:
         one = float(ureg.Quantity(1.0, unit).to(si).magnitude)
         return [zero, one - zero]
 
-    return _answers.get(f"line|{unit}|{si}", compute)
+    return _answers.get(f"line|{unit}|{si}", compute,
+                        lambda v: isinstance(v, list) and len(v) == 2
+                        and all(isinstance(x, (int, float)) and not isinstance(x, bool) and math.isfinite(x)
+                                for x in v))
 
 
 def _quantity(key: str, text, dimension: str, example: str, accepted: str, also: str | None = None):
@@ -340,8 +362,11 @@ def differential(key: str, text) -> float:
 
 
 def temperature(key: str, text) -> float:
-    """Parse a temperature [K]: ``degC``, ``degF`` or ``K``."""
-    q, _ = _quantity(key, text, "K", "50 degF", "degC, degF, K")
+    """Parse a temperature [K]: ``degC``, ``degF`` or ``K``; a temperature difference
+    (``delta_degC``) is not a temperature."""
+    q, unit = _quantity(key, text, "K", "50 degF", "degC, degF, K")
+    if "delta" in unit:
+        raise InputError(key, f"'{text}' is a temperature difference, not a temperature; accepted: degC, degF, K.")
     return _magnitude(key, text, q, "K")
 
 

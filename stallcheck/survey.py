@@ -8,6 +8,8 @@ memory held does not grow with the number of units beyond the summaries.
 
 from __future__ import annotations
 
+import os
+
 from dataclasses import dataclass
 from pathlib import Path
 from typing import Callable, Iterable, Iterator
@@ -84,28 +86,43 @@ class Failure:
 
 def sources(paths: Iterable[str | Path]) -> list[Path]:
     """The files a survey reads: files as given, folders searched recursively for
-    ``.toml`` and ``.csv`` files (sorted), each once."""
+    ``.toml`` and ``.csv`` files (sorted), each once. A folder that cannot be searched
+    is kept as a source of its own, so that reading it names it as unreadable."""
     out: list[Path] = []
     seen = set()
     for p in paths:
         path = Path(p)
-        found = sorted(x for x in path.rglob("*") if x.suffix.lower() in (".toml", ".csv") and x.is_file()) \
-            if path.is_dir() else [path]
+        found = _search(path) if path.is_dir() else [path]
         for f in found:
-            key = str(f.resolve()) if f.exists() else str(f)
+            try:
+                key = str(f.resolve()) if f.exists() else str(f)
+            except OSError:
+                key = str(f)
             if key not in seen:
                 seen.add(key)
                 out.append(f)
     return out
 
 
+def _search(folder: Path) -> list[Path]:
+    found: list[Path] = []
+
+    def unreadable(error: OSError) -> None:
+        found.append(Path(error.filename))
+
+    for root, folders, files in os.walk(folder, onerror=unreadable):
+        folders.sort()
+        found += [Path(root) / f for f in files if f.lower().endswith((".toml", ".csv"))]
+    return sorted(found)
+
+
 def count(files: list[Path]) -> int:
     """How many units the files hold (CSV rows counted, not validated)."""
     total = 0
     for f in files:
-        if f.suffix.lower() == ".csv" and f.is_file():
+        if f.suffix.lower() == ".csv":
             try:
-                total += csvunits.count(f)
+                total += csvunits.count(f) if f.is_file() else 1
             except OSError:
                 total += 1
         else:

@@ -11,7 +11,9 @@ from __future__ import annotations
 
 import difflib
 import math
+import os
 import re
+import stat
 import tomllib
 from dataclasses import replace
 from pathlib import Path
@@ -66,12 +68,23 @@ def read_text(path: str | Path, max_bytes: int = MAX_FILE_BYTES, kind: str = "TO
     name = str(path)
     try:
         if path.is_dir():
+            if not os.access(path, os.R_OK | os.X_OK):
+                raise InputError("", "is a folder that cannot be read (permission denied).", file=name)
             raise InputError("", f"is a folder, not a {kind}; give the path of a {suffix} file.", file=name)
-        size = path.stat().st_size
-        if size > max_bytes:
-            raise InputError("", f"is {size / 1e6:.1f} MB; a {kind} is read up to {max_bytes / 1e6:.0f} MB.",
-                             file=name)
-        raw = path.read_bytes()
+        info = path.stat()
+        if not stat.S_ISREG(info.st_mode):
+            # a named pipe or a device would block, or never end
+            raise InputError("", f"is not a regular file (a pipe, device or socket); give the path of a {suffix} "
+                                 f"file.", file=name)
+        if info.st_size > max_bytes:
+            raise InputError("", f"is {info.st_size / 1e6:.1f} MB; a {kind} is read up to "
+                                 f"{max_bytes / 1e6:.0f} MB.", file=name)
+        with open(path, "rb") as handle:
+            # a hard limit, whatever the size said (a file still growing, say)
+            raw = handle.read(max_bytes + 1)
+        if len(raw) > max_bytes:
+            raise InputError("", f"is more than {max_bytes / 1e6:.0f} MB; a {kind} is read up to "
+                                 f"{max_bytes / 1e6:.0f} MB.", file=name)
     except FileNotFoundError:
         raise InputError("", f"no such file; give the path of a {suffix} {kind}.", file=name) from None
     except PermissionError:
@@ -111,6 +124,9 @@ def parse(text: str, source: str = "unit file") -> Unit:
     """Validate the text of a unit file (see :func:`load`)."""
     try:
         data = tomllib.loads(text)
+    except RecursionError:
+        raise InputError("", "is not valid TOML here: its arrays or tables are nested too deeply to read "
+                             "(a unit file nests two levels at most).", file=source) from None
     except tomllib.TOMLDecodeError as exc:
         msg = str(exc)
         match = re.search(r"line (\d+)", msg)

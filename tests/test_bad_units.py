@@ -70,10 +70,10 @@ def test_folder_missing_file_and_unreadable_file(tmp_path, monkeypatch):
     locked.write_text(BASE_UNIT, encoding="utf-8")
 
     # Permission is simulated: the tests may run as a user who can read anything.
-    def refuse(self):
+    def refuse(*args, **kwargs):
         raise PermissionError(13, "Permission denied")
 
-    monkeypatch.setattr(Path, "read_bytes", refuse)
+    monkeypatch.setattr("stallcheck.unitfile.open", refuse, raising=False)
     _refused(runner.invoke(app, ["check", str(locked)]), locked, "", "permission denied")
 
 
@@ -82,10 +82,10 @@ def test_very_large_file_is_refused_without_reading_it(tmp_path, monkeypatch):
     with open(big, "wb") as f:
         f.truncate(50 * 1024 * 1024)  # sparse: 50 MB on paper, nothing on disk
 
-    def never(self):
+    def never(*args, **kwargs):
         raise AssertionError("a 50 MB file must not be read")
 
-    monkeypatch.setattr(Path, "read_bytes", never)
+    monkeypatch.setattr("stallcheck.unitfile.open", never, raising=False)
     _refused(runner.invoke(app, ["check", str(big)]), big, "", "52.4 MB")
 
 
@@ -124,3 +124,53 @@ def test_nothing_in_a_unit_file_is_run_as_code(write_unit, tmp_path):
     assert result.exit_code == 2 and not marker.exists()
     with pytest.raises(InputError, match="is not '<number> <unit>'"):
         unitfile.parse(text, "x.toml")
+
+
+def test_pipes_and_devices_are_refused_not_read(tmp_path):
+    # A named pipe would block every command forever, and a link to an endless device
+    # would read until memory runs out: only regular files are read.
+    import os
+    fifo = tmp_path / "pipe.toml"
+    os.mkfifo(fifo)
+    for command in (["check", str(fifo)], ["chart", str(fifo)], ["survey", str(fifo)]):
+        result = runner.invoke(app, command)
+        assert result.exit_code == 2 and "not a regular file" in result.stderr, command
+    endless = tmp_path / "endless.toml"
+    endless.symlink_to("/dev/zero")
+    result = runner.invoke(app, ["check", str(endless)])
+    assert result.exit_code == 2 and "not a regular file" in result.stderr
+
+
+@pytest.mark.parametrize("text, says", [
+    ("format = 1\nx = " + "[" * 5000 + "]" * 5000 + "\n", "nested too deeply"),
+    ("format = 1\nx = " + "{a = " * 3000 + "1" + "}" * 3000 + "\n", "nested too deeply"),
+    (BASE_UNIT.replace('flow = "6000 cfm"', 'flow = "6000 \U0001F525"'), "unknown unit"),
+    (BASE_UNIT.replace('flow = "6000 cfm"', 'flow = "6000 ' + "(" * 3000 + "cfm" + ")" * 3000 + '"'),
+     "characters long"),
+    (BASE_UNIT.replace('inlet_temperature = "-10 degF"', 'inlet_temperature = "10 delta_degC"'),
+     "temperature difference"),
+])
+def test_hostile_text_is_refused_without_a_traceback(write_unit, text, says):
+    path = write_unit(text)
+    result = runner.invoke(app, ["check", str(path)])
+    assert result.exit_code == 2, result.output
+    assert says in result.stderr and "Traceback" not in result.output
+
+
+def test_a_units_cache_of_the_wrong_shape_is_not_trusted(tmp_path, write_unit):
+    # valid JSON, wrong shape: answers are recomputed rather than crashing the run
+    import subprocess
+    import sys
+    cache = tmp_path / "cache" / "stallcheck"
+    cache.mkdir(parents=True)
+    code = ("import json, pathlib, sys\nfrom stallcheck import quantities as q\n"
+            "q._answers._load()\nf = q._answers.file\nf.parent.mkdir(parents=True, exist_ok=True)\n"
+            "f.write_text(json.dumps({'unit|psig': 5, 'line|psig|Pa': 'x', 'unit|cfm': [1, 2]}))\n"
+            "print(f)")
+    env = dict(__import__("os").environ, XDG_CACHE_HOME=str(tmp_path / "cache"))
+    subprocess.run([sys.executable, "-c", code], env=env, check=True, capture_output=True)
+    path = write_unit(BASE_UNIT)
+    run = subprocess.run([sys.executable, "-m", "stallcheck", "check", str(path)], env=env, capture_output=True,
+                         text=True)
+    assert run.returncode in (0, 1), run.stderr
+    assert "Traceback" not in run.stderr
