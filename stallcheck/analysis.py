@@ -125,6 +125,20 @@ def _screen(units: list[Unit]) -> list[InputError | None]:
         elif u.drain.return_pressure < properties.P_MIN:
             errors[i] = InputError("drain.return_pressure", "is below 0.61 kPa(abs), under the triple point of "
                                    "water; check the gauge/absolute spelling.", file=u.source)
+        elif d.medium.endswith("glycol") and d.inlet_temperature <= _freezing(d) + 0.5:
+            errors[i] = InputError(
+                "design.inlet_temperature",
+                f"{q.show(d.inlet_temperature, 'temperature', system)} is at or below the freezing point of "
+                f"{d.concentration:.0%} {d.medium} ({q.show(_freezing(d), 'temperature', system)}, from CoolProp's "
+                f"mixture data); accepted: warmer than that.", file=u.source)
+        elif (u.drain.return_temperature is not None
+              and u.drain.return_temperature > properties.saturation_temperature(u.drain.return_pressure) + 0.5):
+            t_sat = float(properties.saturation_temperature(u.drain.return_pressure))
+            errors[i] = InputError(
+                "drain.return_temperature",
+                f"{q.show(u.drain.return_temperature, 'temperature', system)} is hotter than water boils at the "
+                f"return pressure ({q.show(t_sat, 'temperature', system)}); condensate standing in the return "
+                f"cannot be. Accepted: at or below that.", file=u.source)
         elif d.medium != "air" and 0.5 * (d.inlet_temperature + d.outlet_temperature) >= 423.15:
             errors[i] = InputError("design.outlet_temperature", "liquid media are evaluated up to a mean "
                                    "temperature of 150 °C; this unit's mean design temperature is higher.",
@@ -145,6 +159,11 @@ def _screen(units: list[Unit]) -> list[InputError | None]:
                     f"pump-trap cannot push against it. Give the motive steam or air pressure at the pump-trap "
                     f"inlet.", file=u.source)
     return errors
+
+
+def _freezing(design) -> float:
+    """Freezing point [K] of a glycol solution, from CoolProp's mixture data."""
+    return float(properties.freezing_temperature(design.medium, design.concentration))
 
 
 # --- the batch ------------------------------------------------------------------------

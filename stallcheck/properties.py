@@ -173,3 +173,11 @@ def medium_density(medium: str, concentration: float | None, temperature):
 
         return _water(water_liquid.DENSITY, temperature)
     return _props("D", "T", temperature, "P", LIQUID_PRESSURE, _medium_fluid(medium, concentration))
+
+
+def freezing_temperature(medium: str, concentration: float | None) -> float:
+    """Freezing point [K] of a glycol solution at its mass fraction [-], from CoolProp's
+    incompressible-mixture data (273.15 K for water)."""
+    if medium == "water":
+        return 273.15
+    return float(_props("T_freeze", "T", 300.0, "P", LIQUID_PRESSURE, _medium_fluid(medium, concentration)))

@@ -327,9 +327,6 @@ def _build(data: dict, source: str) -> Unit:
     steam = r.table("steam")
     supply = r.quantity(steam, "steam", "supply_pressure", q.pressure).absolute(atm)
     _absolute_positive("steam.supply_pressure", supply, steam["supply_pressure"])
-    if supply > 0.9 * CRITICAL_PRESSURE:
-        raise InputError("steam.supply_pressure", f"\"{steam['supply_pressure']}\" is near or above the critical "
-                                                  f"pressure of water (22.06 MPa); check the units.")
     if supply <= design.steam_pressure:
         raise InputError("steam.supply_pressure",
                          f"\"{steam['supply_pressure']}\" is not above the design coil pressure "
@@ -349,10 +346,26 @@ def _build(data: dict, source: str) -> Unit:
                 system=system, defaults=tuple(r.defaults), warnings=tuple(r.warnings))
 
 
+#: Lowest absolute pressure of any steam or condensate state [Pa]: the triple point of
+#: water, 611.657 Pa (IAPWS-IF97).
+TRIPLE_POINT_PRESSURE = 611.657
+#: Coldest entering air taken [K]: -70 °C, below the coldest outdoor air where plant is
+#: built (from memory: about -68 °C on record in inhabited places).
+COLDEST_AIR = 203.15
+
+
 def _absolute_positive(key: str, value: float, text) -> None:
+    """A pressure of steam or condensate: above absolute zero, at or above the triple
+    point of water, and below 90 % of its critical pressure (IAPWS-IF97)."""
     if value <= 0:
         raise InputError(key, f"\"{text}\" is at or below absolute zero pressure; "
                               "check the gauge/absolute spelling and the sign.")
+    if value < TRIPLE_POINT_PRESSURE:
+        raise InputError(key, f"\"{text}\" is below the triple point of water (0.61 kPa(abs), 0.089 psia): no "
+                              f"steam or condensate exists there. Check the gauge/absolute spelling and the sign.")
+    if value > 0.9 * CRITICAL_PRESSURE:
+        raise InputError(key, f"\"{text}\" is near or above the critical pressure of water (22.06 MPa, "
+                              f"IAPWS-IF97); accepted: below 19.9 MPa. Check the units.")
 
 
 def _site(r: _Reader) -> Site:
@@ -429,9 +442,13 @@ def _design(r: _Reader, atm: float) -> Design:
         raise InputError("design.outlet_temperature",
                          f"\"{d['outlet_temperature']}\" is not above the inlet temperature "
                          f"\"{d['inlet_temperature']}\"; a steam coil heats, so the set point must be higher.")
-    if medium != "air" and t_in <= 273.15:
+    if medium == "water" and t_in <= 273.15:
         raise InputError("design.inlet_temperature",
-                         f"\"{d['inlet_temperature']}\" is at or below freezing for a liquid; accepted: above 0 °C.")
+                         f"\"{d['inlet_temperature']}\" is at or below freezing for water; accepted: above 0 °C.")
+    if medium == "air" and t_in < COLDEST_AIR:
+        raise InputError("design.inlet_temperature",
+                         f"\"{d['inlet_temperature']}\" is colder than any outdoor air a coil meets; accepted: "
+                         f"-70 °C (-94 °F) and warmer.")
     p = r.quantity(d, "design", "steam_pressure", q.pressure).absolute(atm)
     _absolute_positive("design.steam_pressure", p, d["steam_pressure"])
     if p > 2.0e6:
@@ -480,6 +497,10 @@ def _load(r: _Reader, design: Design) -> Load:
                 raise InputError(f"{section}.inlet_temperature",
                                  "is required: bins are by entering temperature where load.varies = \"inlet-temperature\".")
             t = r.quantity(b, section, "inlet_temperature", q.temperature)
+            if t < COLDEST_AIR:
+                raise InputError(f"{section}.inlet_temperature",
+                                 f"\"{b['inlet_temperature']}\" is colder than any outdoor air a coil meets; "
+                                 f"accepted: -70 °C (-94 °F) and warmer.")
             bins.append(LoadBin(hours=hours, inlet_temperature=t))
         else:
             if "load" not in b:

@@ -110,3 +110,36 @@ def test_commands_never_change_their_input_files(tmp_path):
         runner.invoke(app, ["diagnose", str(copy), "--no-ask", "--load", "0.5"])
     runner.invoke(app, ["survey", str(tmp_path), "--csv", str(tmp_path / "out.csv")])
     assert {p: p.read_bytes() for p in copies} == before
+
+
+def test_glycol_freezes_by_its_concentration():
+    # 40 % propylene glycol by mass freezes near -21 °C (ASHRAE Handbook - Fundamentals,
+    # glycol tables; from memory), so it may enter at -10 °C; at -25 °C it is refused
+    # with the key named.
+    from stallcheck.errors import InputError
+
+    text = """
+format = 1
+[unit]
+name = "Glycol test"
+[design]
+medium = "propylene-glycol"
+concentration = "40 %"
+flow = "10 m3/h"
+inlet_temperature = "{t}"
+outlet_temperature = "40 degC"
+steam_pressure = "1 barg"
+[steam]
+supply_pressure = "3 barg"
+[load]
+varies = "flow"
+[drain]
+arrangement = "trap"
+fill_head = "0.5 m"
+"""
+    r = analysis.analyse(unitfile.parse(text.format(t="-10 degC"), "glycol.toml"))
+    assert r.design.load > 0
+    with pytest.raises(InputError, match="freezing point of 40% propylene-glycol") as err:
+        analysis.analyse(unitfile.parse(text.format(t="-25 degC"), "glycol.toml"))
+    assert err.value.key == "design.inlet_temperature"
+    assert "-21 °C" in str(err.value)
