@@ -55,13 +55,14 @@ def _fail(message: str) -> None:
     raise typer.Exit(2)
 
 
-def _run(path: Path, units: Optional[Units], method: Optional[Method]):
+def _run(path: Path, units: Optional[Units], method: Optional[Method], warn: bool = True):
     """Load and analyse a unit; input errors become one message and exit 2."""
-    return _load(path, units, method)[1]
+    return _load(path, units, method, warn)[1]
 
 
-def _load(path: Path, units: Optional[Units], method: Optional[Method]):
-    """The unit and its result (see :func:`_run`)."""
+def _load(path: Path, units: Optional[Units], method: Optional[Method], warn: bool = True):
+    """The unit and its result (see :func:`_run`); the file's input warnings go to
+    stderr unless ``warn`` is false (``check`` prints them in its report)."""
     from stallcheck import unitfile
 
     try:
@@ -75,6 +76,9 @@ def _load(path: Path, units: Optional[Units], method: Optional[Method]):
         _fail(str(exc if exc.file else exc.in_file(str(path))))
     except StallcheckError as exc:
         _fail(f"{path}: {exc}")
+    if warn:
+        for warning in result.warnings:
+            typer.echo(f"stallcheck: {result.source}: {warning}", err=True)
     return unit, result
 
 
@@ -101,7 +105,7 @@ def check(unit: Path = UNIT_ARG, units: Optional[Units] = UNITS_OPT,
     Exit status 0: drains at every load it runs at, nothing at warning or above;
     1: drainage not adequate or a warning; 2: bad input.
     """
-    _show_check(_run(unit, units, method), json)
+    _show_check(_run(unit, units, method, warn=False), json)
 
 
 @app.command()
@@ -345,6 +349,9 @@ def survey(paths: list[Path] = typer.Argument(..., help="Unit files, folders of 
             sys.stdout.write(show.plain(summaries, failures, system, width=out.width))
     for failure in failures:
         typer.echo(f"stallcheck: {failure.message}", err=True)
+    for summary in summaries:
+        for warning in summary.warnings:
+            typer.echo(f"stallcheck: {summary.source}: {warning}", err=True)
     if csv is not None:
         from stallcheck.render import survey as show
 

@@ -124,13 +124,23 @@ def rows(path: str | Path) -> Iterator[tuple[int, dict | InputError]]:
     except StopIteration:
         raise InputError("", "is empty; a CSV of units needs a header row of dotted keys.", file=source) from None
     columns = _columns(header, source)
+    units = 0
+    end = reader.line_num
     for record in reader:
-        line = reader.line_num
+        line = end + 1  # where the record starts, not where it ends
+        end = reader.line_num
         if not any(cell.strip() for cell in record):
             continue
-        if len(record) > len(columns):
-            yield line, InputError("", f"has {len(record)} cells but the header names {len(columns)} columns.",
-                                   file=source, line=line)
+        units += 1
+        if end > line or any("\n" in cell or "\r" in cell for cell in record):
+            what = ("a quoted cell is not closed: every later line was read into it"
+                    if end == reader.line_num and _unclosed(text) else "a cell runs over more than one line")
+            yield line, InputError("", f"{what}; close each quoted cell on its own line.", file=source, line=line)
+            continue
+        if len(record) != len(columns):
+            yield line, InputError("", f"has {len(record)} cells but the header names {len(columns)} columns; a "
+                                       f"missing cell would silently take its default. Leave a cell empty with "
+                                       f"an empty field between commas.", file=source, line=line)
             continue
         data: dict = {"format": 1}
         try:
@@ -147,6 +157,13 @@ def rows(path: str | Path) -> Iterator[tuple[int, dict | InputError]]:
             yield line, exc
             continue
         yield line, data
+    if units == 0:
+        raise InputError("", "has a header but no units; give one unit per row below the header.", file=source)
+
+
+def _unclosed(text: str) -> bool:
+    """True where the text ends inside a quoted cell (an odd number of quotes)."""
+    return text.count('"') % 2 == 1
 
 
 def count(path: str | Path) -> int:

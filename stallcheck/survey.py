@@ -43,6 +43,8 @@ class Summary:
     top_code, top_severity, top_message : str or None
         The worst finding.
     exit_status : int
+    warnings : tuple of str
+        The unit file's input warnings (shown on stderr).
     """
 
     source: str
@@ -59,6 +61,7 @@ class Summary:
     top_severity: str | None
     top_message: str | None
     exit_status: int
+    warnings: tuple[str, ...] = ()
 
     @classmethod
     def of(cls, r: Result) -> "Summary":
@@ -67,7 +70,7 @@ class Summary:
         return cls(r.source, r.unit, r.tag, r.system, s.load_fraction if s.occurs else None,
                    s.inlet_temperature if s.occurs else None, r.drainage.required, r.drainage.installed,
                    r.drainage.adequate, r.stalled_hours, top.code if top else None,
-                   top.severity if top else None, top.message if top else None, r.exit_status)
+                   top.severity if top else None, top.message if top else None, r.exit_status, r.warnings)
 
     def badness(self) -> tuple:
         """Sort key, worst first: failing units, then the worst finding, inadequate

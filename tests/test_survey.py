@@ -192,3 +192,27 @@ def test_input_files_are_never_modified(tmp_path):
     before = {p: p.read_bytes() for p in folder.rglob("*") if p.is_file()}
     runner.invoke(app, ["survey", str(folder), "--csv", str(tmp_path / "out.csv")])
     assert {p: p.read_bytes() for p in folder.rglob("*") if p.is_file()} == before
+
+
+def test_csv_rows_that_would_take_defaults_silently_are_refused(tmp_path):
+    # A row with too few cells would leave the rest at their defaults (a unit that
+    # stalls reported fine); a header alone has no units; an unclosed quote would
+    # swallow every later row. Each is bad input named with the line the record starts on.
+    from typer.testing import CliRunner
+    from stallcheck.cli import app
+
+    runner = CliRunner()
+    sample = (ROOT / "sample_units" / "ashgrove_campus_survey.csv").read_text(encoding="utf-8").splitlines()
+    header, first, second = sample[0], sample[1], sample[2]
+    short = tmp_path / "short.csv"
+    short.write_text("\n".join([header, first, ",".join(second.split(",")[:8])]) + "\n", encoding="utf-8")
+    result = runner.invoke(app, ["survey", str(short)])
+    assert result.exit_code == 2 and "line 3" in result.stderr and "cells but the header names" in result.stderr
+    empty = tmp_path / "empty.csv"
+    empty.write_text(header + "\n\n", encoding="utf-8")
+    result = runner.invoke(app, ["survey", str(empty)])
+    assert result.exit_code == 2 and "no units" in result.stderr
+    unclosed = tmp_path / "unclosed.csv"
+    unclosed.write_text("\n".join([header, '"' + first, second, second]) + "\n", encoding="utf-8")
+    result = runner.invoke(app, ["survey", str(unclosed)])
+    assert result.exit_code == 2 and "line 2" in result.stderr and "not closed" in result.stderr
