@@ -86,7 +86,7 @@ def solve(b, p_min, adequate, systems) -> list[tuple[Remedy, ...]]:
         if u.drain.arrangement == "pump-trap":
             out.append(())
             continue
-        words = _Words(u, systems[i], bool(adequate[i]), float(p_min[i]))
+        words = _Words(u, systems[i], bool(adequate[i]))
         out.append((words.lift(float(lift[i])), words.return_pressure(float(r[i])),
                     words.trap(float(dp[i]), float(b.back[i] - b.fill[i])), words.fill(float(fill[i])),
                     words.design(design_t[i], float(b.threshold[i]), float(target[i]) + MARGIN > p_min[i])))
@@ -119,12 +119,11 @@ def _design_temperatures(b) -> list:
 class _Words:
     """Builds one unit's remedies: the safe rounding of each figure and its note."""
 
-    def __init__(self, unit: Unit, system: str, adequate: bool, p_min: float):
+    def __init__(self, unit: Unit, system: str, adequate: bool):
         self.unit = unit
         self.system = system
         self.atm = unit.site.atmospheric_pressure
         self.adequate = adequate
-        self.p_min = p_min
         f_min = unit.load.minimum
         self.down_to = f"down to {f_min:.0%} load" if f_min > 0 else "at every load"
         self.status = "margin" if adequate else "change"
