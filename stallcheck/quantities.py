@@ -41,7 +41,9 @@ STANDARD_AIR_DENSITY = 1.204
 # parsed unit tells which was written.
 _GAUGE = {"psig": "psi", "barg": "bar", "kPag": "kPa"}
 _ABSOLUTE = {"psia": "psi", "bara": "bar", "kPaa": "kPa"}
-_SPELLINGS = {"kPa(g)": "kPag", "kPa(abs)": "kPaa", "kpa(g)": "kPag", "kpa(abs)": "kPaa"}
+_SPELLINGS = {"kPa(g)": "kPag", "kPa(abs)": "kPaa", "kpa(g)": "kPag", "kpa(abs)": "kPaa", "kPa(a)": "kPaa",
+              "kpa(a)": "kPaa", "bar(g)": "barg", "bar(a)": "bara", "bar(abs)": "bara", "psi(g)": "psig",
+              "psi(a)": "psia"}
 #: Unit spellings that mark a file as written in US customary units.
 _US_UNITS = {"psig", "psia", "psi", "degF", "in", "ft", "lb/h", "cfm", "gpm", "inH2O"}
 
@@ -281,7 +283,7 @@ def _magnitude(key: str, text: str, q: _Parsed, si: str) -> float:
     return value
 
 
-def pressure(key: str, text) -> Pressure:
+def pressure(key: str, text, absolute_only: bool = False) -> Pressure:
     """Parse a gauge or absolute pressure.
 
     Parameters
@@ -290,21 +292,42 @@ def pressure(key: str, text) -> Pressure:
         Dotted unit-file key, for messages.
     text : str
         ``"<number> <unit>"`` with one of psig psia barg bara kPag kPaa kPa(g) kPa(abs).
+    absolute_only : bool
+        The key takes absolute pressures only: hints offer only those spellings.
 
     Returns
     -------
     Pressure
         Value in Pa and whether it was gauge.
     """
-    accepted = "psig, psia, barg, bara, kPag, kPaa, kPa(g), kPa(abs)"
+    accepted = "psia, bara, kPaa, kPa(abs)" if absolute_only else \
+        "psig, psia, barg, bara, kPag, kPaa, kPa(g), kPa(abs)"
     q, unit = _quantity(key, text, "Pa", "15 psig", accepted)
     if unit not in _GAUGE and unit not in _ABSOLUTE:
-        number, written = _split(key, text, "15 psig")
-        base = {"bar": "bar", "kilopascal": "kPa"}.get(unit, "psi")
-        raise InputError(key, f"'{text}' does not say gauge or absolute; write "
-                              f"\"{number:g} {base}g\" (gauge) or \"{number:g} {base}a\" (absolute); accepted: "
-                              f"{accepted}.")
+        raise InputError(key, _gauge_hint(key, text, unit, absolute_only, accepted))
     return Pressure(_magnitude(key, text, q, "Pa"), unit in _GAUGE)
+
+
+def _gauge_hint(key: str, text: str, unit: str, absolute_only: bool, accepted: str) -> str:
+    """What to write for a pressure that says neither gauge nor absolute: the user's
+    own psi, bar or kPa with g or a added; any other pressure unit converted to kPa."""
+    number, _ = _split(key, text, "15 psig")
+    base = {"pound_force_per_square_inch": "psi", "bar": "bar", "kilopascal": "kPa"}.get(unit)
+    mercury = "Hg" in unit or "mercury" in unit
+    if base is None:  # another pressure unit: in psi where it is an inch unit, else kPa
+        base = "psi" if "inch" in unit else "kPa"
+        offset, scale = _line(unit, "psi" if base == "psi" else "kPa")
+        number = offset + scale * number
+    figure = f"{number:.4g}"
+    gauge = f"\"{figure} {base}g\" (gauge)"
+    absolute = f"\"{figure} {base}a\" (absolute)"
+    if absolute_only:
+        offer = f"write {absolute}"
+    else:
+        offer = f"write {gauge} or {absolute}"
+    vacuum = (" A vacuum gauge's reading is a gauge pressure below zero: "
+              f"\"-{abs(float(figure)):g} {base}g\"." if mercury and not absolute_only else "")
+    return f"'{text}' does not say gauge or absolute; {offer}; accepted: {accepted}.{vacuum}"
 
 
 #: Units a vacuum or compound gauge reads in, below atmospheric (``"10 inHg vacuum"``).

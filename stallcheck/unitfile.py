@@ -403,7 +403,7 @@ def _where(r: _Reader, site: dict | None) -> Site:
         raise InputError("site", "give either elevation or atmospheric_pressure, not both.")
     if "atmospheric_pressure" in site:
         r.vote(site["atmospheric_pressure"])
-        p = q.pressure("site.atmospheric_pressure", site["atmospheric_pressure"])
+        p = q.pressure("site.atmospheric_pressure", site["atmospheric_pressure"], absolute_only=True)
         if p.gauge:
             raise InputError("site.atmospheric_pressure", "is an absolute pressure; write it in psia, bara or kPaa.")
         if not 30e3 <= p.pascal <= 110e3:

@@ -163,3 +163,31 @@ def test_kept_answers_convert_as_pint_does(tmp_path, monkeypatch):
     assert reread._load() == json.loads(json.dumps(fresh.data))
     assert reread._load()
 
+
+
+@pytest.mark.parametrize("text, absolute_only, own", [
+    ("0.2 MPa", False, "kPa"), ("5 inHg", False, "psi"), ("14.7 psi", True, "psi"), ("3 bar", False, "bar"),
+    ("250 kPa", False, "kPa"), ("1 atm", True, "kPa"),
+])
+def test_a_pressure_hint_is_accepted_when_followed(text, absolute_only, own):
+    # A hint keeps the user's own psi, bar or kPa (other units converted) and offers only
+    # spellings the key accepts: each suggestion, typed back, parses.
+    import re
+    from stallcheck import quantities
+
+    with pytest.raises(InputError) as err:
+        quantities.pressure("site.atmospheric_pressure" if absolute_only else "drain.return_pressure", text,
+                            absolute_only=absolute_only)
+    offered = re.findall(r'"(-?[\d.]+ \w+)"', err.value.message)
+    assert offered
+    for suggestion in offered:
+        assert suggestion.split()[1].startswith(own)
+        parsed = quantities.pressure("k", suggestion, absolute_only=absolute_only)
+        assert not (absolute_only and parsed.gauge)
+
+
+def test_pressure_spellings_with_brackets_are_read():
+    from stallcheck import quantities
+
+    assert quantities.pressure("k", "101 kPa(a)") == quantities.pressure("k", "101 kPaa")
+    assert quantities.pressure("k", "2 bar(g)") == quantities.pressure("k", "2 barg")
