@@ -36,6 +36,9 @@ def write_new(path: str | Path, text: str | bytes, option: str, force: bool = Fa
     except OSError as exc:
         raise InputError(option, f"cannot write in {path.parent} ({exc.strerror or exc}).", file=str(path)) from None
     try:
+        # mkstemp makes the file private (0600); a file written for others gets the
+        # permissions any new file of the user's would (0666 less the umask)
+        os.chmod(temporary, 0o666 & ~_umask())
         binary = isinstance(text, bytes)
         with (os.fdopen(handle, "wb") if binary else os.fdopen(handle, "w", encoding="utf-8", newline="")) as out:
             out.write(text)
@@ -51,6 +54,13 @@ def write_new(path: str | Path, text: str | bytes, option: str, force: bool = Fa
             raise InputError(option, f"could not be written ({exc.strerror or exc}); nothing was changed.",
                              file=str(path)) from None
         raise
+
+
+def _umask() -> int:
+    """The process's umask (read by setting it and setting it back)."""
+    mask = os.umask(0o022)
+    os.umask(mask)
+    return mask
 
 
 def check_target(path: str | Path, option: str, force: bool = False) -> None:

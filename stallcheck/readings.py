@@ -12,6 +12,7 @@ from dataclasses import dataclass
 from stallcheck import quantities as q
 from stallcheck.errors import InputError
 from stallcheck.inputs import Unit
+from stallcheck.unitfile import COLDEST_AIR, check_pressure_range
 
 #: When the noise happens.
 NOISE = ("start-up", "low-load", "mild-weather", "valve-opens", "all-the-time", "none")
@@ -54,9 +55,8 @@ def _pressure(option: str, text, atm: float) -> float | None:
     if text is None or str(text).strip() == "":
         return None
     value = q.gauge_reading(option, str(text), atm)
-    if value <= 0:
-        raise InputError(option, f"\"{text}\" is at or below absolute zero pressure; check the gauge/absolute "
-                                 f"spelling and the sign.")
+    # the same physical range as the unit file's pressures (the steam tables' own)
+    check_pressure_range(option, value, text)
     return value
 
 
@@ -64,8 +64,9 @@ def _temperature(option: str, text) -> float | None:
     if text is None or str(text).strip() == "":
         return None
     value = q.temperature(option, str(text))
-    if value <= 0:
-        raise InputError(option, f"\"{text}\" is below absolute zero.")
+    if value < COLDEST_AIR:
+        raise InputError(option, f"\"{text}\" is colder than any air or water a steam unit meets; accepted: "
+                                 f"-70 °C (-94 °F) and warmer.")
     return value
 
 

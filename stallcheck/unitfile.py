@@ -326,7 +326,7 @@ def _build(data: dict, source: str) -> Unit:
     design = _design(r, atm)
     steam = r.table("steam")
     supply = r.quantity(steam, "steam", "supply_pressure", q.pressure).absolute(atm)
-    _absolute_positive("steam.supply_pressure", supply, steam["supply_pressure"])
+    check_pressure_range("steam.supply_pressure", supply, steam["supply_pressure"])
     if supply <= design.steam_pressure:
         raise InputError("steam.supply_pressure",
                          f"\"{steam['supply_pressure']}\" is not above the design coil pressure "
@@ -354,7 +354,7 @@ TRIPLE_POINT_PRESSURE = 611.657
 COLDEST_AIR = 203.15
 
 
-def _absolute_positive(key: str, value: float, text) -> None:
+def check_pressure_range(key: str, value: float, text) -> None:
     """A pressure of steam or condensate: above absolute zero, at or above the triple
     point of water, and below 90 % of its critical pressure (IAPWS-IF97)."""
     if value <= 0:
@@ -450,7 +450,7 @@ def _design(r: _Reader, atm: float) -> Design:
                          f"\"{d['inlet_temperature']}\" is colder than any outdoor air a coil meets; accepted: "
                          f"-70 °C (-94 °F) and warmer.")
     p = r.quantity(d, "design", "steam_pressure", q.pressure).absolute(atm)
-    _absolute_positive("design.steam_pressure", p, d["steam_pressure"])
+    check_pressure_range("design.steam_pressure", p, d["steam_pressure"])
     if p > 2.0e6:
         raise InputError("design.steam_pressure", f"\"{d['steam_pressure']}\" is above 2 MPa (about 275 psig); "
                                                   "coils on modulating valves run far lower. Check the units.")
@@ -522,7 +522,7 @@ def _drain(r: _Reader, atm: float) -> Drain:
         if value > 100:
             raise InputError(key, "is over 100 m; check the units.")
     ret = r.quantity(d, "drain", "return_pressure", q.pressure, default="0 psig").absolute(atm)
-    _absolute_positive("drain.return_pressure", ret, d.get("return_pressure"))
+    check_pressure_range("drain.return_pressure", ret, d.get("return_pressure"))
     dpmin = r.quantity(d, "drain", "trap_min_differential", q.differential, default="0 psi")
     if dpmin < 0:
         raise InputError("drain.trap_min_differential", "cannot be negative.")
@@ -578,7 +578,7 @@ def _drain_devices(r: _Reader, d: dict, atm: float) -> dict:
     motive = r.optional(d, "drain", "motive_pressure", q.pressure)
     if motive is not None:
         out["motive_pressure"] = motive.absolute(atm)
-        _absolute_positive("drain.motive_pressure", out["motive_pressure"], d["motive_pressure"])
+        check_pressure_range("drain.motive_pressure", out["motive_pressure"], d["motive_pressure"])
     t = r.optional(d, "drain", "return_temperature", q.temperature)
     if t is not None:
         if not 273.15 <= t <= 473.15:
@@ -598,7 +598,7 @@ def _pump_table(r: _Reader, rows, atm: float) -> tuple:
         section = f"drain.pump_capacity[{i}]"
         r.unknown(row, "drain.pump_capacity")
         back = r.quantity(row, section, "back_pressure", q.pressure).absolute(atm)
-        _absolute_positive(f"{section}.back_pressure", back, row.get("back_pressure"))
+        check_pressure_range(f"{section}.back_pressure", back, row.get("back_pressure"))
         flow = r.quantity(row, section, "flow", q.mass_flow)
         _require_positive(f"{section}.flow", flow)
         table.append((back, flow))
