@@ -172,28 +172,12 @@ def orifice_capacity(diameter, inlet_pressure, outlet_pressure,
                                  discharge_coefficient=discharge_coefficient)
 
 
-def table_capacity(differential, table_differential, table_flow):
-    """Capacity read from a maker's rated table [kg/s].
+def table_capacity_rows(differential, table_differential, table_flow):
+    """Capacity read from makers' rated tables, one table per row [kg/s].
 
     Between rows: straight lines on log–log axes. Below the lowest rated differential:
     the lowest row's flow scaled as √(Δp/Δp_lowest) (orifice flow). Above the highest:
     held at the highest row's flow, never extrapolated upward.
-
-    Parameters
-    ----------
-    differential : float or ndarray
-        Differential across the device. [Pa]
-    table_differential, table_flow : sequence of float
-        Rated rows, differentials increasing. [Pa], [kg/s]
-    """
-    dp = np.asarray(differential, dtype=float)
-    rows = table_capacity_rows(dp.reshape(1, -1), np.asarray(table_differential, dtype=float)[None, :],
-                               np.asarray(table_flow, dtype=float)[None, :])
-    return rows.reshape(dp.shape)
-
-
-def table_capacity_rows(differential, table_differential, table_flow):
-    """:func:`table_capacity` for many devices at once, one table per row [kg/s].
 
     Parameters
     ----------

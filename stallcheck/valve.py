@@ -98,11 +98,3 @@ def travel(cv_ratio, characteristic, rangeability):
         h = 1.0 + np.log(r) / np.log(rangeability)
     equal = np.where(r <= 1.0 / rangeability, 0.0, h)
     return np.where(np.asarray(characteristic) == "linear", r, equal)
-
-
-def cv_fraction(travel_, characteristic: str, rangeability: float):
-    """Fraction of full Cv at a travel h [-] (inherent characteristic)."""
-    h = np.asarray(travel_, dtype=float)
-    if characteristic == "linear":
-        return h
-    return np.power(rangeability, h - 1.0)

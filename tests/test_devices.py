@@ -79,7 +79,7 @@ def test_capacity_table_reading_by_hand():
     # 0.25 psi → 900·√0.25 = 450 lb/h; above it, held at 1800 lb/h.
     dp = [1 * PSI, 4 * PSI]
     w = [900 * LB_H, 1800 * LB_H]
-    got = traps.table_capacity(np.array([2, 0.25, 10, 0]) * PSI, dp, w) / LB_H
+    got = traps.table_capacity_rows(np.array([[2, 0.25, 10, 0]]) * PSI, np.array([dp]), np.array([w]))[0] / LB_H
     assert got == pytest.approx([900 * math.sqrt(2), 450, 1800, 0], rel=1e-9)
 
 

