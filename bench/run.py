@@ -34,6 +34,7 @@ from pathlib import Path
 ROOT = Path(__file__).resolve().parent.parent
 SAMPLE = ROOT / "sample_units" / "us_outdoor_air_preheat.toml"
 WATER = ROOT / "sample_units" / "si_water_heater.toml"
+BAD = ROOT / "tests" / "bad_units" / "64_return_hotter_than_boiling.toml"  # refused after the steam tables
 ENV = dict(os.environ, NO_COLOR="1")
 # Measure the program as installed, with its modules compiled once: some machines set
 # this to keep source folders clean, which would make every run recompile them.
@@ -100,7 +101,7 @@ def to_csv(units: list[dict]) -> str:
 
 
 #: Targets (issue: a check in a third of a second): ratio to the floor, ms per unit.
-TARGETS = {"--help": 3.5, "check": 1.5, "survey CSV": 0.15, "survey TOML": 0.4}
+TARGETS = {"--help": 3.5, "check": 1.5, "refusal": 1.5, "survey CSV": 0.15, "survey TOML": 0.4}
 
 
 def verdict(value: float, target: float) -> str:
@@ -125,6 +126,8 @@ def ratios(repeat: int) -> None:
         ("check, steam and air", [py, "-m", "stallcheck", "check", str(SAMPLE)], "numpy+typer+rich", floor, "check"),
         ("check, steam and water", [py, "-m", "stallcheck", "check", str(WATER)], "numpy+typer+rich", floor,
          "check"),
+        ("refusal of a bad file", [py, "-m", "stallcheck", "check", str(BAD)], "numpy+typer+rich", floor,
+         "refusal"),
     ]
     for name, cmd, floor_name, floor, target in pairs:
         run(cmd), run(floor)  # warm-up: compiled modules and the units cache in place

@@ -174,3 +174,43 @@ def test_a_units_cache_of_the_wrong_shape_is_not_trusted(tmp_path, write_unit):
                          text=True)
     assert run.returncode in (0, 1), run.stderr
     assert "Traceback" not in run.stderr
+
+
+def test_a_folder_that_cannot_be_searched_is_named_not_a_traceback(tmp_path, monkeypatch):
+    # Permission is simulated (the tests may run as a user who can read anything): the
+    # walk meets a sub-folder it cannot list, as os.walk reports it.
+    import os as os_module
+    from stallcheck import survey
+
+    (tmp_path / "good.toml").write_text(BASE_UNIT, encoding="utf-8")
+    locked = tmp_path / "locked"
+    locked.mkdir()
+    real_walk = os_module.walk
+
+    def walk(top, onerror=None, **kw):
+        if "locked" in str(top):  # os.walk cannot list it: it tells onerror and yields nothing
+            onerror(PermissionError(13, "Permission denied", str(top)))
+            return
+        for root, folders, files in real_walk(top, onerror=onerror, **kw):
+            if "locked" in folders:
+                folders.remove("locked")
+                onerror(PermissionError(13, "Permission denied", str(locked)))
+            yield root, folders, files
+
+    monkeypatch.setattr(survey.os, "walk", walk)
+    monkeypatch.setattr("stallcheck.unitfile.os.access", lambda path, mode: "locked" not in str(path))
+    result = runner.invoke(app, ["survey", str(tmp_path)])
+    assert result.exit_code == 2 and "Traceback" not in result.output
+    assert f"{locked}: is a folder that cannot be read (permission denied)" in result.stderr
+    assert "Test coil" in result.stdout
+
+
+def test_input_warnings_reach_every_command(write_unit, tmp_path):
+    text = BASE_UNIT.replace('medium = "air"', 'medium = "air"\nconcentration = "30 %"')
+    path = write_unit(text)
+    for command in (["chart", str(path)], ["survey", str(path)], ["check", str(path), "--json"],
+                    ["report", str(path), "-o", str(tmp_path / "r.md")],
+                    ["diagnose", str(path), "--no-ask", "--load", "0.5"]):
+        result = runner.invoke(app, command)
+        assert result.exit_code in (0, 1), command
+        assert "design.concentration ignored" in result.stderr, command
