@@ -117,6 +117,10 @@ def chart(unit: Path = UNIT_ARG, units: Optional[Units] = UNITS_OPT,
     from stallcheck.render import terminal
 
     result = _run(unit, units, method)
+    if x is not None and x.value == "inlet" and result.varies != "inlet-temperature":
+        _fail(f"{unit}, option '--x': inlet needs a unit whose load follows its entering temperature "
+              f"(load.varies = \"inlet-temperature\"); this one's load varies with {result.varies}. Accepted "
+              f"here: load.")
     axis = x.value if x else ("inlet" if result.varies == "inlet-temperature" else "load")
     out = terminal.console()
     terminal.emit(out, terminal.chart_text(result, result.system, width=out.width - 2, x_axis=axis))

@@ -217,7 +217,7 @@ def _devices(unit: Unit, r: Result, system: str) -> list[Finding]:
                 "return-velocity-high", "warning",
                 f"Flash steam ({fl.fraction:.1%} of the condensate at full load) moves at "
                 f"{q.show(fl.velocity, 'velocity', system)} in the {q.show(fl.line_diameter, 'diameter', system)} "
-                f"return line, above about {q.show(VELOCITY_LIMIT, 'velocity', system)} (common practice): it can "
+                f"return line, above about {q.show_about(VELOCITY_LIMIT, 'velocity', system)} (common practice): it can "
                 f"drive condensate waves into slugs that hammer. Enlarge the line or flash the condensate "
                 f"in a vented receiver first."))
         if (fl.return_temperature is not None and fl.fraction > 0

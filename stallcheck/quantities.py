@@ -587,6 +587,14 @@ def show(value: float | None, kind: str, system: str, atmospheric: float = STAND
     return f"{text} {label(kind, system)}"
 
 
+def show_about(value: float, kind: str, system: str) -> str:
+    """A limit of practice (a velocity, say) as practitioners quote it: converted, then
+    rounded to the nearest 5 above 20 (15 m/s is "about 50 ft/s", not 49)."""
+    number = convert(value, kind, system)
+    number = round(number / 5.0) * 5.0 if abs(number) > 20 else round(number)
+    return f"{number:,.0f} {label(kind, system)}"
+
+
 # --- the JSON contract's units ------------------------------------------------------
 # The result contract is SI with fixed units: kPa absolute, °C, kg/h, kW. These are
 # exact scale factors, kept here with the other conversions.

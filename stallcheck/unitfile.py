@@ -53,6 +53,14 @@ _KNOWN = {
 }
 
 
+#: Defaults as an SI file states them (the same zero values).
+_SI_DEFAULTS = {
+    'drain.fill_head = "0 in" (not given)': 'drain.fill_head = "0 m" (not given)',
+    'drain.lift = "0 ft" (not given)': 'drain.lift = "0 m" (not given)',
+    'drain.return_pressure = "0 psig" (not given)': 'drain.return_pressure = "0 barg" (not given)',
+    'drain.trap_min_differential = "0 psi" (not given)': 'drain.trap_min_differential = "0 kPa" (not given)',
+}
+
 #: tomllib's messages, in plainer words where they puzzle.
 _TOML_WORDS = {
     "Cannot overwrite a value": "a key or table is given twice",
@@ -337,6 +345,8 @@ def _build(data: dict, source: str) -> Unit:
     drain = _drain(r, atm)
     geometry = _geometry(r)
     system = "us" if r.us_votes > r.si_votes else "si"
+    if system == "si":  # defaults stated in the file's own units
+        r.defaults = [_SI_DEFAULTS.get(text, text) for text in r.defaults]
     if site.steam_price is not None and site.steam_price_per is None:
         per = "1000 lb" if system == "us" else "1 t"
         site = replace(site, steam_price_per=q.mass("site.steam_price_per", per))

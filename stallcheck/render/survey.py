@@ -33,8 +33,10 @@ def _rows(summaries: list[Summary], system: str | None):
     """Each unit's two lines: the figures, then the details (name, what is installed
     where it differs, the worst finding)."""
     yield Text(" ".join(_cell(h, w, r) for h, w, r in COLUMNS), style="bold"), None
+    # one column, one unit: the units most of the files are written in, unless --units
+    systems = [s.system for s in summaries]
+    sys_ = system or max(("us", "si"), key=systems.count)
     for s in summaries:
-        sys_ = system or s.system
         stall = "never" if s.stall_fraction is None else (
             "all loads" if s.stall_fraction >= 1.0 else f"<{s.stall_fraction:.0%}")
         inlet = "" if s.stall_inlet_temperature is None else q.show(s.stall_inlet_temperature, "temperature", sys_)

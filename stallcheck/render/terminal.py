@@ -263,7 +263,7 @@ def _devices(r: Result, system: str) -> list:
             from stallcheck.flash import VELOCITY_LIMIT
             parts.append(_para(f"return line {q.show(fl.line_diameter, 'diameter', system)} bore: "
                                f"{q.show(fl.velocity, 'velocity', system)} (keep under about "
-                               f"{q.show(VELOCITY_LIMIT, 'velocity', system)})"))
+                               f"{q.show_about(VELOCITY_LIMIT, 'velocity', system)})"))
         parts.append(Text(""))
     return parts
 
