@@ -10,6 +10,7 @@ a supply above the coil pressure) as it is given.
 
 from __future__ import annotations
 
+import re
 from dataclasses import dataclass, field
 from typing import Callable
 
@@ -102,16 +103,73 @@ def asked(answers: dict) -> list[Question]:
     return [x for x in QUESTIONS if x.when(answers)]
 
 
+#: Choices as engineers type them (compared without case), and the unit-file word.
+CHOICE_WORDS = {
+    "f&t": "float-thermostatic", "ft": "float-thermostatic", "f & t": "float-thermostatic",
+    "float and thermostatic": "float-thermostatic", "float thermostatic": "float-thermostatic",
+    "ib": "inverted-bucket", "inverted bucket": "inverted-bucket", "td": "thermodynamic", "disc": "thermodynamic",
+    "equal percentage": "equal-percentage", "eq%": "equal-percentage", "=%": "equal-percentage",
+    "vacuum breaker": "trap-vacuum-breaker", "trap and vacuum breaker": "trap-vacuum-breaker",
+    "pump trap": "pump-trap", "constant purge": "constant-purge", "purge": "constant-purge",
+    "pg": "propylene-glycol", "propylene glycol": "propylene-glycol", "eg": "ethylene-glycol",
+    "ethylene glycol": "ethylene-glycol",
+}
+#: Unit spellings as engineers type them (compared without case), by question kind.
+UNIT_WORDS = {
+    "temperature": {"c": "degC", "°c": "degC", "degc": "degC", "deg c": "degC", "deg. c": "degC", "celsius": "degC",
+                    "f": "degF", "°f": "degF", "degf": "degF", "deg f": "degF", "deg. f": "degF",
+                    "fahrenheit": "degF", "k": "K"},
+    "flow": {"cfm": "cfm", "scfm": "cfm", "gpm": "gpm", "lb/h": "lb/h", "lb/hr": "lb/h", "pph": "lb/h",
+             "kg/h": "kg/h", "kg/hr": "kg/h", "kg/s": "kg/s", "m3/h": "m3/h", "m³/h": "m3/h", "m3/s": "m3/s",
+             "m³/s": "m3/s", "l/s": "L/s"},
+    "pressure": {"psig": "psig", "psia": "psia", "barg": "barg", "bara": "bara", "kpag": "kPag", "kpaa": "kPaa",
+                 "kpa(g)": "kPa(g)", "kpa(abs)": "kPa(abs)", "kpa(a)": "kPa(a)", "bar(g)": "bar(g)",
+                 "bar(a)": "bar(a)"},
+    "length": {"in": "in", '"': "in", "inch": "in", "inches": "in", "ft": "ft", "'": "ft", "feet": "ft",
+               "foot": "ft", "m": "m", "mm": "mm"},
+    "fraction": {"%": "%", "percent": "%"},
+}
+_TYPED = re.compile(r"^\s*([-+]?(?:\d{1,3}(?:,\d{3})+|\d+)?(?:\.\d+)?(?:[eE][-+]?\d+)?)\s*(.*?)\s*$")
+
+
+def typed(question: Question, text: str) -> str:
+    """An answer as an engineer types it, in the unit file's spelling: choices without
+    regard to case or with the trade's abbreviations (``F&T``, ``Air``), numbers with
+    thousands separators (``12,000 cfm``), units glued on or in capitals (``15C``,
+    ``0 deg F``, ``12000 CFM``), a percentage for a fraction (``10%``). Text it does not
+    recognise is returned as given, for :func:`accept` to refuse with what is accepted."""
+    text = (text or "").strip()
+    if question.kind == "choice":
+        low = text.lower()
+        if low in question.choices:
+            return low
+        word = CHOICE_WORDS.get(low)
+        return word if word in question.choices else text
+    if question.kind == "number" and text.endswith("%"):
+        try:
+            return f"{float(text[:-1].strip().replace(',', '')) / 100.0:g}"
+        except ValueError:
+            return text
+    words = UNIT_WORDS.get(question.kind)
+    match = _TYPED.match(text)
+    if not words or not match or not match.group(1) or match.group(1) in "+-":
+        return text
+    number, unit = match.group(1).replace(",", ""), match.group(2)
+    spelled = words.get(unit.lower(), unit)
+    return f"{number} {spelled}"
+
+
 def accept(question: Question, text: str, answers: dict, atmospheric: float = q.STANDARD_ATMOSPHERE):
     """Check one answer; return the value to write (a string or a number), or None for a
-    blank optional answer.
+    blank optional answer. The answer is first put in the unit file's spelling
+    (:func:`typed`), and that spelling is what the file gets.
 
     Raises
     ------
     InputError
         Naming the key and what is accepted.
     """
-    text = (text or "").strip()
+    text = typed(question, text)
     key = question.key
     if not text:
         if question.optional:

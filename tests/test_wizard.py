@@ -143,3 +143,20 @@ def test_a_missing_folder_is_a_clear_message(tmp_path):
     # the message may wrap at the terminal's width wherever the path puts it
     assert result.exit_code == 2 and "does not exist" in " ".join(result.stderr.split())
     assert list(tmp_path.iterdir()) == []
+
+
+@pytest.mark.parametrize("key, typed_text, written", [
+    ("design.inlet_temperature", "15C", "15 degC"), ("design.inlet_temperature", "15 C", "15 degC"),
+    ("design.inlet_temperature", "15 degc", "15 degC"), ("design.outlet_temperature", "50F", "50 degF"),
+    ("design.inlet_temperature", "0 deg F", "0 degF"), ("design.inlet_temperature", "-5.5 °C", "-5.5 degC"),
+    ("design.flow", "12,000 cfm", "12000 cfm"), ("design.flow", "12000 CFM", "12000 cfm"),
+    ("design.steam_pressure", "2 bar(g)", "2 bar(g)"), ("design.medium", "Air", "air"),
+    ("drain.trap", "F&T", "float-thermostatic"), ("load.minimum", "10%", 0.1),
+    ("drain.fill_head", '18"', "18 in"), ("design.concentration", "30%", "30 %"),
+])
+def test_answers_as_engineers_type_them(key, typed_text, written):
+    # Common practice in how the trade writes values; each is written in the unit file's
+    # own spelling, which the unit file then reads.
+    question = next(x for x in wizard.QUESTIONS if x.key == key)
+    answers = {"design.medium": "propylene-glycol"} if key == "design.concentration" else {}
+    assert wizard.accept(question, typed_text, answers) == written
