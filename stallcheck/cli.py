@@ -245,22 +245,32 @@ def _ask_all(answers: dict, system: str, err) -> None:
     from stallcheck import wizard
 
     skipped: set = set()
+    order: list = [key for key in answers]  # what was answered, in order, for "back"
+    if not answers:
+        err.print("[dim]Type 'back' to change the answer before.[/dim]")
     while True:
         pending = [x for x in wizard.asked(answers) if x.key not in answers and x.key not in skipped]
         if not pending:
             return
         x = pending[0]
         err.print(f"[dim]{x.key}: {x.explain}[/dim]")
-        default = x.example.get(system)
+        default = wizard.suggestion(x, system, answers)
         if x.choices:
             err.print(f"[dim]  one of: {', '.join(x.choices)}[/dim]")
         text = Prompt.ask(x.ask, default=default, console=err) if default else Prompt.ask(x.ask, default="", console=err,
                                                                                           show_default=False)
+        if text.strip().lower() == "back":
+            if order:
+                last = order.pop()
+                answers.pop(last, None)
+                skipped.discard(last)
+            continue
         try:
-            value = wizard.accept(x, text, answers)
+            value = wizard.accept(x, text, answers, system=system)
         except InputError as exc:
             err.print(f"  {exc.message}", highlight=False, markup=False)
             continue
+        order.append(x.key)
         if value is None:
             skipped.add(x.key)
         else:

@@ -61,6 +61,8 @@ QUESTIONS = (
     Question("unit.name", "Name of the unit", "what the unit is called in reports", "text",
              {"us": "", "si": ""}),
     Question("unit.tag", "Equipment tag (blank for none)", "the plant's own tag for it", "text", optional=True),
+    Question("site.elevation", "Site elevation above sea level (blank for sea level)",
+             "sets the atmospheric pressure that gauge readings are relative to", "elevation", optional=True),
     Question("design.medium", "What does it heat?", "the medium on the other side of the coil", "choice",
              {"us": "air", "si": "air"}, choices=MEDIA),
     Question("design.concentration", "Glycol concentration (mass %)", "mass fraction of glycol in the mix",
@@ -159,7 +161,29 @@ def typed(question: Question, text: str) -> str:
     return f"{number} {spelled}"
 
 
-def accept(question: Question, text: str, answers: dict, atmospheric: float = q.STANDARD_ATMOSPHERE):
+def suggestion(question: Question, system: str, answers: dict) -> str | None:
+    """The default offered for a question: its example in the chosen units, moved to
+    follow earlier answers where it would contradict them (a supply above the coil
+    pressure given, a set point above the entering temperature given)."""
+    example = question.example.get(system) or None
+    if question.key == "steam.supply_pressure" and "design.steam_pressure" in answers:
+        match = _TYPED.match(str(answers["design.steam_pressure"]))
+        step = {"psig": 10.0, "psia": 10.0, "barg": 0.7, "bara": 0.7, "bar(g)": 0.7, "bar(a)": 0.7,
+                "kPag": 70.0, "kPaa": 70.0, "kPa(g)": 70.0, "kPa(abs)": 70.0, "kPa(a)": 70.0}
+        if match and match.group(2) in step:
+            return f"{float(match.group(1)) + step[match.group(2)]:g} {match.group(2)}"
+    if question.key == "design.outlet_temperature" and "design.inlet_temperature" in answers:
+        match = _TYPED.match(str(answers["design.inlet_temperature"]))
+        rise = {"degF": 55.0, "degC": 30.0, "K": 30.0}
+        if match and match.group(2) in rise and example is not None:
+            t_in = q.temperature(question.key, answers["design.inlet_temperature"])
+            if q.temperature(question.key, example) <= t_in:
+                return f"{float(match.group(1)) + rise[match.group(2)]:g} {match.group(2)}"
+    return example
+
+
+def accept(question: Question, text: str, answers: dict, atmospheric: float = q.STANDARD_ATMOSPHERE,
+           system: str = "us"):
     """Check one answer; return the value to write (a string or a number), or None for a
     blank optional answer. The answer is first put in the unit file's spelling
     (:func:`typed`), and that spelling is what the file gets.
@@ -174,8 +198,8 @@ def accept(question: Question, text: str, answers: dict, atmospheric: float = q.
     if not text:
         if question.optional:
             return None
-        raise InputError(key, "needs an answer" + (f", such as \"{question.example.get('us')}\"."
-                                                    if question.example.get("us") else "."))
+        raise InputError(key, "needs an answer" + (f", such as \"{question.example.get(system)}\"."
+                                                    if question.example.get(system) else "."))
     kind = question.kind
     if kind == "text":
         return text
@@ -217,6 +241,10 @@ def accept(question: Question, text: str, answers: dict, atmospheric: float = q.
             coil = q.pressure(key, answers["design.steam_pressure"]).absolute(atmospheric)
             if p <= coil:
                 raise InputError(key, f"must be above the coil pressure ({answers['design.steam_pressure']}).")
+        return text
+    if kind == "elevation":
+        if not -500.0 <= q.length(key, text) <= 6000.0:
+            raise InputError(key, "is out of range; accepted: -500 m to 6000 m (-1640 ft to 19,680 ft).")
         return text
     if kind == "length":
         if not 0.0 <= q.length(key, text) <= 100.0:

@@ -42,6 +42,7 @@ ANSWERS = [
     ("us", "units"),
     ("Quarry Lane AHU-9 preheat", "name"),
     ("AHU-9 PH", "tag"),
+    ("", "elevation: blank for sea level"),
     ("steam", "medium: not one of the media -> asked again"),
     ("air", "medium"),
     ("7500 ft", "flow: a length -> asked again"),
@@ -160,3 +161,31 @@ def test_answers_as_engineers_type_them(key, typed_text, written):
     question = next(x for x in wizard.QUESTIONS if x.key == key)
     answers = {"design.medium": "propylene-glycol"} if key == "design.concentration" else {}
     assert wizard.accept(question, typed_text, answers) == written
+
+
+def test_defaults_follow_earlier_answers_and_back_changes_the_answer_before(tmp_path):
+    answers = list(ANSWERS)
+    # "back" at the elevation question returns to the tag, which is then answered anew
+    i = next(k for k, (_, what) in enumerate(answers) if what.startswith("elevation"))
+    answers[i:i] = [("back", "back to the tag"), ("AHU-9 PHC", "tag, changed")]
+    # elevation given; a coil at 30 psig, and the supply left at its default, which
+    # follows the coil pressure (the example, 15 psig, would be below it)
+    answers[i + 2] = ("1200 ft", "elevation")
+    k = next(k for k, (_, what) in enumerate(answers) if what == "coil pressure")
+    answers[k] = ("30 psig", "coil pressure")
+    answers = [a for a in answers if not a[1].startswith("supply")]
+    answers.insert(k + 1, ("", "supply: the default, which follows the coil pressure"))
+    out = tmp_path / "ahu9.toml"
+    result = _run(tmp_path, answers, [str(out)])
+    assert result.exit_code == 0, result.output
+    written = unitfile.load(out)
+    assert written.tag == "AHU-9 PHC"
+    assert written.supply_pressure > written.design.steam_pressure
+    assert 'supply_pressure = "40 psig"' in out.read_text(encoding="utf-8")
+    assert 'elevation = "1200 ft"' in out.read_text(encoding="utf-8")
+
+
+def test_a_missing_answer_gives_an_example_in_the_chosen_units():
+    question = next(x for x in wizard.QUESTIONS if x.key == "design.flow")
+    with pytest.raises(InputError, match='such as "10000 m3/h"'):
+        wizard.accept(question, "", {}, system="si")
