@@ -170,7 +170,7 @@ class _Words:
             return Remedy(key, "pressure", dr.return_pressure, None,
                           f"even against a full vacuum the lift takes more than the coil and fill head have "
                           f"{self.down_to}", "impossible", False)
-        vacuum = " (below atmospheric: only a vacuum return holds that)" if value < self.atm else ""
+        vacuum = ", below atmospheric: only a vacuum return holds that," if value < self.atm else ""
         if self.adequate:
             note = f"a return pressure up to {self.p(value)}{vacuum} still drains it {self.down_to}"
         else:
@@ -187,7 +187,7 @@ class _Words:
         if value <= 0:
             return Remedy(key, "differential", dr.trap_min_differential, None,
                           f"even a trap that opens at no differential cannot drain it {self.down_to}: the back "
-                          f"pressure less the fill head ({self.p(back_less_fill)}) is more than the coil has there",
+                          f"pressure less the fill head, {self.p(back_less_fill)}, is more than the coil has there",
                           "impossible", False)
         if self.adequate:
             note = f"a trap that needs up to {self.p(value, 'differential')} to open still drains it {self.down_to}"
@@ -224,13 +224,13 @@ class _Words:
                           "any design pressure: the vacuum breaker drains it whatever the coil pressure", "any", False)
         if design == "any":
             return Remedy(key, "pressure", current, None,
-                          f"any design pressure: the coil needs more than the stall pressure ({self.p(threshold)}) "
+                          f"any design pressure: the coil needs more than the stall pressure, {self.p(threshold)}, "
                           f"at every load, since it can never run below the set point's saturation pressure",
                           "any", False)
         if design == "none":
             return Remedy(key, "pressure", current, None,
                           f"no design pressure does it: at no load the coil needs only the set point's saturation "
-                          f"pressure, below the stall pressure ({self.p(threshold)})", "impossible", False)
+                          f"pressure, below the stall pressure of {self.p(threshold)}", "impossible", False)
         if design == "too-high":
             return Remedy(key, "pressure", current, None,
                           f"no practical design pressure does it: it would take more than "

@@ -220,7 +220,11 @@ def test_a_unit_draining_with_less_than_the_margin_is_told_to_leave_things_as_th
     for key in ("drain.lift", "drain.return_pressure", "drain.trap_min_differential", "drain.fill_head",
                 "design.steam_pressure"):
         m = by_key[key]
-        assert m.status == "margin" and m.value is None and not m.achievable, key
+        assert m.status == "margin" and m.value is None and m.achievable is False, key
+        assert m.current == pytest.approx({"drain.lift": r.lift, "drain.fill_head": r.fill_head,
+                                           "drain.return_pressure": r.return_pressure,
+                                           "drain.trap_min_differential": r.trap_min_differential,
+                                           "design.steam_pressure": r.design.coil_pressure}[key]), key
         assert m.note.startswith("leave it as it is") and "less than the 0.15 psi margin" in m.note, key
     from stallcheck.render import json as contract
     units = {m["key"]: m["unit_si"] for m in contract.to_dict(r)["remedies"]}
@@ -233,3 +237,23 @@ def test_a_unit_draining_with_less_than_the_margin_is_told_to_leave_things_as_th
     assert by_key["drain.lift"].value > r.lift
     assert by_key["drain.fill_head"].value < r.fill_head
     assert by_key["design.steam_pressure"].value < r.design.coil_pressure
+
+
+def test_figures_for_a_unit_run_down_to_no_load_say_so():
+    # load.minimum = 0: each figure must drain the coil at every load, and says so
+    data = _unit(fill_head="12 in")
+    data["load"]["minimum"] = 0.0
+    r = analysis.analyse(unitfile.from_data(data, "t.toml"))
+    notes = [m.note for m in r.remedies if m.key in ("drain.lift", "drain.trap_min_differential")]
+    assert notes and all("at every load" in n and "down to 0%" not in n for n in notes)
+    assert "load.minimum is 0" in " ".join(advice.advise(r, r.system).notes)
+
+
+def test_a_vacuum_breaker_acts_at_exactly_a_quarter_psi_of_gravity():
+    # The rule as stated (VA HVAC Design Manual, 1/4 psi): at least that differential.
+    from stallcheck import drainage
+
+    atm = 101325.0
+    assert drainage.vacuum_breaker_acts(atm - drainage.GRAVITY_MARGIN, atm)
+    assert not drainage.vacuum_breaker_acts(atm - drainage.GRAVITY_MARGIN + 1.0, atm)
+    assert drainage.GRAVITY_MARGIN == pytest.approx(0.25 * 6894.757, rel=1e-6)
