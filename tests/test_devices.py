@@ -83,6 +83,19 @@ def test_capacity_table_reading_by_hand():
     assert got == pytest.approx([900 * math.sqrt(2), 450, 1800, 0], rel=1e-9)
 
 
+def test_capacity_table_of_three_rows_by_hand():
+    # Hand calculation on log-log axes: rows (1 psi, 1000), (4 psi, 1500), (16 psi, 3000)
+    # lb/h. At 2 psi, half-way between the first two: 1000·√1.5 = 1224.74; at 8 psi,
+    # half-way between the last two: 1500·√2 = 2121.32; on a row, the row; below the
+    # table 1000·√0.5 = 707.11; above it, held at 3000.
+    dp = np.array([[1.0, 4.0, 16.0]]) * PSI
+    w = np.array([[1000.0, 1500.0, 3000.0]]) * LB_H
+    at = np.array([[2.0, 8.0, 4.0, 0.5, 20.0, 16.0]]) * PSI
+    got = traps.table_capacity_rows(at, dp, w)[0] / LB_H
+    expected = [1000 * math.sqrt(1.5), 1500 * math.sqrt(2), 1500, 1000 * math.sqrt(0.5), 3000, 3000]
+    assert got == pytest.approx(expected, rel=1e-9)
+
+
 # --- flash steam ------------------------------------------------------------------------
 
 
@@ -182,6 +195,8 @@ def test_purge_cannot_hold_where_the_coil_falls_to_the_back_pressure():
     # Physics: a purge only bleeds while the coil is above what it discharges into.
     r = analysis.analyse(unit(PURGE_UNIT, 'purge_rate = "10 lb/h"\n[load]\nminimum = 0.3\n'))
     assert not r.purge.holds_differential and r.purge.minimum_rate == 0.0
+    # at full load the coil is above the back pressure: the stated rate bleeds
+    assert r.purge.design_rate == pytest.approx(10 * LB_H, rel=1e-12)
     assert "purge-cannot-hold" in {f.code for f in r.findings}
 
 
