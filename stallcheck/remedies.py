@@ -209,7 +209,7 @@ class _Words:
         if value > PRACTICAL_FILL_HEAD:
             return Remedy("drain.fill_head", "length", dr.fill_head, value,
                           f"it would take a fill head of {self.length(value)} (now {now}), more than the "
-                          f"{self.length(PRACTICAL_FILL_HEAD)} or so found under a coil", "change", False)
+                          f"{q.show_about(PRACTICAL_FILL_HEAD, 'length', self.system)} or so found under a coil", "change", False)
         return Remedy("drain.fill_head", "length", dr.fill_head, value,
                       f"a fill head of at least {self.length(value)} (now {now}: "
                       f"{self.length(value - dr.fill_head)} more)", "change", True)

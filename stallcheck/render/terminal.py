@@ -187,8 +187,9 @@ def _devices(r: Result, system: str) -> list:
         parts.append(Text(f"  {_BASIS[tr.basis]}"
                           + (f" ({q.show(tr.bore, 'diameter', system)} bore)" if tr.basis != "table" else ""),
                           style="dim"))
+        flooded = "; below zero: the trap cannot discharge at all" if tr.design_differential <= 0 else ""
         parts.append(_para(f"full load: {w(tr.design_condensate)} at {p(tr.design_differential, 'differential')} "
-                           f"differential"))
+                           f"differential{flooded}"))
         parts.append(_para(f"lowest working differential: {p(tr.working_differential, 'differential')} at "
                            f"{tr.working_load:.0%} load, with {w(tr.working_condensate)}"))
         floor = ("" if tr.selection_differential <= tr.working_differential else
