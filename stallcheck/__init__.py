@@ -5,6 +5,23 @@ command needs them. The pipeline is
 
     unitfile (TOML -> inputs, SI) -> analysis (properties, coil, valve, drainage)
     -> result (dataclasses) -> render (terminal, chart, json)
+
+The Python interface (:mod:`stallcheck.api`) is re-exported here and loaded on first use:
+``stallcheck.read_unit``, ``analyse``, ``analyse_many``, ``to_dict``, ``survey_rows`` and
+``survey_frame``.
 """
 
+from __future__ import annotations
+
 __version__ = "0.1.0"
+__all__ = ["read_unit", "analyse", "analyse_many", "to_dict", "survey_rows", "survey_frame", "InputError",
+           "StallcheckError", "__version__"]
+
+
+def __getattr__(name: str):
+    """The public interface, imported only when first used (keeps ``--help`` fast)."""
+    if name in __all__ and name != "__version__":
+        from stallcheck import api
+
+        return getattr(api, name)
+    raise AttributeError(f"module 'stallcheck' has no attribute {name!r}")

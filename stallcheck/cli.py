@@ -63,15 +63,11 @@ def _run(path: Path, units: Optional[Units], method: Optional[Method], warn: boo
 def _load(path: Path, units: Optional[Units], method: Optional[Method], warn: bool = True):
     """The unit and its result (see :func:`_run`); the file's input warnings go to
     stderr unless ``warn`` is false (``check`` prints them in its report)."""
-    from stallcheck import unitfile
+    from stallcheck import api
 
     try:
-        unit = unitfile.load(path)
-        # the steam tables (a two-second import) only once the file has been accepted
-        from stallcheck import analysis
-
-        result = analysis.analyse(unit, system=units.value if units else None,
-                                  method=method.value if method else None)
+        unit = api.read_unit(path)
+        result = api.analyse(unit, units=units.value if units else None, method=method.value if method else None)
     except InputError as exc:
         _fail(str(exc if exc.file else exc.in_file(str(path))))
     except StallcheckError as exc:

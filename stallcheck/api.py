@@ -1,0 +1,117 @@
+"""The Python interface: what the command line does, for notebooks and scripts.
+
+>>> import stallcheck
+>>> unit = stallcheck.read_unit("sample_units/us_vacuum_breaker_gravity.toml")
+>>> result = stallcheck.analyse(unit)
+>>> result.drainage.required
+'trap-vacuum-breaker'
+>>> round(stallcheck.to_dict(result)["stall"]["load_fraction"], 2)
+0.84
+
+Everything is SI inside (pressures absolute in Pa, temperatures in K, flows in kg/s);
+:func:`to_dict` gives the JSON contract of the README (kPa, °C, kg/h). Bad input raises
+:class:`stallcheck.errors.InputError`, whose message names the file and the key.
+"""
+
+from __future__ import annotations
+
+from pathlib import Path
+from typing import Any, Iterable, Mapping
+
+from stallcheck.errors import InputError, StallcheckError
+from stallcheck.inputs import Unit
+from stallcheck.result import Result
+
+__all__ = ["read_unit", "analyse", "analyse_many", "to_dict", "survey_rows", "survey_frame", "InputError",
+           "StallcheckError", "Unit", "Result"]
+
+
+def read_unit(source: str | Path | Mapping[str, Any], name: str = "unit") -> Unit:
+    """A validated unit from a unit file, or from the same tables as a dict.
+
+    Parameters
+    ----------
+    source : str, Path or mapping
+        The path of a TOML unit file (format 1), or its tables as nested dicts
+        (``{"format": 1, "unit": {"name": ...}, "design": {...}, ...}``).
+    name : str
+        What to call a dict's source in messages.
+
+    Raises
+    ------
+    InputError
+        For anything that cannot be accepted, naming the key.
+    """
+    from stallcheck import unitfile
+
+    if isinstance(source, Mapping):
+        return unitfile.from_data(dict(source), name)
+    return unitfile.load(source)
+
+
+def analyse(unit: Unit | str | Path | Mapping[str, Any], units: str | None = None,
+            method: str | None = None) -> Result:
+    """Analyse one unit (a :class:`Unit`, or anything :func:`read_unit` takes).
+
+    Parameters
+    ----------
+    units : {"us", "si"}, optional
+        Units for the words in reasons and findings (default: the file's own).
+    method : {"ntu", "mean-temperature"}, optional
+        Override the file's heat-transfer method.
+    """
+    from stallcheck import analysis
+
+    if not isinstance(unit, Unit):
+        unit = read_unit(unit)
+    return analysis.analyse(unit, system=units, method=method)
+
+
+def analyse_many(units: Iterable[Unit], system: str | None = None,
+                 method: str | None = None) -> list[Result | StallcheckError]:
+    """Analyse many units at once (on arrays: thousands in seconds). Each item is the
+    unit's :class:`Result`, or the error that stopped it (the others go on)."""
+    from stallcheck import analysis
+
+    return analysis.analyse_many(list(units), system=system, method=method)
+
+
+def to_dict(result: Result) -> dict:
+    """A result as the JSON contract's data (the README's result contract)."""
+    from stallcheck.render import json as contract
+
+    return contract.to_dict(result)
+
+
+def survey_rows(paths: str | Path | Iterable[str | Path], units: str | None = None,
+           method: str | None = None) -> list[dict]:
+    """Survey unit files, folders of them and CSV tables: one row per unit, worst first
+    (the columns of ``stallcheck survey --csv``), then a row per unit that could not be
+    read, with its message under ``error``."""
+    from stallcheck import quantities as q
+    import importlib
+
+    surveymod = importlib.import_module("stallcheck.survey")
+
+    if isinstance(paths, (str, Path)):
+        paths = [paths]
+    summaries, failures = surveymod.run(list(paths), system=units, method=method)
+    rows = [{"source": s.source, "name": s.name, "tag": s.tag, "stall_load_fraction": s.stall_fraction,
+             "stall_inlet_temperature_c": q.celsius(s.stall_inlet_temperature), "required": s.required,
+             "installed": s.installed, "adequate": s.adequate, "stalled_hours": s.stalled_hours,
+             "top_finding": s.top_code, "top_severity": s.top_severity, "exit_status": s.exit_status,
+             "error": None} for s in summaries]
+    rows += [{"source": f.source, "exit_status": 2, "error": f.message} for f in failures]
+    return rows
+
+
+def survey_frame(paths: str | Path | Iterable[str | Path], units: str | None = None,
+                 method: str | None = None):
+    """:func:`survey_rows` as a pandas DataFrame (pandas is not a dependency: install it to
+    use this)."""
+    try:
+        import pandas
+    except ImportError:
+        raise ImportError("survey_frame needs pandas (pip install pandas); survey_rows() gives the same rows "
+                          "as a list of dicts") from None
+    return pandas.DataFrame(survey_rows(paths, units=units, method=method))
