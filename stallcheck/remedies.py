@@ -203,7 +203,7 @@ class _Words:
         if self.adequate and value > dr.fill_head:
             return self.tight("drain.fill_head", "length", dr.fill_head)
         if self.adequate:
-            note = (f"no fill head is needed to drain it {self.down_to}" if value == 0 else
+            note = (f"a fill head of {self.length(0.0)} (none at all) still drains it {self.down_to}" if value == 0 else
                     f"a fill head down to {self.length(value)} still drains it {self.down_to}")
             return Remedy("drain.fill_head", "length", dr.fill_head, value, f"{note} (now {now})", "margin", True)
         if value > PRACTICAL_FILL_HEAD:

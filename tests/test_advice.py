@@ -52,6 +52,23 @@ def _follow_every_figure(data: dict, source: str) -> int:
         assert a.fit == r.drainage.required
         assert all(m.status in ("change", "impossible") for m in r.remedies)
         assert all((m.value is None) == (m.status == "impossible") for m in r.remedies)
+    now = {"drain.lift": unit.drain.lift, "drain.return_pressure": unit.drain.return_pressure,
+           "drain.trap_min_differential": unit.drain.trap_min_differential, "drain.fill_head": unit.drain.fill_head,
+           "design.steam_pressure": unit.design.steam_pressure}
+    for m in r.remedies:
+        assert m.current == pytest.approx(now[m.key], rel=1e-12, abs=1e-12), m.key
+        assert m.achievable is (m.value is not None and m.achievable), m.key
+        if m.status in ("impossible", "any"):
+            assert m.achievable is False, m.key
+        if m.value is not None:
+            # the figure kept is the figure printed: safe rounding at the printed step
+            printed = _printed_figure(m.note)
+            number, unit_text = printed.split()
+            from stallcheck import quantities
+            kind = {"m": "length", "ft": "length", "barg": "pressure", "psig": "pressure", "kPa": "differential",
+                    "psi": "differential"}[unit_text]
+            back = quantities.from_display(float(number), kind, r.system, r.atmospheric_pressure)
+            assert m.value == pytest.approx(back, rel=1e-9, abs=1e-9), (m.key, printed)
     applied = 0
     for m in a.changes:
         if m.value is None:
