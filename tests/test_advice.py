@@ -93,6 +93,11 @@ def test_every_printed_figure_of_every_sample_holds_when_followed(sample):
     assert applied == sum(1 for m in advice.advise(r, r.system).changes if m.value is not None)
     if sample.name == "us_centre_fed_purge.toml":
         assert applied >= 1  # its vacuum-return figure (a sample that must exercise the loop)
+    for m in r.remedies:
+        # a return pressure below atmospheric says it needs a vacuum return, and only then
+        if m.key == "drain.return_pressure" and m.value is not None:
+            below = m.value < r.atmospheric_pressure
+            assert ("only a vacuum return holds that" in m.note) == below, m.note
 
 
 @settings(max_examples=int(os.environ.get("STALLCHECK_EXAMPLES", "60")), deadline=None)
@@ -262,7 +267,7 @@ def test_figures_for_a_unit_run_down_to_no_load_say_so():
     data["load"]["minimum"] = 0.0
     r = analysis.analyse(unitfile.from_data(data, "t.toml"))
     notes = [m.note for m in r.remedies if m.key in ("drain.lift", "drain.trap_min_differential")]
-    assert notes and all("at every load" in n and "down to 0%" not in n for n in notes)
+    assert notes and all(" drain it at every load:" in n and "down to 0%" not in n for n in notes)
     assert "load.minimum is 0" in " ".join(advice.advise(r, r.system).notes)
 
 
