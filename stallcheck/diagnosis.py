@@ -17,6 +17,7 @@ import numpy as np
 
 from stallcheck import analysis, coil as coilmod, layout, properties
 from stallcheck import quantities as q
+from stallcheck.constants import GRAVITY
 from stallcheck.devices import MOTIVE_MARGIN, TrapCapacity
 from stallcheck.errors import InputError
 from stallcheck.findings import POOR_AT_LOW_DIFFERENTIAL
@@ -317,8 +318,8 @@ def diagnose(unit: Unit, result: Result, readings: Readings) -> Diagnosis:
         basis = "coil pressure"
     ret = readings.return_pressure if readings.return_pressure is not None else dr.return_pressure
     rho = float(properties.liquid_density(ret))
-    back = ret + rho * q.GRAVITY * dr.lift
-    fill = rho * q.GRAVITY * dr.fill_head
+    back = ret + rho * GRAVITY * dr.lift
+    fill = rho * GRAVITY * dr.fill_head
     model_p = stalled_model = None
     condensate = None
     if load is not None:

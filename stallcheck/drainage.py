@@ -23,7 +23,7 @@ from __future__ import annotations
 
 from dataclasses import dataclass
 
-from stallcheck.quantities import GRAVITY
+from stallcheck.constants import GRAVITY
 from stallcheck.traps import SELECTION_DIFFERENTIAL
 
 #: A stall counts only where the stall pressure exceeds the coil pressure by more than

@@ -9,7 +9,7 @@ from __future__ import annotations
 from stallcheck import layout
 from stallcheck import quantities as q
 from stallcheck.devices import MOTIVE_MARGIN
-from stallcheck.flash import VELOCITY_LIMIT
+from stallcheck.constants import VELOCITY_LIMIT
 from stallcheck.inputs import Unit
 from stallcheck.result import Finding, Result
 

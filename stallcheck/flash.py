@@ -13,11 +13,6 @@ import numpy as np
 
 from stallcheck import properties
 
-#: Velocity in a return line carrying flash steam above which condensate is torn into
-#: slugs [m/s] (about 50 ft/s; common practice, from memory: lines carrying flash
-#: are sized for 15 m/s or less).
-VELOCITY_LIMIT = 15.0
-
 
 def flash_fraction(high_pressure, low_pressure):
     """Fraction of saturated condensate that flashes to steam when its pressure drops [-].

@@ -28,14 +28,8 @@ from dataclasses import dataclass
 from functools import lru_cache
 from pathlib import Path
 
+from stallcheck.constants import GRAVITY, STANDARD_AIR_DENSITY, STANDARD_ATMOSPHERE  # noqa: F401 (re-exported)
 from stallcheck.errors import InputError
-
-#: Standard atmosphere at sea level [Pa].
-STANDARD_ATMOSPHERE = 101_325.0
-#: Standard gravity [m/s²].
-GRAVITY = 9.80665
-#: Standard air density used for air volume flows [kg/m³]: dry air at 20 °C, 101.325 kPa.
-STANDARD_AIR_DENSITY = 1.204
 
 # Pressure spellings. Gauge and absolute are separate units in the registry so the
 # parsed unit tells which was written.

@@ -27,7 +27,7 @@ from stallcheck import coil as coilmod
 from stallcheck import drainage, properties
 from stallcheck import quantities as q
 from stallcheck.inputs import Unit
-from stallcheck.quantities import GRAVITY
+from stallcheck.constants import GRAVITY
 from stallcheck.result import Remedy
 
 #: Differential every remedy figure leaves across the trap beyond its exact limit [Pa]

@@ -261,7 +261,7 @@ def _devices(r: Result, system: str) -> list:
         else:
             parts.append(_para("none at full load: the coil pressure is not above the return pressure"))
         if fl.velocity is not None:
-            from stallcheck.flash import VELOCITY_LIMIT
+            from stallcheck.constants import VELOCITY_LIMIT
             parts.append(_para(f"return line {q.show(fl.line_diameter, 'diameter', system)} bore: "
                                f"{q.show(fl.velocity, 'velocity', system)} (keep under about "
                                f"{q.show_about(VELOCITY_LIMIT, 'velocity', system)})"))
