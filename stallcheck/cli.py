@@ -161,7 +161,10 @@ def report(unit: Path = UNIT_ARG,
     except InputError as exc:
         _fail(str(exc))
     unit_obj, result = _load(unit, units, method)
-    text = rep.markdown(unit_obj, result, result.system, __version__, datetime.date.today().isoformat())
+    import os
+
+    links = tuple(Path(os.path.relpath(p.resolve(), output.resolve().parent)).as_posix() for _, p in targets[1:])
+    text = rep.markdown(unit_obj, result, result.system, __version__, datetime.date.today().isoformat(), links)
     try:
         pictures = [(o, p, rep.picture(result, result.system, o[2:])) for o, p in targets[1:]]
         for option, path, data in pictures:

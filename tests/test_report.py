@@ -68,3 +68,13 @@ def test_report_refuses_to_overwrite_and_missing_folders(tmp_path):
     assert runner.invoke(app, ["report", str(SAMPLES[0]), "-o", str(out), "--force"]).exit_code in (0, 1)
     result = runner.invoke(app, ["report", str(SAMPLES[0]), "-o", str(tmp_path / "no" / "r.md")])
     assert result.exit_code == 2 and "does not exist" in result.stderr
+
+
+def test_report_links_the_chart_pictures_it_wrote(tmp_path):
+    pytest.importorskip("matplotlib")
+    (tmp_path / "pictures").mkdir()
+    out = tmp_path / "report.md"
+    result = runner.invoke(app, ["report", str(SAMPLES[0]), "-o", str(out), "--svg",
+                                 str(tmp_path / "pictures" / "chart.svg")])
+    assert result.exit_code in (0, 1), result.output
+    assert "![Stall chart](pictures/chart.svg)" in out.read_text(encoding="utf-8")

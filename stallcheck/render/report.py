@@ -17,7 +17,7 @@ class MissingExtra(Exception):
     """An optional library is not installed; the message says how to install it."""
 
 
-def markdown(unit: Unit, r: Result, system: str, version: str, date: str) -> str:
+def markdown(unit: Unit, r: Result, system: str, version: str, date: str, pictures: tuple[str, ...] = ()) -> str:
     """The report as Markdown text.
 
     Parameters
@@ -29,6 +29,9 @@ def markdown(unit: Unit, r: Result, system: str, version: str, date: str) -> str
         ``"si"`` or ``"us"`` display units.
     version, date : str
         The program version and the date, printed in the header.
+    pictures : tuple of str
+        Chart pictures written beside the report, linked (relative paths) under the
+        text chart.
     """
     atm = r.atmospheric_pressure
 
@@ -85,6 +88,7 @@ def markdown(unit: Unit, r: Result, system: str, version: str, date: str) -> str
     out += [f"- {reason}" for reason in dn.reasons] + [""]
 
     out += ["## Stall chart", "", "```text", chart.plain(chart.render(r, system, width=78)), "```", ""]
+    out += [f"![Stall chart]({link})" for link in pictures] + ([""] if pictures else [])
 
     out += _figures(r, show)
 
