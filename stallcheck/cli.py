@@ -48,6 +48,8 @@ UNIT_ARG = typer.Argument(..., help="Unit file (TOML, format 1).", show_default=
 UNITS_OPT = typer.Option(None, "--units", help="Display units: si or us. Default: those the file is written in.")
 METHOD_OPT = typer.Option(None, "--method", help="Heat-transfer method, overriding the file's.")
 JSON_OPT = typer.Option(False, "--json", help="Print the result contract as JSON (SI units) and nothing else.")
+WIDTH_OPT = typer.Option(None, "--width", min=60, max=250,
+                         help="Columns to print in (60 to 250). Default: the terminal's, at most 100.")
 
 
 def _fail(message: str) -> None:
@@ -78,7 +80,7 @@ def _load(path: Path, units: Optional[Units], method: Optional[Method], warn: bo
     return unit, result
 
 
-def _show_check(result, as_json: bool) -> None:
+def _show_check(result, as_json: bool, width: Optional[int] = None) -> None:
     if as_json:
         from stallcheck.render import json as json_out
 
@@ -88,27 +90,28 @@ def _show_check(result, as_json: bool) -> None:
     else:
         from stallcheck.render import terminal
 
-        out = terminal.console()
+        out = terminal.console(width=width)
         terminal.emit(out, terminal.report(result, result.system, width=out.width))
     raise typer.Exit(result.exit_status)
 
 
 @app.command()
 def check(unit: Path = UNIT_ARG, units: Optional[Units] = UNITS_OPT,
-          method: Optional[Method] = METHOD_OPT, json: bool = JSON_OPT) -> None:
+          method: Optional[Method] = METHOD_OPT, json: bool = JSON_OPT, width: Optional[int] = WIDTH_OPT) -> None:
     """Analyse one unit: stall point, drainage verdict, valve, findings and the stall chart.
 
     Exit status 0: drains at every load it runs at, nothing at warning or above;
     1: drainage not adequate or a warning; 2: bad input.
     """
-    _show_check(_run(unit, units, method, warn=False), json)
+    _show_check(_run(unit, units, method, warn=False), json, width)
 
 
 @app.command()
 def chart(unit: Path = UNIT_ARG, units: Optional[Units] = UNITS_OPT,
           method: Optional[Method] = METHOD_OPT,
           x: Optional[XAxis] = typer.Option(None, "--x", help="x axis: load (%) or inlet (entering "
-                                            "temperature). Default: inlet where the load follows it.")) -> None:
+                                            "temperature). Default: inlet where the load follows it."),
+          width: Optional[int] = WIDTH_OPT) -> None:
     """Print the stall chart alone."""
     from stallcheck.render import terminal
 
@@ -118,7 +121,7 @@ def chart(unit: Path = UNIT_ARG, units: Optional[Units] = UNITS_OPT,
               f"(load.varies = \"inlet-temperature\"); this one's load varies with {result.varies}. Accepted "
               f"here: load.")
     axis = x.value if x else ("inlet" if result.varies == "inlet-temperature" else "load")
-    out = terminal.console()
+    out = terminal.console(width=width)
     terminal.emit(out, terminal.chart_text(result, result.system, width=out.width - 2, x_axis=axis))
     raise typer.Exit(result.exit_status)
 

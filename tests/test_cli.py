@@ -146,3 +146,11 @@ def test_warm_check_does_not_import_pint(tmp_path):
     assert first.stdout.strip() == "True"
     assert second.stdout.strip() == "False"
     assert list((tmp_path / "stallcheck").glob("units-*.json"))
+
+
+def test_width_option_widens_the_report_and_the_chart():
+    narrow = runner.invoke(app, ["check", str(SAMPLES[0])], env={"NO_COLOR": "1", "COLUMNS": "80"}).stdout
+    wide = runner.invoke(app, ["check", str(SAMPLES[0]), "--width", "140"], env={"NO_COLOR": "1"}).stdout
+    assert max(map(len, narrow.splitlines())) <= 80
+    assert 100 < max(map(len, wide.splitlines())) <= 140
+    assert runner.invoke(app, ["chart", str(SAMPLES[0]), "--width", "20"]).exit_code == 2

@@ -156,7 +156,7 @@ def report(result: Result, system: str, width: int = 80) -> Group:
     parts.append(Text(""))
 
     parts += _remedies(r, system)
-    parts += [_heading("Stall chart"), chart_text(r, system, width=min(width, 100) - 2), Text("")]
+    parts += [_heading("Stall chart"), chart_text(r, system, width=width - 2), Text("")]
 
     parts += [_heading("Assumptions"), _bullets(r.assumptions, style="dim"), Text("")]
     if r.warnings:
@@ -309,8 +309,11 @@ def emit(out: Console, renderable) -> None:
     out.file.write(text)
 
 
-def console(stderr: bool = False) -> Console:
-    """A console that honours NO_COLOR and plain output when piped; at most 100 columns."""
+def console(stderr: bool = False, width: int | None = None) -> Console:
+    """A console that honours NO_COLOR and plain output when piped; at most 100 columns
+    unless ``width`` is given (``--width``)."""
+    if width is not None:
+        return Console(stderr=stderr, highlight=False, width=width)
     c = Console(stderr=stderr, highlight=False, soft_wrap=False)
     if c.width > 100:
         c = Console(stderr=stderr, highlight=False, width=100)
