@@ -226,12 +226,23 @@ class Explorer(App):
 
     def _write(self, path: Path) -> None:
         try:
-            files.write_new(path, unitwriter.dumps(self.unit, self.system), "save", force=True)
+            files.write_new(path, self._text(), "save", force=True)
         except InputError as exc:
             self._say(f"not saved: {exc}")
             return
         self.saved = path
         self._say(f"saved {path}")
+
+    def _text(self) -> str:
+        """The user's file with only the changed values rewritten; a unit with no file
+        behind it (or one that cannot be read now) is written whole."""
+        from stallcheck import unitfile
+
+        try:
+            text = unitfile.read_text(self.original.source)
+        except InputError:
+            return unitwriter.dumps(self.unit, self.system)
+        return unitwriter.edit(text, self.original, self.unit, self.system)
 
     def _say(self, message: str) -> None:
         self.message = message

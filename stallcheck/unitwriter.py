@@ -7,6 +7,8 @@ to the same unit within about 1e-8.
 
 from __future__ import annotations
 
+import math
+
 from stallcheck import quantities as q
 from stallcheck.inputs import Unit
 
@@ -122,3 +124,92 @@ def dumps(unit: Unit, system: str | None = None) -> str:
         if rows:
             out += ["", "[geometry]"] + rows
     return "\n".join(out) + "\n"
+
+
+#: The values ``explore`` changes: unit-file key → (display kind, how to read it from a unit).
+EDITABLE = {
+    "drain.lift": ("length", lambda u: u.drain.lift),
+    "drain.return_pressure": ("pressure", lambda u: u.drain.return_pressure),
+    "drain.fill_head": ("length", lambda u: u.drain.fill_head),
+    "design.steam_pressure": ("pressure", lambda u: u.design.steam_pressure),
+    "valve.cv": ("cv", lambda u: u.valve.cv if u.valve is not None else None),
+    "load.minimum": ("fraction", lambda u: u.load.minimum),
+}
+
+
+def edit(text: str, original: Unit, changed: Unit, system: str | None = None) -> str:
+    """The user's own unit file with only the changed values rewritten.
+
+    Comments, key order, spellings and every value not changed are kept as written
+    (``tomlkit``, a style-preserving TOML library). A changed value is written in the
+    unit the file used for it (``"8 ft"`` stays in feet, ``"0.5 psig"`` in psig) at the
+    precision it is shown on screen; a value the file did not give is added in the
+    display units of ``system``.
+
+    Parameters
+    ----------
+    text : str
+        The original unit file's text.
+    original, changed : Unit
+        The unit as read from ``text``, and as changed.
+    system : str, optional
+        ``"us"`` or ``"si"`` for values the file did not give; default the unit's own.
+    """
+    import tomlkit
+
+    system = system or changed.system
+    atm = changed.site.atmospheric_pressure
+    doc = tomlkit.parse(text)
+    for key, (kind, read) in EDITABLE.items():
+        old, new = read(original), read(changed)
+        if new is None or (old is not None and abs(new - old) <= 1e-9 * max(1.0, abs(old))):
+            continue
+        section, name = key.split(".")
+        table = doc.get(section)
+        if table is None:
+            doc[section] = table = tomlkit.table()
+        written = table.get(name)
+        value = _written(kind, new, str(written) if isinstance(written, str) else None, system, atm)
+        if written is not None and hasattr(written, "trivia"):
+            item = tomlkit.item(value)
+            item.trivia.comment = written.trivia.comment
+            item.trivia.comment_ws = written.trivia.comment_ws
+            table[name] = item
+        else:
+            table[name] = value
+    return tomlkit.dumps(doc)
+
+
+def _written(kind: str, value: float, old: str | None, system: str, atm: float):
+    """A changed value as the file should say it: in the unit of ``old`` (the text it
+    replaces) where that is a quantity, at the precision shown on screen."""
+    if kind == "cv":
+        return float(f"{value:.3g}")
+    if kind == "fraction":
+        return round(value, 2)
+    shown = value
+    unit = old.split(None, 1)[1].strip() if old and len(old.split(None, 1)) == 2 else None
+    if unit is None:  # as shown on screen: number and unit (psig, barg, ft, m)
+        return " ".join(q.show(shown, kind, system, atm).replace(",", "").split()[:2])
+    if kind == "pressure":
+        gauge = unit in ("psig", "barg", "kPag", "kPa(g)", "bar(g)", "psi(g)")
+        base = {"psig": "psi", "psia": "psi", "psi(g)": "psi", "psi(a)": "psi", "barg": "bar", "bara": "bar",
+                "bar(g)": "bar", "bar(a)": "bar", "bar(abs)": "bar", "kPag": "kPa", "kPaa": "kPa", "kPa(g)": "kPa",
+                "kPa(abs)": "kPa", "kPa(a)": "kPa"}.get(unit)
+        if base is None:
+            return " ".join(q.show(shown, kind, system, atm).replace(",", "").split()[:2])
+        number = q.express(shown - atm if gauge else shown, "Pa", base)
+    else:
+        number = q.express(shown, "m", unit)
+    # the precision a screen or a gauge shows in that unit
+    step = _STEP.get(unit, 0.01)
+    figure = f"{round(number / step) * step:.{max(0, -math.floor(math.log10(step)))}f}"
+    if "." in figure:
+        figure = figure.rstrip("0").rstrip(".")
+    return f"{'0' if figure in ('-0', '') else figure} {unit}"
+
+
+#: The step each unit's figures are written to (as they are shown and read on gauges).
+_STEP = {"ft": 0.1, "in": 0.1, "m": 0.01, "mm": 1.0, "psig": 0.1, "psia": 0.1, "psi(g)": 0.1, "psi(a)": 0.1,
+         "barg": 0.01, "bara": 0.01, "bar(g)": 0.01, "bar(a)": 0.01, "bar(abs)": 0.01, "kPag": 0.1, "kPaa": 0.1,
+         "kPa(g)": 0.1, "kPa(abs)": 0.1, "kPa(a)": 0.1}

@@ -80,8 +80,12 @@ def test_differences_and_save_as_a_new_file(tmp_path):
     assert app.saved == variant
     saved = unitfile.load(variant)
     assert saved.drain.return_pressure == pytest.approx(unit.drain.return_pressure + PSI, rel=1e-8)
-    assert saved.valve.cv == pytest.approx(10 / 1.1, rel=1e-8)
+    # written as shown on screen (three figures), the rest of the user's file untouched
+    assert saved.valve.cv == pytest.approx(9.09, rel=1e-12)
     assert path.read_text(encoding="utf-8") == BASE_UNIT
+    original, written = BASE_UNIT.splitlines(), variant.read_text(encoding="utf-8").splitlines()
+    assert sorted(a for a, b in zip(original, written) if a != b) == ['cv = 10', 'return_pressure = "0 psig"']
+    assert 'return_pressure = "1 psig"' in written and "cv = 9.09" in written
 
 
 def test_saving_over_a_file_needs_a_yes(tmp_path):

@@ -35,3 +35,54 @@ def test_every_sample_round_trips_in_both_unit_systems(sample, system):
     a["site"].pop("basis"), b["site"].pop("basis")
     _close(a, b)
     assert again.system == system
+
+
+@pytest.mark.parametrize("sample", SAMPLES, ids=lambda p: p.name)
+def test_editing_a_sample_changes_only_the_changed_lines(sample):
+    # Every value explore changes, changed at once: the file written back differs from
+    # the user's only on those lines, in the user's own units, at the precision shown
+    # on screen, with comments kept; and it reads back to the changed values.
+    import difflib
+    from dataclasses import replace
+
+    from stallcheck import tui, unitwriter
+
+    text = sample.read_text(encoding="utf-8")
+    original = unitfile.parse(text, str(sample))
+    changed = original
+    for knob in ("lift", "return", "fill", "design", "minimum"):
+        changed = tui.nudged(changed, knob, +1, original.system)
+    edited = unitwriter.edit(text, original, changed, original.system)
+    diff = [line for line in difflib.unified_diff(text.splitlines(), edited.splitlines(), lineterm="", n=0)
+            if line[:1] in "+-" and not line.startswith(("+++", "---"))]
+    removed = [line[1:] for line in diff if line.startswith("-")]
+    changed_keys = ("lift", "return_pressure", "fill_head", "steam_pressure", "minimum")
+    assert all(line.split("=")[0].strip() in changed_keys for line in removed), removed
+    assert len(removed) <= 5
+    again = unitfile.parse(edited, "edited.toml")
+    # within the precision shown on screen
+    assert again.drain.lift == pytest.approx(changed.drain.lift, abs=0.005 * 0.3048 * 10)
+    assert again.drain.fill_head == pytest.approx(changed.drain.fill_head, abs=0.005 * 0.3048 * 10)
+    assert again.load.minimum == pytest.approx(changed.load.minimum, abs=0.005)
+    assert again.drain.return_pressure == pytest.approx(changed.drain.return_pressure, abs=350.0)
+    # the user's comments are all still there
+    comments = [line.split("#", 1)[1] for line in text.splitlines() if "#" in line]
+    assert all(c in edited for c in comments)
+
+
+def test_a_changed_value_keeps_the_file_s_own_unit_and_shown_precision():
+    from dataclasses import replace
+
+    from stallcheck import unitwriter
+
+    text = ('format = 1\n[unit]\nname = "t"\n[site]\nelevation = "850 ft"   # the plant\n[design]\nmedium = "air"\n'
+            'flow = "6000 cfm"\ninlet_temperature = "0 degF"\noutlet_temperature = "55 degF"\n'
+            'steam_pressure = "5 psig"\n[steam]\nsupply_pressure = "15 psig"\n[drain]\narrangement = "trap"\n'
+            'fill_head = "18 in"   # to the trap inlet\nlift = "0 ft"\nreturn_pressure = "0 psig"\n')
+    unit = unitfile.parse(text, "t.toml")
+    changed = replace(unit, drain=replace(unit.drain, return_pressure=unit.drain.return_pressure + 0.475072189 * 6894.757,
+                                          fill_head=unit.drain.fill_head + 0.3048))
+    edited = unitwriter.edit(text, unit, changed, "us")
+    assert 'return_pressure = "0.5 psig"' in edited
+    assert 'fill_head = "30 in"   # to the trap inlet' in edited
+    assert 'elevation = "850 ft"   # the plant' in edited and "atmospheric_pressure" not in edited
