@@ -206,9 +206,14 @@ def _limits(b, capacity, stall):
     n = len(b.units)
     everywhere = np.arange(n)
     low = np.array([s.load_fraction if s.occurs else LOWEST_LOAD for s in stall])
+    occurs = np.array([s.occurs for s in stall])
     full = gap(np.ones(n), everywhere) > 0
     start = gap(low, everywhere) > 0
     limit = np.where(full, 1.0, np.nan)
+    # At the stall point itself the trap cannot discharge, whatever the last bit of the
+    # differential says: where the shortfall there already reads zero, the limit is the
+    # stall point.
+    limit = np.where(occurs & ~start & ~full, low, limit)
     solve = np.flatnonzero(start & ~full & (low < 1.0))
     if solve.size:
         limit[solve] = illinois(lambda load, where: gap(load, solve[where]), low[solve], np.ones(solve.size),

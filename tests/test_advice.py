@@ -69,6 +69,12 @@ def _follow_every_figure(data: dict, source: str) -> int:
                     "psi": "differential"}[unit_text]
             back = quantities.from_display(float(number), kind, r.system, r.atmospheric_pressure)
             assert m.value == pytest.approx(back, rel=1e-9, abs=1e-9), (m.key, printed)
+    # the contract serialises every remedy, and prints the same words
+    from stallcheck.render import json as contract
+    served = contract.to_dict(r)
+    assert [x["note"] for x in served["remedies"]] == [m.note for m in r.remedies]
+    assert {x["unit_si"] for x in served["remedies"]} <= {"m", "Pa"}
+    assert all(m.note in " ".join(served["advice"]["text"]) for m in a.changes + a.cannot)
     applied = 0
     for m in a.changes:
         if m.value is None:

@@ -35,9 +35,10 @@ arrangement = "{arrangement}"
 fill_head = "{fill!r} {l_unit}"
 lift = "{lift!r} {l_unit}"
 return_pressure = "{p_return!r} {p_unit}"
+trap_min_differential = "{dpmin!r} {d_unit}"
 """
-SI_UNITS = dict(t_unit="degC", p_unit="kPag", l_unit="m")
-US_UNITS = dict(t_unit="degF", p_unit="psig", l_unit="ft")
+SI_UNITS = dict(t_unit="degC", p_unit="kPag", l_unit="m", d_unit="kPa")
+US_UNITS = dict(t_unit="degF", p_unit="psig", l_unit="ft", d_unit="psi")
 
 units = st.fixed_dictionaries({
     "medium": st.sampled_from(["air", "water"]),
@@ -53,6 +54,7 @@ units = st.fixed_dictionaries({
     "characteristic": st.sampled_from(["equal-percentage", "linear"]),
     "minimum": st.sampled_from([0.0, 0.2, 0.5]),
     "arrangement": st.sampled_from(["trap", "trap-vacuum-breaker", "pump-trap", "constant-purge"]),
+    "dpmin": st.sampled_from([0.0, 0.0, 1.0, 5.0, 15.0]),
 })
 
 
@@ -65,7 +67,8 @@ def _values(d, **over):
                 flow_unit="m3/s" if d["medium"] == "air" else "m3/h", t_in=t_in, t_out=d["t_out"],
                 p_design=d["p_design"], n=d["n"], p_supply=d["p_design"] + d.get("supply_margin", 150.0),
                 cv=d["cv"], characteristic=d["characteristic"], varies=d["varies"], minimum=d["minimum"],
-                arrangement=d["arrangement"], fill=d["fill"], lift=d["lift"], p_return=d["p_return"])
+                arrangement=d["arrangement"], fill=d["fill"], lift=d["lift"], p_return=d["p_return"],
+                dpmin=d.get("dpmin", 0.0))
 
 
 def build(d, **over):
@@ -95,7 +98,8 @@ def us_text(d):
               flow_unit="cfm" if air else "gpm",
               t_in=to(v["t_in"], "degC", "degF"), t_out=to(v["t_out"], "degC", "degF"),
               p_design=to(v["p_design"], "kPa", "psi"), p_supply=to(v["p_supply"], "kPa", "psi"),
-              fill=to(v["fill"], "m", "ft"), lift=to(v["lift"], "m", "ft"), p_return=to(v["p_return"], "kPa", "psi"))
+              fill=to(v["fill"], "m", "ft"), lift=to(v["lift"], "m", "ft"), p_return=to(v["p_return"], "kPa", "psi"),
+              dpmin=to(v["dpmin"], "kPa", "psi"))
     return TEMPLATE.format(**us, **US_UNITS)
 
 
