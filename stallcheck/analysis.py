@@ -122,18 +122,14 @@ def _screen(units: list[Unit]) -> list[InputError | None]:
                 f"the set point {q.show(d.outlet_temperature, 'temperature', system)} is not below the steam "
                 f"temperature at design.steam_pressure ({q.show(float(t_steam[i]), 'temperature', system)}); the "
                 f"coil cannot heat to it. Raise the design steam pressure or lower the set point.", file=u.source)
-        elif u.drain.return_pressure < properties.P_MIN:
-            errors[i] = InputError("drain.return_pressure", "is below 0.61 kPa(abs), under the triple point of "
-                                   "water; check the gauge/absolute spelling.", file=u.source)
-        elif d.medium.endswith("glycol") and d.inlet_temperature <= _freezing(d) + 0.5:
+        elif d.medium.endswith("glycol") and d.inlet_temperature <= (t_freeze := _freezing(d)) + 0.5:
             errors[i] = InputError(
                 "design.inlet_temperature",
                 f"{q.show(d.inlet_temperature, 'temperature', system)} is at or below the freezing point of "
-                f"{d.concentration:.0%} {d.medium} ({q.show(_freezing(d), 'temperature', system)}, from CoolProp's "
+                f"{d.concentration:.0%} {d.medium} ({q.show(t_freeze, 'temperature', system)}, from CoolProp's "
                 f"mixture data); accepted: warmer than that.", file=u.source)
-        elif (u.drain.return_temperature is not None
-              and u.drain.return_temperature > properties.saturation_temperature(u.drain.return_pressure) + 0.5):
-            t_sat = float(properties.saturation_temperature(u.drain.return_pressure))
+        elif (u.drain.return_temperature is not None and u.drain.return_temperature
+              > (t_sat := float(properties.saturation_temperature(u.drain.return_pressure))) + 0.5):
             errors[i] = InputError(
                 "drain.return_temperature",
                 f"{q.show(u.drain.return_temperature, 'temperature', system)} is hotter than water boils at the "
@@ -310,8 +306,8 @@ def _analyse(units: list[Unit], systems: list[str], tabulate: bool = True) -> li
         f = LOAD_GRID[None, :]
         steam_t, coil_p, steam_flow = b.state(np.broadcast_to(f, (n, LOAD_GRID.size)))
         differential = coil_p + b.fill[:, None] - b.back[:, None]
-        grid = (steam_t, coil_p, steam_flow, differential, differential <= b.trap_min[:, None] - drainage.PRESSURE_TOLERANCE,
-                coilmod.inlet_temperature(b.coil.column(), f))
+        stalled = differential <= b.trap_min[:, None] - drainage.PRESSURE_TOLERANCE
+        grid = (steam_t, coil_p, steam_flow, differential, stalled, coilmod.inlet_temperature(b.coil.column(), f))
 
     valves, opening = _valves(b, None if grid is None else grid[1], None if grid is None else grid[2])
 
