@@ -133,8 +133,8 @@ def rows(path: str | Path) -> Iterator[tuple[int, dict | InputError]]:
             continue
         units += 1
         if end > line or any("\n" in cell or "\r" in cell for cell in record):
-            what = ("a quoted cell is not closed: every later line was read into it"
-                    if end == reader.line_num and _unclosed(text) else "a cell runs over more than one line")
+            what = ("a quoted cell is not closed: every later line was read into it" if _unclosed(text)
+                    else "a cell runs over more than one line")
             yield line, InputError("", f"{what}; close each quoted cell on its own line.", file=source, line=line)
             continue
         if len(record) != len(columns):

@@ -304,7 +304,8 @@ def pressure(key: str, text, absolute_only: bool = False) -> Pressure:
 
 def _gauge_hint(key: str, text: str, unit: str, absolute_only: bool, accepted: str) -> str:
     """What to write for a pressure that says neither gauge nor absolute: the user's
-    own psi, bar or kPa with g or a added; any other pressure unit converted to kPa."""
+    own psi, bar or kPa with g or a added; any other pressure unit converted to psi
+    (inch units) or kPa."""
     number, _ = _split(key, text, "15 psig")
     base = {"pound_force_per_square_inch": "psi", "bar": "bar", "kilopascal": "kPa"}.get(unit)
     mercury = "Hg" in unit or "mercury" in unit
