@@ -16,6 +16,7 @@ import pytest
 from hypothesis import given, settings
 
 from stallcheck import analysis, unitfile
+from stallcheck.errors import InputError
 from stallcheck.render import advice
 from conftest import SAMPLES
 from test_properties_of_units import si_text, us_text, units as generated_units
@@ -36,6 +37,45 @@ def _printed_figure(note: str) -> str:
     match = FIGURE.search(note)
     assert match, note
     return f"{match.group(1).replace(',', '')} {match.group(2)}"
+
+
+#: One printed step of each figure, SI, by unit printed: 0.01 m or 0.1 ft, 0.01 bar or
+#: 0.1 psi, 0.1 kPa or 0.01 psi.
+STEP = {"m": 0.01, "ft": 0.03048, "barg": 1000.0, "psig": 689.4757293168, "kPa": 100.0, "psi": 68.94757293168}
+#: Which way a figure becomes less safe: a larger lift, return pressure or trap
+#: differential; a smaller fill head or design pressure.
+UNSAFE = {"drain.lift": 1, "drain.return_pressure": 1, "drain.trap_min_differential": 1, "drain.fill_head": -1,
+          "design.steam_pressure": -1}
+
+
+def _spare(unit, minimum) -> float:
+    """The differential the installed drain has to spare at the minimum load [Pa], by
+    the stall rule itself: coil pressure there less the stall pressure, or with a vacuum
+    breaker, atmospheric less 1/4 psi less the stall pressure where that is more."""
+    r = analysis.analyse(unit)
+    p_min = float(analysis.state_at(unit, r, [minimum])[1][0])
+    spare = p_min - r.stall.threshold_pressure
+    if unit.drain.arrangement == "trap-vacuum-breaker":
+        spare = max(spare, r.atmospheric_pressure - 0.25 * 6894.757293168 - r.stall.threshold_pressure)
+    return spare
+
+
+def _keeps_the_margin(data: dict, source: str, m, unit) -> None:
+    """A figure, applied, leaves the stated 1 kPa to spare; one printed step the unsafe
+    way it does not (the figure is rounded in the safe direction, no further)."""
+    printed = _printed_figure(m.note)
+    number, unit_text = printed.split()
+    if m.key == "drain.fill_head" and float(number) == 0.0:
+        return  # no fill head at all: nothing less safe exists
+    applied = _apply(data, m.key, printed, source)
+    assert _spare(applied, unit.load.minimum) >= 1000.0 * (1 - 1e-9), (source, m.key, printed)
+    beyond = float(number) + UNSAFE[m.key] * STEP[unit_text] / {"m": 1, "ft": 0.3048, "barg": 1e5, "psig": 6894.757293168,
+                                                                 "kPa": 1e3, "psi": 6894.757293168}[unit_text]
+    try:
+        further = _apply(data, m.key, f"{beyond!r} {unit_text}", source)
+    except InputError:
+        return  # a step beyond is not even a valid unit file (a negative lift, say)
+    assert _spare(further, unit.load.minimum) < 1000.0, (source, m.key, printed, beyond)
 
 
 def _follow_every_figure(data: dict, source: str) -> int:
@@ -80,6 +120,7 @@ def _follow_every_figure(data: dict, source: str) -> int:
         if m.value is None:
             continue
         printed = _printed_figure(m.note)
+        _keeps_the_margin(data, source, m, unit)
         again = analysis.analyse(_apply(data, m.key, printed, source))
         assert again.drainage.adequate, (source, m.key, printed, m.note)
         if unit.drain.arrangement in ("trap", "constant-purge"):
