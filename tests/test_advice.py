@@ -316,6 +316,9 @@ def test_figures_for_a_unit_run_down_to_no_load_say_so():
     notes = [m.note for m in r.remedies if m.key in ("drain.lift", "drain.trap_min_differential")]
     assert notes and all(" drain it at every load:" in n and "down to 0%" not in n for n in notes)
     assert "load.minimum is 0" in " ".join(advice.advise(r, r.system).notes)
+    # at no load the coil needs only the set point's pressure, whatever its size
+    design = next(m for m in r.remedies if m.key == "design.steam_pressure")
+    assert design.status == "impossible" and design.note.startswith("no design pressure does it: at no load")
 
 
 def test_a_vacuum_breaker_acts_at_exactly_a_quarter_psi_of_gravity():

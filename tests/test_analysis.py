@@ -144,3 +144,14 @@ def test_set_point_at_steam_temperature_is_an_input_error():
     from stallcheck.errors import InputError
     with pytest.raises(InputError, match="design.outlet_temperature"):
         analysis.analyse(unit(**{'outlet_temperature = "50 degF"': 'outlet_temperature = "240 degF"'}))
+
+
+def test_points_of_a_unit_whose_load_follows_its_flow_keep_the_design_inlet():
+    # With the flow varying, the entering temperature is the design one at every load
+    # (the unit-file conventions): 10 °C for the sample water heater, as its file says.
+    from conftest import SAMPLES
+
+    sample = next(p for p in SAMPLES if p.name == "si_water_heater.toml")
+    r = analysis.analyse(unitfile.load(sample))
+    assert r.varies == "flow"
+    assert np.all(np.abs(r.points.inlet_temperature - 283.15) < 1e-9)

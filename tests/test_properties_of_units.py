@@ -22,6 +22,7 @@ inlet_temperature = "{t_in!r} {t_unit}"
 outlet_temperature = "{t_out!r} {t_unit}"
 steam_pressure = "{p_design!r} {p_unit}"
 ua_flow_exponent = {n}
+method = "{method}"
 [steam]
 supply_pressure = "{p_supply!r} {p_unit}"
 [valve]
@@ -55,6 +56,7 @@ units = st.fixed_dictionaries({
     "minimum": st.sampled_from([0.0, 0.2, 0.5]),
     "arrangement": st.sampled_from(["trap", "trap-vacuum-breaker", "pump-trap", "constant-purge"]),
     "dpmin": st.sampled_from([0.0, 0.0, 1.0, 5.0, 15.0]),
+    "method": st.sampled_from(["ntu", "ntu", "mean-temperature"]),
 })
 
 
@@ -68,7 +70,7 @@ def _values(d, **over):
                 p_design=d["p_design"], n=d["n"], p_supply=d["p_design"] + d.get("supply_margin", 150.0),
                 cv=d["cv"], characteristic=d["characteristic"], varies=d["varies"], minimum=d["minimum"],
                 arrangement=d["arrangement"], fill=d["fill"], lift=d["lift"], p_return=d["p_return"],
-                dpmin=d.get("dpmin", 0.0))
+                dpmin=d.get("dpmin", 0.0), method=d.get("method", "ntu"))
 
 
 def build(d, **over):

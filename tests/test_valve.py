@@ -2,6 +2,8 @@
 against the published simplified steam formula of UFC 3-410-02A, and the
 characteristic against its defining formula."""
 
+import math
+
 import numpy as np
 import pytest
 from fluids.control_valve import Kv_to_Cv, size_control_valve_g
@@ -72,6 +74,8 @@ def test_equal_percentage_half_travel():
     assert valve.travel(0.14142136, "equal-percentage", 50) == pytest.approx(0.5, rel=1e-6)
     # below the smallest controllable fraction (1/R) the valve is shut
     assert valve.travel(0.01, "equal-percentage", 50) == 0.0
+    # hand calculation: h = 1 + ln(0.03)/ln(50) = 0.10364 (just above 1/R = 0.02)
+    assert valve.travel(0.03, "equal-percentage", 50) == pytest.approx(1 + math.log(0.03) / math.log(50), rel=1e-12)
     assert valve.travel(0.3, "linear", 50) == pytest.approx(0.3)
 
 
