@@ -329,3 +329,32 @@ def test_a_vacuum_breaker_acts_at_exactly_a_quarter_psi_of_gravity():
     assert drainage.vacuum_breaker_acts(atm - drainage.GRAVITY_MARGIN, atm)
     assert not drainage.vacuum_breaker_acts(atm - drainage.GRAVITY_MARGIN + 1.0, atm)
     assert drainage.GRAVITY_MARGIN == pytest.approx(0.25 * 6894.757, rel=1e-6)
+
+
+def _branch_units():
+    """Units built to reach every kind of figure: a design pressure and a trap
+    differential to change, a fill head to add, and margins with a vacuum breaker."""
+    change = _unit(fill_head="24 in", trap_min_differential="0.5 psi")
+    change["steam"]["supply_pressure"] = "60 psig"
+    change["load"]["minimum"] = 0.9
+    margins = _unit(fill_head="24 in", arrangement="trap-vacuum-breaker")
+    margins["load"]["minimum"] = 0.3
+    plain = _unit(fill_head="30 in", return_pressure="-10 psig")
+    plain["load"]["minimum"] = 0.6
+    return {"changes": change, "breaker-margins": margins, "plain-margins": plain}
+
+
+@pytest.mark.parametrize("name", ["changes", "breaker-margins", "plain-margins"])
+def test_every_kind_of_figure_holds_when_followed(name):
+    data = _branch_units()[name]
+    r = analysis.analyse(unitfile.from_data(data, f"{name}.toml"))
+    statuses = {m.key: m.status for m in r.remedies}
+    if name == "changes":
+        # every figure a change that can be made here, the design pressure and trap included
+        assert not r.drainage.adequate
+        assert statuses["design.steam_pressure"] == "change" and statuses["drain.trap_min_differential"] == "change"
+        assert all(m.achievable for m in r.remedies if m.key in ("design.steam_pressure", "drain.fill_head"))
+    else:
+        assert r.drainage.adequate and set(statuses.values()) <= {"margin", "any"}
+    applied = _follow_every_figure(data, f"{name}.toml")
+    assert applied >= 3
