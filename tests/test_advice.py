@@ -120,6 +120,10 @@ def _follow_every_figure(data: dict, source: str) -> int:
         if m.value is None:
             continue
         printed = _printed_figure(m.note)
+        more = re.search(r"\(now (-?[\d.]+) (m|ft): (-?[\d.]+) (m|ft) more\)", m.note)
+        if more:  # "at least X (now Y: Z more)": Z is X less Y, to the printed step
+            assert float(more.group(3)) == pytest.approx(float(printed.split()[0]) - float(more.group(1)),
+                                                         abs=0.1 + 1e-9), m.note
         _keeps_the_margin(data, source, m, unit)
         again = analysis.analyse(_apply(data, m.key, printed, source))
         assert again.drainage.adequate, (source, m.key, printed, m.note)
