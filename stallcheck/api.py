@@ -88,21 +88,15 @@ def survey_rows(paths: str | Path | Iterable[str | Path], units: str | None = No
     """Survey unit files, folders of them and CSV tables: one row per unit, worst first
     (the columns of ``stallcheck survey --csv``), then a row per unit that could not be
     read, with its message under ``error``."""
-    from stallcheck import quantities as q
     import importlib
+
+    from stallcheck.render import survey as table
 
     surveymod = importlib.import_module("stallcheck.survey")
 
     if isinstance(paths, (str, Path)):
         paths = [paths]
-    summaries, failures = surveymod.run(list(paths), system=units, method=method)
-    rows = [{"source": s.source, "name": s.name, "tag": s.tag, "stall_load_fraction": s.stall_fraction,
-             "stall_inlet_temperature_c": q.celsius(s.stall_inlet_temperature), "required": s.required,
-             "installed": s.installed, "adequate": s.adequate, "stalled_hours": s.stalled_hours,
-             "top_finding": s.top_code, "top_severity": s.top_severity, "exit_status": s.exit_status,
-             "error": None} for s in summaries]
-    rows += [{"source": f.source, "exit_status": 2, "error": f.message} for f in failures]
-    return rows
+    return table.records(*surveymod.run(list(paths), system=units, method=method))
 
 
 def survey_frame(paths: str | Path | Iterable[str | Path], units: str | None = None,

@@ -19,6 +19,7 @@ from stallcheck import analysis, coil as coilmod, layout, properties
 from stallcheck import quantities as q
 from stallcheck.constants import GRAVITY
 from stallcheck.devices import MOTIVE_MARGIN, TrapCapacity
+from stallcheck.drainage import FIT_WORDS
 from stallcheck.errors import InputError
 from stallcheck.findings import POOR_AT_LOW_DIFFERENTIAL
 from stallcheck.inputs import Unit
@@ -204,14 +205,12 @@ REQUIRES = {
 #: about 1 inHg (common practice, from memory; breakers open at a fraction of an inch).
 BREAKER_VACUUM = 3386.389
 
-_REQUIRED_WORDS = {"trap": "a trap", "trap-vacuum-breaker": "a vacuum breaker on the coil",
-                   "pump-trap": "a pump-trap (or a pump and receiver)"}
 
 
 def drain_context(r: Result) -> dict:
     """The words the remedies fill in from the check: never prescribe what is fitted."""
     dr = r.drainage
-    required = _REQUIRED_WORDS[dr.required]
+    required = FIT_WORDS[dr.required]
     if dr.adequate and dr.required != "trap":
         drain = (f"The installed {dr.installed} should drain it at this load: test it before adding anything "
                  f"(see the causes on the installed equipment below, if listed).")

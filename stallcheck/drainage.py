@@ -36,6 +36,14 @@ PRESSURE_TOLERANCE = 10.0
 #: practice).
 GRAVITY_MARGIN = SELECTION_DIFFERENTIAL
 
+#: What fitting each required arrangement means, in words (the "what to do" section and
+#: diagnose's remedies say the same).
+FIT_WORDS = {
+    "trap": "a trap",
+    "trap-vacuum-breaker": "a vacuum breaker on the coil (a trap-vacuum-breaker arrangement)",
+    "pump-trap": "a pump-trap (or a pump and receiver)",
+}
+
 #: What each installed arrangement can cope with: the required arrangements it covers.
 COVERS = {
     "trap": {"trap"},

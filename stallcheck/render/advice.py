@@ -14,14 +14,10 @@ from __future__ import annotations
 from dataclasses import dataclass
 
 from stallcheck import quantities as q
+from stallcheck.drainage import FIT_WORDS
 from stallcheck.remedies import MARGIN
 from stallcheck.result import Remedy, Result
 
-_REQUIRED_WORDS = {
-    "trap-vacuum-breaker": "a vacuum breaker on the coil (a trap-vacuum-breaker arrangement)",
-    "pump-trap": "a pump-trap (or a pump and receiver)",
-    "trap": "a trap",
-}
 
 
 @dataclass(frozen=True)
@@ -68,7 +64,7 @@ def advise(r: Result, system: str) -> Advice:
         notes += ("load.minimum is 0, so these figures must drain the coil at no load at all; give the lowest "
                   "load the unit really runs at for figures that can be met.",)
     if not dr.adequate:
-        lead = [f"Fit {_REQUIRED_WORDS[dr.required]}: the installed {installed} cannot drain this coil wherever "
+        lead = [f"Fit {FIT_WORDS[dr.required]}: the installed {installed} cannot drain this coil wherever "
                 f"it runs (see drainage)."]
         changes = tuple(m for m in r.remedies if m.status == "change" and m.achievable)
         cannot = tuple(m for m in r.remedies if m not in changes and m.status != "any")

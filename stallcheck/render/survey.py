@@ -94,17 +94,25 @@ CSV_COLUMNS = ("source", "name", "tag", "stall_load_fraction", "stall_inlet_temp
                "installed", "adequate", "stalled_hours", "top_finding", "top_severity", "exit_status", "error")
 
 
+def records(summaries: list[Summary], failures: list[Failure]) -> list[dict]:
+    """One record per unit with the :data:`CSV_COLUMNS` as keys (SI: °C; None where not
+    known), the failures last with their messages under ``error``."""
+    out = [dict(zip(CSV_COLUMNS, (s.source, s.name, s.tag, s.stall_fraction, q.celsius(s.stall_inlet_temperature),
+                                  s.required, s.installed, s.adequate, s.stalled_hours, s.top_code,
+                                  s.top_severity, s.exit_status, None)))
+           for s in summaries]
+    out += [dict.fromkeys(CSV_COLUMNS) | {"source": f.source, "exit_status": 2, "error": f.message} for f in failures]
+    return out
+
+
 def csv_text(summaries: list[Summary], failures: list[Failure]) -> str:
-    """One row per unit (SI: °C), the failures last with their messages."""
+    """:func:`records` as CSV: numbers to six figures, yes/no, blanks for unknowns."""
     buffer = io.StringIO()
     writer = csv.writer(buffer, lineterminator="\n")
     writer.writerow(CSV_COLUMNS)
-    for s in summaries:
-        writer.writerow([s.source, s.name, s.tag, _num(s.stall_fraction), _num(q.celsius(s.stall_inlet_temperature)),
-                         s.required, s.installed, "yes" if s.adequate else "no", _num(s.stalled_hours),
-                         s.top_code or "", s.top_severity or "", s.exit_status, ""])
-    for f in failures:
-        writer.writerow([f.source, "", "", "", "", "", "", "", "", "", "", 2, f.message])
+    for row in records(summaries, failures):
+        writer.writerow(["yes" if v is True else "no" if v is False else _num(v) if isinstance(v, float)
+                         else "" if v is None else v for v in row.values()])
     return buffer.getvalue()
 
 
