@@ -19,7 +19,7 @@ from typing import Iterator
 
 from stallcheck import quantities as q
 from stallcheck.errors import InputError
-from stallcheck.unitfile import _KNOWN, MAX_FILE_BYTES, known_key, read_text, unknown_key
+from stallcheck.unitfile import MAX_FILE_BYTES, known_key, read_text, unknown_key
 
 #: Largest CSV read [bytes]: a table of many thousands of units.
 MAX_CSV_BYTES = 100 * MAX_FILE_BYTES
@@ -83,13 +83,9 @@ def _columns(header: list[str], source: str) -> list[_Column]:
         key, unit = match.group(1), match.group(2)
         if not known_key(key):
             section, _, name = key.rpartition(".")
-            if section in _KNOWN:
-                error = unknown_key(section, name).in_file(source)
-                error.line = 1
-                raise error
-            raise InputError(key, f"unknown key; a column is named by a key of the unit file, such as "
-                                  f"\"drain.lift\"; sections: {', '.join(sorted(k for k in _KNOWN if k))}.",
-                             file=source, line=1)
+            error = unknown_key(section, name).in_file(source)
+            error.line = 1
+            raise error
         if key in seen:
             raise InputError(key, "appears in two columns.", file=source, line=1)
         seen.add(key)

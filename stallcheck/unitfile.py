@@ -177,9 +177,13 @@ def from_data(data: dict, source: str, line: int | None = None) -> Unit:
 
 
 def unknown_key(section: str, key: str) -> InputError:
-    """The error for a key the format does not know, naming the nearest known key."""
-    known = _KNOWN[section]
+    """The error for a key the format does not know, naming the nearest known key (or,
+    for a section the format does not have, the sections it has)."""
     full = f"{section}.{key}" if section else key
+    if section not in _KNOWN:
+        return InputError(full, f"unknown key; a key of the unit file is written as \"drain.lift\"; sections: "
+                                f"{', '.join(sorted(k for k in _KNOWN if k))}.")
+    known = _KNOWN[section]
     near = difflib.get_close_matches(key, sorted(known), n=1, cutoff=0.6)
     where = f"[{section}]" if section else "the top level"
     hint = (f"did you mean '{near[0]}'?" if near else f"known keys in {where}: {', '.join(sorted(known))}.")
