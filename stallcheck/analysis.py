@@ -311,20 +311,20 @@ def _analyse(units: list[Unit], systems: list[str], tabulate: bool = True) -> li
 
     valves, opening = _valves(b, None if grid is None else grid[1], None if grid is None else grid[2])
 
-    # drainage verdicts (words, per unit)
+    # drainage verdicts (per unit)
     drains, effective = [], []
     for i, u in enumerate(units):
         s = stall[i]
-        atm = b.atm[i]
-        need = drainage.requirement(s.load_fraction or 0.0, s.in_range, b.threshold[i], atm,
-                                    lambda pa, kind, system=systems[i], atm=atm: q.show(pa, kind, system, atm))
+        need = drainage.requirement(s.load_fraction or 0.0, s.in_range, float(b.threshold[i]), float(b.atm[i]))
         ok, why = drainage.adequacy(u.drain.arrangement, need.required)
-        drains.append(Drainage(u.drain.arrangement, need.required, ok, (need.reason, why)))
+        drains.append(Drainage(u.drain.arrangement, need.required, ok, need.reason, why, need.facts))
         effective.append(u.drain.arrangement if ok else need.required)
 
     traps = devices.trap_figures(b, effective, stall, p_min, w_min)
     flashes = devices.flash_figures(b)
-    fixes = remedies.solve(b, p_min, [d.adequate for d in drains], systems)
+    rounders = [lambda value, kind, up, system=systems[i], atm=float(b.atm[i]): q.rounded(value, kind, system, atm, up=up)
+                for i in range(n)]
+    fixes = remedies.solve(b, p_min, [d.adequate for d in drains], rounders)
 
     results = []
     for i, u in enumerate(units):
@@ -355,7 +355,7 @@ def _analyse(units: list[Unit], systems: list[str], tabulate: bool = True) -> li
             assumptions=_assumptions(u, bool(clipped[i]), traps[i]), trap=traps[i], pump_trap=pump, purge=purge,
             flash=flashes[i], remedies=fixes[i], warnings=u.warnings,
             set_point_floor_load=float(floor_load[i]))
-        results.append(replace(result, findings=findings.core(u, result, systems[i])))
+        results.append(replace(result, findings=findings.core(u, result)))
     return results
 
 

@@ -19,7 +19,7 @@ from stallcheck import analysis, coil as coilmod, layout, properties
 from stallcheck import quantities as q
 from stallcheck.constants import GRAVITY
 from stallcheck.devices import MOTIVE_MARGIN, TrapCapacity
-from stallcheck.drainage import FIT_WORDS
+from stallcheck.render.words import FIT as FIT_WORDS
 from stallcheck.errors import InputError
 from stallcheck.findings import POOR_AT_LOW_DIFFERENTIAL
 from stallcheck.inputs import Unit

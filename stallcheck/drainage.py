@@ -36,14 +36,6 @@ PRESSURE_TOLERANCE = 10.0
 #: practice).
 GRAVITY_MARGIN = SELECTION_DIFFERENTIAL
 
-#: What fitting each required arrangement means, in words (the "what to do" section and
-#: diagnose's remedies say the same).
-FIT_WORDS = {
-    "trap": "a trap",
-    "trap-vacuum-breaker": "a vacuum breaker on the coil (a trap-vacuum-breaker arrangement)",
-    "pump-trap": "a pump-trap (or a pump and receiver)",
-}
-
 #: What each installed arrangement can cope with: the required arrangements it covers.
 COVERS = {
     "trap": {"trap"},
@@ -72,11 +64,14 @@ class Requirement:
     required : str
         ``"trap"``, ``"trap-vacuum-breaker"`` or ``"pump-trap"``.
     reason : str
-        In plain words, with the pressures that decide it.
+        Why (the codes of :class:`stallcheck.result.Drainage`'s ``requirement``).
+    facts : dict
+        The SI figures that decide it (see :class:`stallcheck.result.Drainage`).
     """
 
     required: str
     reason: str
+    facts: dict
 
 
 def stalls_in_range(stall_fraction, minimum, stall_pressure_, coil_pressure_at_minimum):
@@ -96,7 +91,7 @@ def vacuum_breaker_acts(stall_pressure_, atmospheric):
 
 
 def requirement(stall_fraction: float, in_range: bool, stall_pressure_: float,
-                atmospheric: float, words) -> Requirement:
+                atmospheric: float) -> Requirement:
     """Choose the drainage from the computed pressures.
 
     * never stalls above the minimum load → a plain trap;
@@ -116,9 +111,6 @@ def requirement(stall_fraction: float, in_range: bool, stall_pressure_: float,
         Coil pressure at which the trap stops discharging. [Pa]
     atmospheric : float
         Site atmospheric pressure. [Pa]
-    words : callable
-        ``words(pa, kind)`` formats a pressure [Pa] (``kind`` ``"pressure"`` or
-        ``"differential"``) for the reason text (display units).
 
     References
     ----------
@@ -126,42 +118,19 @@ def requirement(stall_fraction: float, in_range: bool, stall_pressure_: float,
        float-and-thermostatic traps with vacuum breakers on modulating equipment,
        sized at 1/4 psi differential.
     """
+    facts = {"load": stall_fraction, "stall_pressure": stall_pressure_}
     if not in_range:
-        if stall_fraction > 0:
-            why = (f"it stalls only below {stall_fraction:.0%} load, at or under its minimum load, so a trap "
-                   f"alone drains it wherever it runs")
-        else:
-            why = "the coil pressure stays above the stall pressure at every load, so a trap alone drains it"
-        return Requirement("trap", why)
-    where = (f"it stalls below {stall_fraction:.0%} load, where the coil pressure falls to "
-             f"{words(stall_pressure_, 'pressure')}" if stall_fraction < 1 else
-             f"it stalls at every load: the trap needs the coil above {words(stall_pressure_, 'pressure')}, "
-             f"more than it has at full load")
+        return Requirement("trap", "below-minimum" if stall_fraction > 0 else "never", facts)
     gravity = atmospheric - stall_pressure_
+    facts.update(gravity=gravity, wanted=GRAVITY_MARGIN)
     if vacuum_breaker_acts(stall_pressure_, atmospheric):
-        return Requirement(
-            "trap-vacuum-breaker",
-            f"{where}; a vacuum breaker holds the coil at atmospheric pressure there, and the fill head then "
-            f"drives the condensate through the trap by gravity with {words(gravity, 'differential')} to spare "
-            f"(at least {words(GRAVITY_MARGIN, 'differential')} wanted)")
-    if gravity > 0:
-        return Requirement(
-            "pump-trap",
-            f"{where}; a vacuum breaker would leave gravity only {words(gravity, 'differential')} across the trap, "
-            f"less than the {words(GRAVITY_MARGIN, 'differential')} a trap is sized at, so a pump-trap (or pump "
-            f"and receiver) must move the condensate, or more fill head must be found (see what to do)")
-    return Requirement(
-        "pump-trap",
-        f"{where}; that is at or above atmospheric, and a vacuum breaker cannot help against "
-        f"that back pressure, so a pump-trap (or pump and receiver) must lift the condensate")
+        return Requirement("trap-vacuum-breaker", "vacuum-breaker", facts)
+    return Requirement("pump-trap", "gravity-short" if gravity > 0 else "above-atmospheric", facts)
 
 
 def adequacy(installed: str, required: str) -> tuple[bool, str]:
-    """Whether what is installed does the job required, with the reason."""
-    ok = required in COVERS[installed]
-    if ok:
-        return True, f"the installed {installed} covers what is required ({required})"
-    if installed == "constant-purge":
-        return False, ("a constant purge keeps steam flowing only while the coil pressure is above the "
-                       f"back pressure; it cannot drain a coil that stalls ({required} required)")
-    return False, f"the installed {installed} cannot drain the coil while it stalls ({required} required)"
+    """Whether what is installed does the job required, with the reason's code
+    (``"covers"``, ``"purge"``: a purge cannot drain a stall, or ``"cannot"``)."""
+    if required in COVERS[installed]:
+        return True, "covers"
+    return False, "purge" if installed == "constant-purge" else "cannot"

@@ -15,20 +15,27 @@ has a closed-form inverse.
 Advice must survive being followed, so every limit is moved :data:`MARGIN` beyond the
 exact one, and the figure is then rounded at the precision it is printed in, in the safe
 direction (a largest value down, a smallest value up): the figure as printed, put in the
-unit file, gives an adequate verdict. A pump-trap drains at every load, so it has no
-remedies here.
+unit file, gives an adequate verdict. The precision is the caller's (``rounders``: the
+unit system the figure will be printed in); this module builds no words: each remedy
+carries a reason code and its SI facts, and :mod:`stallcheck.render.words` says it. A
+pump-trap drains at every load, so it has no remedies here.
 """
 
 from __future__ import annotations
 
 import numpy as np
 
+from typing import Callable
+
 from stallcheck import coil as coilmod
 from stallcheck import drainage, properties
-from stallcheck import quantities as q
-from stallcheck.inputs import Unit
 from stallcheck.constants import GRAVITY
+from stallcheck.inputs import Unit
 from stallcheck.result import Remedy
+
+#: ``round(value, kind, up)``: an SI value [Pa or m] rounded at the precision it is
+#: printed in, down (or up), returning the SI value of the printed figure.
+Rounder = Callable[[float, str, bool], float]
 
 #: Differential every remedy figure leaves across the trap beyond its exact limit [Pa]
 #: (1 kPa: 0.15 psi, about 10 cm of water), before rounding in the safe direction.
@@ -49,7 +56,7 @@ def targets(b, p_min):
     return np.maximum(p_min, breaker) - MARGIN
 
 
-def solve(b, p_min, adequate, systems) -> list[tuple[Remedy, ...]]:
+def solve(b, p_min, adequate, rounders: list[Rounder]) -> list[tuple[Remedy, ...]]:
     """The limit of each single change (see the module docstring), for every unit of a
     batch.
 
@@ -61,8 +68,8 @@ def solve(b, p_min, adequate, systems) -> list[tuple[Remedy, ...]]:
     adequate : list of bool
         Whether each unit's installed drainage is adequate now: its remedies are then
         margins (how far each value can go), else changes.
-    systems : list of str
-        ``"si"`` or ``"us"`` for each unit's words and rounding.
+    rounders : list of callable
+        For each unit, how its figures are rounded as printed (:data:`Rounder`).
 
     Returns
     -------
@@ -86,10 +93,10 @@ def solve(b, p_min, adequate, systems) -> list[tuple[Remedy, ...]]:
         if u.drain.arrangement == "pump-trap":
             out.append(())
             continue
-        words = _Words(u, systems[i], bool(adequate[i]))
-        out.append((words.lift(float(lift[i])), words.return_pressure(float(r[i])),
-                    words.trap(float(dp[i]), float(b.back[i] - b.fill[i])), words.fill(float(fill[i])),
-                    words.design(design_t[i], float(b.threshold[i]), float(target[i]) + MARGIN > p_min[i])))
+        rule = _Limits(u, rounders[i], bool(adequate[i]))
+        out.append((rule.lift(float(lift[i])), rule.return_pressure(float(r[i])),
+                    rule.trap(float(dp[i]), float(b.back[i] - b.fill[i])), rule.fill(float(fill[i])),
+                    rule.design(design_t[i], float(b.threshold[i]), float(target[i]) + MARGIN > p_min[i])))
     return out
 
 
@@ -116,49 +123,32 @@ def _design_temperatures(b) -> list:
     return out
 
 
-class _Words:
-    """Builds one unit's remedies: the safe rounding of each figure and its note."""
+class _Limits:
+    """One unit's remedies: the safe rounding of each figure, its status and the reason
+    its note gives."""
 
-    def __init__(self, unit: Unit, system: str, adequate: bool):
+    def __init__(self, unit: Unit, rounder: Rounder, adequate: bool):
         self.unit = unit
-        self.system = system
-        self.atm = unit.site.atmospheric_pressure
+        self.rounder = rounder
         self.adequate = adequate
-        f_min = unit.load.minimum
-        self.down_to = f"down to {f_min:.0%} load" if f_min > 0 else "at every load"
         self.status = "margin" if adequate else "change"
 
-    def p(self, pa, kind="pressure"):
-        return q.show(pa, kind, self.system, self.atm)
-
-    def length(self, m):
-        return q.show(m, "length", self.system)
-
     def safe(self, value, kind, up=False):
-        return q.rounded(value, kind, self.system, self.atm, up=up)
+        return self.rounder(value, kind, up)
 
     def tight(self, key: str, kind: str, current: float) -> Remedy:
         """A unit that drains now, but closer to its limit than the margin."""
-        return Remedy(key, kind, current, None,
-                      f"leave it as it is: the unit drains now, but with less than the "
-                      f"{self.p(MARGIN, 'differential')} margin these figures keep", "margin", False)
+        return Remedy(key, kind, current, None, "tight", "margin", False)
 
     def lift(self, limit: float) -> Remedy:
         dr = self.unit.drain
         if self.adequate and limit < dr.lift:
             return self.tight("drain.lift", "length", dr.lift)
         if limit < 0:
-            return Remedy("drain.lift", "length", dr.lift, None,
-                          f"even with no lift the trap cannot drain it {self.down_to}: the return pressure "
-                          f"({self.p(dr.return_pressure)}) and the trap's own differential are more than the coil "
-                          f"and fill head have there", "impossible", False)
+            return Remedy("drain.lift", "length", dr.lift, None, "impossible", "impossible", False,
+                          {"return_pressure": dr.return_pressure})
         value = max(self.safe(limit, "length"), 0.0)
-        if self.adequate:
-            note = f"up to {self.length(value)} of lift after the trap still drains it {self.down_to}"
-        else:
-            note = f"a lift of at most {self.length(value)} after the trap"
-        return Remedy("drain.lift", "length", dr.lift, value, f"{note} (now {self.length(dr.lift)})",
-                      self.status, True)
+        return Remedy("drain.lift", "length", dr.lift, value, self.status, self.status, True)
 
     def return_pressure(self, limit: float) -> Remedy:
         dr = self.unit.drain
@@ -167,16 +157,9 @@ class _Words:
         if self.adequate and value < dr.return_pressure:
             return self.tight(key, "pressure", dr.return_pressure)
         if value <= properties.P_MIN:
-            return Remedy(key, "pressure", dr.return_pressure, None,
-                          f"even against a full vacuum the lift takes more than the coil and fill head have "
-                          f"{self.down_to}", "impossible", False)
-        vacuum = ", below atmospheric: only a vacuum return holds that," if value < self.atm else ""
-        if self.adequate:
-            note = f"a return pressure up to {self.p(value)}{vacuum} still drains it {self.down_to}"
-        else:
-            note = f"a return pressure of at most {self.p(value)}{vacuum}"
-        return Remedy(key, "pressure", dr.return_pressure, value, f"{note} (now {self.p(dr.return_pressure)})",
-                      self.status, True)
+            return Remedy(key, "pressure", dr.return_pressure, None, "impossible", "impossible", False)
+        return Remedy(key, "pressure", dr.return_pressure, value, self.status, self.status, True,
+                      {"vacuum": bool(value < self.unit.site.atmospheric_pressure)})
 
     def trap(self, limit: float, back_less_fill: float) -> Remedy:
         dr = self.unit.drain
@@ -185,67 +168,44 @@ class _Words:
         if self.adequate and (value <= 0 or value < dr.trap_min_differential):
             return self.tight(key, "differential", dr.trap_min_differential)
         if value <= 0:
-            return Remedy(key, "differential", dr.trap_min_differential, None,
-                          f"even a trap that opens at no differential cannot drain it {self.down_to}: the back "
-                          f"pressure less the fill head, {self.p(back_less_fill)}, is more than the coil has there",
-                          "impossible", False)
-        if self.adequate:
-            note = f"a trap that needs up to {self.p(value, 'differential')} to open still drains it {self.down_to}"
-        else:
-            note = f"a trap that opens at {self.p(value, 'differential')} or less"
-        return Remedy(key, "differential", dr.trap_min_differential, value,
-                      f"{note} (now {self.p(dr.trap_min_differential, 'differential')})", self.status, True)
+            return Remedy(key, "differential", dr.trap_min_differential, None, "impossible", "impossible", False,
+                          {"back_less_fill": back_less_fill})
+        return Remedy(key, "differential", dr.trap_min_differential, value, self.status, self.status, True)
 
     def fill(self, limit: float) -> Remedy:
         dr = self.unit.drain
+        key = "drain.fill_head"
         value = self.safe(limit, "length", up=True) if limit > 0 else 0.0
-        now = self.length(dr.fill_head)
         if self.adequate and value > dr.fill_head:
-            return self.tight("drain.fill_head", "length", dr.fill_head)
+            return self.tight(key, "length", dr.fill_head)
         if self.adequate:
-            note = (f"a fill head of {self.length(0.0)} (none at all) still drains it {self.down_to}" if value == 0 else
-                    f"a fill head down to {self.length(value)} still drains it {self.down_to}")
-            return Remedy("drain.fill_head", "length", dr.fill_head, value, f"{note} (now {now})", "margin", True)
+            return Remedy(key, "length", dr.fill_head, value, "margin-none" if value == 0 else "margin",
+                          "margin", True)
         if value > PRACTICAL_FILL_HEAD:
-            return Remedy("drain.fill_head", "length", dr.fill_head, value,
-                          f"it would take a fill head of {self.length(value)} (now {now}), more than the "
-                          f"{q.show_about(PRACTICAL_FILL_HEAD, 'length', self.system)} or so found under a coil", "change", False)
-        return Remedy("drain.fill_head", "length", dr.fill_head, value,
-                      f"a fill head of at least {self.length(value)} (now {now}: "
-                      f"{self.length(value - dr.fill_head)} more)", "change", True)
+            return Remedy(key, "length", dr.fill_head, value, "impractical", "change", False,
+                          {"practical": PRACTICAL_FILL_HEAD})
+        return Remedy(key, "length", dr.fill_head, value, "change", "change", True,
+                      {"more": value - dr.fill_head})
 
     def design(self, design, threshold: float, breaker_decides: bool) -> Remedy:
         unit = self.unit
         current = unit.design.steam_pressure
         key = "design.steam_pressure"
-        now = f"(now {self.p(current)})"
         if breaker_decides and self.adequate:
-            return Remedy(key, "pressure", current, None,
-                          "any design pressure: the vacuum breaker drains it whatever the coil pressure", "any", False)
+            return Remedy(key, "pressure", current, None, "breaker", "any", False)
         if design == "any":
-            return Remedy(key, "pressure", current, None,
-                          f"any design pressure: the coil needs more than the stall pressure, {self.p(threshold)}, "
-                          f"at every load, since it can never run below the set point's saturation pressure",
-                          "any", False)
+            return Remedy(key, "pressure", current, None, "any", "any", False, {"threshold": threshold})
         if design == "none":
-            return Remedy(key, "pressure", current, None,
-                          f"no design pressure does it: at no load the coil needs only the set point's saturation "
-                          f"pressure, below the stall pressure of {self.p(threshold)}", "impossible", False)
+            return Remedy(key, "pressure", current, None, "none", "impossible", False, {"threshold": threshold})
         if design == "too-high":
-            return Remedy(key, "pressure", current, None,
-                          f"no practical design pressure does it: it would take more than "
-                          f"{self.p(DESIGN_PRESSURE_LIMIT)} at full load", "impossible", False)
+            return Remedy(key, "pressure", current, None, "too-high", "impossible", False,
+                          {"limit": DESIGN_PRESSURE_LIMIT})
         value = self.safe(design, "pressure", up=True)
         if self.adequate and value > current:
             return self.tight(key, "pressure", current)
         if self.adequate:
-            return Remedy(key, "pressure", current, value,
-                          f"a design pressure down to {self.p(value)} still drains it {self.down_to} {now}",
-                          "margin", True)
-        note = (f"a smaller coil selected for {self.p(value)} at full load {now}: run hotter, it keeps the "
-                f"coil pressure up at part load")
+            return Remedy(key, "pressure", current, value, "margin", "margin", True)
         if value >= unit.supply_pressure:
-            return Remedy(key, "pressure", current, value,
-                          f"{note}; but that is at or above the supply ({self.p(unit.supply_pressure)}), so it "
-                          f"needs the supply raised too", "change", False)
-        return Remedy(key, "pressure", current, value, note, "change", True)
+            return Remedy(key, "pressure", current, value, "above-supply", "change", False,
+                          {"supply": unit.supply_pressure})
+        return Remedy(key, "pressure", current, value, "change", "change", True)

@@ -8,6 +8,7 @@ prints or formats.
 from __future__ import annotations
 
 from dataclasses import dataclass, field
+from typing import Any, Mapping
 
 import numpy as np
 
@@ -23,7 +24,8 @@ CAUTIONS = (
 
 @dataclass(frozen=True)
 class Finding:
-    """One thing the user should know, with the remedy in ``message``.
+    """One thing the user should know, as facts: the words (what, why, and what to
+    do) are made from them by :func:`stallcheck.render.words.finding`.
 
     Attributes
     ----------
@@ -31,13 +33,17 @@ class Finding:
         Stable kebab-case identifier.
     severity : str
         ``"info"``, ``"warning"`` or ``"danger"``.
-    message : str
-        Plain words: what, why, and what to do.
+    parts : tuple of str
+        Which parts of the code's message template apply, in order.
+    facts : dict
+        The numbers the message quotes (SI: pressures absolute [Pa], temperatures
+        [K], flows [kg/s], lengths [m]; load fractions [-]) and the arrangement names.
     """
 
     code: str
     severity: str
-    message: str
+    parts: tuple[str, ...] = ("",)
+    facts: Mapping[str, Any] = field(default_factory=dict)
 
 
 @dataclass(frozen=True)
@@ -123,12 +129,31 @@ class Points:
 
 @dataclass(frozen=True)
 class Drainage:
-    """Installed against required arrangement."""
+    """Installed against required arrangement, and why (as codes and SI facts; the
+    words are made by :func:`stallcheck.render.words.drainage_reasons`).
+
+    Attributes
+    ----------
+    installed, required : str
+        Arrangements.
+    adequate : bool
+    requirement : str
+        Why the required arrangement: ``"never"`` (no stall), ``"below-minimum"``,
+        ``"vacuum-breaker"``, ``"gravity-short"`` or ``"above-atmospheric"``.
+    adequacy : str
+        ``"covers"``, ``"purge"`` (a purge cannot drain a stall) or ``"cannot"``.
+    facts : dict
+        ``load`` (stall point [-]), ``stall_pressure`` [Pa], and where a vacuum breaker
+        was weighed ``gravity`` (the differential it would leave [Pa]) and ``wanted``
+        [Pa].
+    """
 
     installed: str
     required: str
     adequate: bool
-    reasons: tuple[str, ...]
+    requirement: str
+    adequacy: str
+    facts: Mapping[str, Any] = field(default_factory=dict)
 
 
 @dataclass(frozen=True)
@@ -342,23 +367,29 @@ class Remedy:
         beyond the exact limit): the largest lift, return pressure or trap differential,
         the smallest fill head or design steam pressure (SI). None where no value works
         (``status`` ``"impossible"``) or any does (``"any"``).
-    note : str
-        Plain words: what it means, or why no value works.
+    reason : str
+        Which note applies (:data:`stallcheck.render.words.REMEDIES`): the status, or
+        ``"tight"`` (drains now, within the margin), ``"margin-none"``,
+        ``"impractical"``, ``"above-supply"``, ``"breaker"``, ``"any"``, ``"none"``,
+        ``"too-high"``.
     status : str
         ``"change"`` (a change the unit needs), ``"margin"`` (the unit drains already:
         how far the value can go), ``"impossible"`` or ``"any"``.
     achievable : bool
         The figure can be applied to this unit as it stands (not: a fill head beyond
         what is found under a coil, or a design pressure at or above the supply).
+    facts : dict
+        Further SI numbers the note quotes.
     """
 
     key: str
     kind: str
     current: float
     value: float | None
-    note: str
+    reason: str
     status: str = "change"
     achievable: bool = True
+    facts: Mapping[str, Any] = field(default_factory=dict)
 
 
 @dataclass(frozen=True)

@@ -40,7 +40,7 @@ class Summary:
     required, installed : str
     adequate : bool
     stalled_hours : float or None  [h]
-    top_code, top_severity, top_message : str or None
+    top_code, top_severity : str or None
         The worst finding.
     exit_status : int
     warnings : tuple of str
@@ -59,7 +59,6 @@ class Summary:
     stalled_hours: float | None
     top_code: str | None
     top_severity: str | None
-    top_message: str | None
     exit_status: int
     warnings: tuple[str, ...] = ()
 
@@ -70,7 +69,7 @@ class Summary:
         return cls(r.source, r.unit, r.tag, r.system, s.load_fraction if s.occurs else None,
                    s.inlet_temperature if s.occurs else None, r.drainage.required, r.drainage.installed,
                    r.drainage.adequate, r.stalled_hours, top.code if top else None,
-                   top.severity if top else None, top.message if top else None, r.exit_status, r.warnings)
+                   top.severity if top else None, r.exit_status, r.warnings)
 
     def badness(self) -> tuple:
         """Sort key, worst first: failing units, then the worst finding, inadequate

@@ -48,3 +48,20 @@ fill_head = "18 in"
 lift = "0 ft"
 return_pressure = "0 psig"
 """
+
+
+def said(r):
+    """Each remedy of a result with the note printed for it (``.note``) beside its
+    fields, as the terminal, report and JSON say it."""
+    from types import SimpleNamespace
+
+    from stallcheck.render import advice
+
+    return [SimpleNamespace(**vars(line.remedy), note=line.note) for line in advice.lines(r, r.system)]
+
+
+def reasons(r):
+    """The drainage reasons of a result, as printed."""
+    from stallcheck.render import words
+
+    return words.drainage_reasons(r.drainage, r.system, r.atmospheric_pressure)

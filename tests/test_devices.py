@@ -10,7 +10,7 @@ from iapws import IAPWS97
 
 from stallcheck import analysis, flash, properties, purge, traps, unitfile
 from stallcheck.errors import InputError
-from conftest import BASE_UNIT
+from conftest import BASE_UNIT, said
 
 PSI = 6894.757293168
 ATM = 101325.0
@@ -353,14 +353,14 @@ def test_lift_remedy_by_hand():
     # less the stated 1 kPa margin, then rounded down to the 0.1 ft it is printed in
     exact = (p - 1000.0 + rho * 9.80665 * 18 * INCH - ATM) / (rho * 9.80665)
     expected = math.floor(exact / 0.3048 * 10) / 10 * 0.3048
-    lift = next(m for m in analysis.analyse(u).remedies if m.key == "drain.lift")
+    lift = next(m for m in said(analysis.analyse(u)) if m.key == "drain.lift")
     assert lift.value == pytest.approx(expected, rel=1e-9)
     assert f"{expected / 0.3048:.1f} ft" in lift.note
 
 
 def test_impossible_remedy_says_so_in_words():
     u = _remedy_unit(lift="6 ft", ret="1 psig", steam="5 psig", minimum=0.9)
-    lift = next(m for m in analysis.analyse(u).remedies if m.key == "drain.lift")
+    lift = next(m for m in said(analysis.analyse(u)) if m.key == "drain.lift")
     assert lift.value is None and lift.status == "impossible" and not lift.achievable
     assert lift.note.startswith("even with no lift the trap cannot drain it down to 90% load")
 

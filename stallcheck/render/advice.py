@@ -14,10 +14,24 @@ from __future__ import annotations
 from dataclasses import dataclass
 
 from stallcheck import quantities as q
-from stallcheck.drainage import FIT_WORDS
 from stallcheck.remedies import MARGIN
+from stallcheck.render import words
 from stallcheck.result import Remedy, Result
 
+
+@dataclass(frozen=True)
+class Line:
+    """One remedy as printed: its key, its note in words, and the remedy itself."""
+
+    key: str
+    note: str
+    remedy: Remedy
+
+
+def lines(r: Result, system: str) -> tuple[Line, ...]:
+    """Every remedy of a result with its note, in ``system`` units."""
+    return tuple(Line(m.key, words.remedy(m, system, r.atmospheric_pressure, r.minimum_load), m)
+                 for m in r.remedies)
 
 
 @dataclass(frozen=True)
@@ -32,9 +46,9 @@ class Advice:
     title : str
     lead : tuple of str
         Sentences before the list.
-    changes : tuple of Remedy
+    changes : tuple of Line
         Each applicable alone: changes (``fix``) or margins (``margins``).
-    cannot : tuple of Remedy
+    cannot : tuple of Line
         Values that cannot do it on this unit, with the reason in their note.
     notes : tuple of str
         Sentences after the list: the margin and the rounding.
@@ -45,8 +59,8 @@ class Advice:
     mode: str
     title: str
     lead: tuple[str, ...]
-    changes: tuple[Remedy, ...]
-    cannot: tuple[Remedy, ...]
+    changes: tuple[Line, ...]
+    cannot: tuple[Line, ...]
     notes: tuple[str, ...]
     fit: str | None
 
@@ -64,10 +78,11 @@ def advise(r: Result, system: str) -> Advice:
         notes += ("load.minimum is 0, so these figures must drain the coil at no load at all; give the lowest "
                   "load the unit really runs at for figures that can be met.",)
     if not dr.adequate:
-        lead = [f"Fit {FIT_WORDS[dr.required]}: the installed {installed} cannot drain this coil wherever "
+        lead = [f"Fit {words.FIT[dr.required]}: the installed {installed} cannot drain this coil wherever "
                 f"it runs (see drainage)."]
-        changes = tuple(m for m in r.remedies if m.status == "change" and m.achievable)
-        cannot = tuple(m for m in r.remedies if m not in changes and m.status != "any")
+        said = lines(r, system)
+        changes = tuple(m for m in said if m.remedy.status == "change" and m.remedy.achievable)
+        cannot = tuple(m for m in said if m not in changes and m.remedy.status != "any")
         if changes:
             lead.append(f"Or keep the installed {installed} and make any one of these changes; each, alone, "
                         f"lets it drain the coil {down_to}:")
@@ -83,4 +98,4 @@ def advise(r: Result, system: str) -> Advice:
                f"there")
     return Advice("margins", "Margins", (f"Nothing to change: {handled}. How far each value can go, alone, "
                                          f"before it no longer does:",),
-                  tuple(r.remedies), (), notes[:1], None)
+                  lines(r, system), (), notes[:1], None)

@@ -12,7 +12,7 @@ import math
 
 from stallcheck import quantities as q
 from stallcheck.remedies import MARGIN
-from stallcheck.render import advice
+from stallcheck.render import advice, words
 from stallcheck.result import Result
 
 
@@ -80,7 +80,7 @@ def to_dict(r: Result) -> dict:
             "installed": r.drainage.installed,
             "required": r.drainage.required,
             "adequate": r.drainage.adequate,
-            "reasons": list(r.drainage.reasons),
+            "reasons": list(words.drainage_reasons(r.drainage, r.system, r.atmospheric_pressure)),
         },
         "valve": None if v is None else {
             "cv": v.cv,
@@ -98,11 +98,13 @@ def to_dict(r: Result) -> dict:
         "pump_trap": _pump_trap(r),
         "purge": _purge(r),
         "flash": _flash(r),
-        "remedies": [{"key": m.key, "status": m.status, "current_si": m.current, "value_si": m.value,
-                      "unit_si": _SI_UNIT[m.kind], "achievable": m.achievable, "note": m.note}
-                     for m in r.remedies],
+        "remedies": [{"key": m.key, "status": m.remedy.status, "current_si": m.remedy.current,
+                      "value_si": m.remedy.value, "unit_si": _SI_UNIT[m.remedy.kind],
+                      "achievable": m.remedy.achievable, "note": m.note}
+                     for m in advice.lines(r, r.system)],
         "advice": _advice(r),
-        "findings": [{"code": f.code, "severity": f.severity, "message": f.message} for f in r.findings],
+        "findings": [{"code": f.code, "severity": f.severity, "message": words.finding(f, r, r.system)}
+                     for f in r.findings],
         "assumptions": list(r.assumptions),
         "warnings": list(r.warnings),
         "cautions": list(r.cautions),

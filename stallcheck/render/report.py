@@ -7,7 +7,7 @@ import io
 
 from stallcheck import quantities as q
 from stallcheck.inputs import Unit
-from stallcheck.render import advice, chart
+from stallcheck.render import advice, chart, words
 from stallcheck.result import Result
 
 SEVERITY_WORD = {"danger": "DANGER", "warning": "Warning", "info": "Note"}
@@ -85,7 +85,7 @@ def markdown(unit: Unit, r: Result, system: str, version: str, date: str, pictur
     out += ["## Verdict", "",
             f"Installed **{dn.installed}**, required **{dn.required}**: "
             + ("adequate." if dn.adequate else "**not adequate**."), ""]
-    out += [f"- {reason}" for reason in dn.reasons] + [""]
+    out += [f"- {reason}" for reason in words.drainage_reasons(dn, system, r.atmospheric_pressure)] + [""]
 
     out += ["## Stall chart", "", "```text", chart.plain(chart.render(r, system, width=78)), "```", ""]
     out += [f"![Stall chart]({link})" for link in pictures] + ([""] if pictures else [])
@@ -106,7 +106,7 @@ def markdown(unit: Unit, r: Result, system: str, version: str, date: str, pictur
     out += [f"_{note}_" for note in a.notes] + ([""] if a.notes else [])
 
     out += ["## Findings", ""]
-    out += [f"- **{SEVERITY_WORD[f.severity]}** `{f.code}`: {f.message}" for f in r.findings] or ["None."]
+    out += [f"- **{SEVERITY_WORD[f.severity]}** `{f.code}`: {words.finding(f, r, system)}" for f in r.findings] or ["None."]
     out += ["", "## Cautions", ""] + [f"- {c}" for c in r.cautions] + [""]
     return "\n".join(out)
 

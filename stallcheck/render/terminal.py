@@ -12,7 +12,7 @@ from rich.table import Table
 from rich.text import Text
 
 from stallcheck import quantities as q
-from stallcheck.render import advice, chart
+from stallcheck.render import advice, chart, words
 from stallcheck.result import Result
 
 CHART_COLOURS = {"curve": "bold cyan", "back": "yellow", "atmos": "dim", "stall": "bold red", "limit": "bold magenta",
@@ -129,7 +129,7 @@ def report(result: Result, system: str, width: int = 80) -> Group:
     verdict.append(f"installed {dr.installed}, required {dr.required}: ")
     verdict.append("adequate" if dr.adequate else "NOT ADEQUATE",
                    style="bold green" if dr.adequate else "bold red")
-    parts += [_heading("Drainage"), verdict, _bullets(dr.reasons), Text("")]
+    parts += [_heading("Drainage"), verdict, _bullets(words.drainage_reasons(dr, system, r.atmospheric_pressure)), Text("")]
     parts += _devices(r, system)
 
     v = r.valve
@@ -152,7 +152,7 @@ def report(result: Result, system: str, width: int = 80) -> Group:
         line = Text("  ")
         line.append(f"{SEVERITY_WORD[f.severity]}", style=SEVERITY_STYLE[f.severity])
         line.append(f"  {f.code}", style="dim")
-        parts += [line, _para(f.message, 4)]
+        parts += [line, _para(words.finding(f, r, system), 4)]
     parts.append(Text(""))
 
     parts += _remedies(r, system)

@@ -1,0 +1,358 @@
+"""The words for what the rules found: one table of message templates per finding
+code, per remedy and per drainage reason, filled from the SI facts the rules return.
+
+The rules (``findings``, ``layout``, ``remedies``, ``drainage``) decide and measure;
+they return codes, the names of the template parts that apply and the numbers that
+matter, all SI. This module is the only place those become sentences, so the terminal,
+the Markdown report, the JSON contract's ``message`` and ``note`` fields and the survey
+all say the same thing, and a presenter can restyle or translate a finding without
+touching a rule. The README's findings table lists the same codes
+(``tests/test_words.py`` keeps the two in step).
+
+A template is a :meth:`str.format` string. A field's format spec is either an ordinary
+one (``{load:.0%}``) or a display kind of :data:`stallcheck.quantities.DISPLAY`
+(``{back:pressure}``, ``{flow:mass_flow}``): the SI value is then converted and rounded
+as :func:`stallcheck.quantities.show` prints it; ``~kind`` quotes a limit of practice
+the way practitioners round it (:func:`stallcheck.quantities.show_about`).
+"""
+
+from __future__ import annotations
+
+import string
+from typing import Any, Mapping
+
+from stallcheck import quantities as q
+
+#: What fitting each required arrangement means (the "what to do" section and
+#: diagnose's remedies say the same).
+FIT = {
+    "trap": "a trap",
+    "trap-vacuum-breaker": "a vacuum breaker on the coil (a trap-vacuum-breaker arrangement)",
+    "pump-trap": "a pump-trap (or a pump and receiver)",
+}
+
+#: Why a trap type does poorly on modulating service (finding ``trap-type-modulating``
+#: and diagnose).
+POOR_TRAP = {
+    "thermodynamic": "a thermodynamic (disc) trap needs a working differential to snap shut and open, "
+                     "and backs up condensate when the coil pressure falls",
+    "thermostatic": "a thermostatic trap holds condensate back until it subcools, which floods "
+                    "a modulating coil",
+    "bimetallic": "a bimetallic trap holds condensate back until it subcools, which floods "
+                  "a modulating coil",
+    "inverted-bucket": "an inverted-bucket trap can lose its prime when the coil pressure swings, "
+                       "and then blows steam or stalls",
+}
+
+#: Finding code → its template parts. A finding names the parts that apply, in order;
+#: its message is those parts filled in and joined.
+FINDINGS: dict[str, dict[str, str]] = {
+    "stall-at-full-load": {
+        "": "The back pressure on the trap ({back:pressure} with the lift) is at or above what the coil has "
+            "at full load ({design:pressure} plus the fill head): the coil floods at every load. Fit a "
+            "pump-trap, or remove the lift and return pressure behind the trap.",
+    },
+    "stall-in-operating-range": {
+        "": "The coil stalls below {load:.0%} load",
+        "inlet": " (entering {inlet:temperature} and warmer)",
+        "why": ": the coil pressure falls to {coil:pressure} and the trap can no longer discharge "
+               "{condensate:mass_flow} of condensate. Condensate backs up, which brings water hammer and "
+               "corrosion. ",
+        "handled": "The installed {installed} handles this; keep it working.",
+        "drain": "Drain it with a {required} (see drainage).",
+    },
+    "drainage-inadequate": {
+        "": "The installed {installed} is not enough: {reason}. Install a {required}.",
+    },
+    "freeze-risk": {
+        "": "The coil stalls while the entering air is below freezing (",
+        "span": "from {inlet:temperature} up to {freezing:temperature}",
+        "design": "at {inlet:temperature}",
+        "why": "): condensate held in the tubes can freeze and split them.",
+        "hours": " The load bins put {hours:,.0f} h a year in that band.",
+        "drained": " The installed {installed} drains it; test it before each winter, and keep a low-limit "
+                   "(freezestat) on the leaving air.",
+        "drain": " Drain it so it cannot hold water at any load (a pump-trap, or a vacuum breaker where "
+                 "gravity suffices), and consider a preheat coil or face-and-bypass control with the steam "
+                 "valve held open.",
+    },
+    "lift-after-trap": {
+        "": "Condensate is lifted {lift:length} straight after the trap of a coil that stalls: the lift adds "
+            "to the back pressure and floods the coil at low load (common practice: never lift directly "
+            "after the trap of a modulating coil). Drain by gravity to a vented receiver and pump from "
+            "there, or use a pump-trap.",
+    },
+    "trap-type-modulating": {
+        "": "The coil runs at low differential",
+        "low": "At its lowest working point the trap has only {working:differential} across it",
+        "why": ", and {poor}. Use a float-and-thermostatic trap on modulating coils (common practice; "
+               "VA HVAC Design Manual).",
+    },
+    "valve-too-small": {
+        "": "The valve needs Cv {required_cv:.3g} at design but has Cv {cv:.3g}: wide open it holds the coil "
+            "at {limited_pressure:pressure} and delivers {limited_load:.0%} of the design load. Fit a larger "
+            "valve or raise the supply pressure.",
+    },
+    "valve-oversized": {
+        "": "At design the valve is only {opening:.0%} open (Cv {required_cv:.3g} needed of {cv:.3g}): it "
+            "works near its seat at low load, where it hunts and cycles the coil pressure. A smaller valve "
+            "controls better.",
+    },
+    "valve-low-load-control": {
+        "": "Below about {load:.0%} load the valve needs less than its smallest controllable Cv "
+            "(Cv/rangeability = {smallest_cv:.2g}): it opens and shuts instead of modulating, and each "
+            "opening can drive condensate as a slug. Use a smaller valve, or two valves in sequence (1/3 "
+            "and 2/3).",
+        "minor": "Below about {load:.0%} load the valve cannot modulate (Cv/rangeability = {smallest_cv:.2g}) "
+                 "and will cycle.",
+    },
+    "method-below-set-point": {
+        "": "Below {load:.0%} load the mean-temperature method would need steam colder than the leaving set "
+            "point ({set_point:temperature}), which cannot heat to it; there the set point's saturation "
+            "temperature is used instead, a lower bound on what the coil needs, so the stall point and the "
+            "remedies are on the safe side. The NTU method (design.method = \"ntu\") models a coil whose "
+            "flow varies without this limit.",
+    },
+    "trap-capacity-short": {
+        "": "Below {load:.0%} load the trap cannot pass the condensate at the differential it has there "
+            "({differential:differential} for {condensate:mass_flow}), before the stall proper",
+        "stall": " at {stall:.0%}",
+        "fix": ": condensate backs into the coil from there down. Fit a trap rated for {required:mass_flow} "
+               "at {selection:differential}, or give it more fill head.",
+    },
+    "trap-undersized": {
+        "": "At the differential it is selected at ({selection:differential}) the trap passes "
+            "{installed:mass_flow}; common practice for modulating coils asks {margin:g} x the full-load "
+            "condensate, {required:mass_flow} (VA HVAC Design Manual: 1.5-2 x; NAVFAC MO-209: 2-4 x). "
+            "Select a larger trap on its hot-condensate rating.",
+    },
+    "pump-trap-motive-low": {
+        "": "The pump-trap's motive pressure {motive:pressure}",
+        "supply": " (the supply pressure; drain.motive_pressure not given)",
+        "why": " is only {margin:differential} above the back pressure it pumps against ({back:pressure}); it "
+               "wants about {wanted:differential} more (common practice; the maker's table governs). Raise "
+               "the motive pressure or cut the lift.",
+    },
+    "pump-trap-fill-head-low": {
+        "": "The pump-trap has {fill:length} of fill head; ",
+        "maker": "its maker asks",
+        "practice": "common practice asks about",
+        "why": " {required:length}. With less, condensate cannot run into its body fast enough and backs "
+               "into the coil. Set it lower below the coil.",
+    },
+    "pump-trap-outside-table": {
+        "": "The back pressure ({back:pressure}) is above the highest row of the pump-trap's capacity table: "
+            "the maker does not rate it for this duty. Check with the maker, or cut the lift or return "
+            "pressure.",
+    },
+    "pump-trap-undersized": {
+        "": "The pump-trap is rated for {capacity:mass_flow} at this duty, but must move "
+            "{condensate:mass_flow} at the stall point ({load:.0%} load). Select a larger one, or two in "
+            "parallel.",
+    },
+    "purge-size-unknown": {
+        "": "A constant purge is installed but neither drain.purge_orifice nor drain.purge_rate is given, "
+            "so its steam and cost are not worked out.",
+    },
+    "purge-cannot-hold": {
+        "": "At the minimum load the coil pressure falls to the back pressure ({back:pressure}) or below: "
+            "the purge stops bleeding there and cannot hold a differential on its own. Lower the back "
+            "pressure, or drain with a vacuum breaker or pump-trap as required.",
+    },
+    "return-velocity-high": {
+        "": "Flash steam ({fraction:.1%} of the condensate at full load) moves at {velocity:velocity} in the "
+            "{bore:diameter} return line, above about {limit:~velocity} (common practice): it can drive "
+            "condensate waves into slugs that hammer. Enlarge the line or flash the condensate in a vented "
+            "receiver first.",
+    },
+    "flash-into-cool-return": {
+        "": "The trap discharges hot condensate that flashes ({fraction:.1%} at full load) into a return at "
+            "{return_temperature:temperature}, below its saturation {saturation:temperature}: steam bubbles "
+            "collapse in the cooler water and hammer. Discharge along the direction of flow through a "
+            "sparging fitting, or into a vented receiver.",
+    },
+    "tube-fill-both-ends": {
+        "": "Steam enters the supply header at its centre and the coil has no steam-distributing tubes: "
+            "steam reaches the return header through the middle tubes first and then enters the outer "
+            "tubes from both ends. Condensate waves moving toward each other shut in a steam pocket, which "
+            "collapses and hammers",
+        "near": ", and this coil runs at or near its stall point, where the differential that would clear "
+                "the tubes is lost. ",
+        "far": ". ",
+        "purge-holds": "The installed constant purge keeps steam moving from the supply end at every load; "
+                       "keep it open and clean.",
+        "purge-fails": "The installed purge cannot hold the differential at low load (see purge-cannot-hold): "
+                       "drain the coil so it does not stall, or use an end-fed coil or one with "
+                       "steam-distributing tubes.",
+        "fix": "Hold a positive differential at every load (a constant-purge drain) so the tubes fill only "
+               "from the supply end, or use an end-fed coil or one with steam-distributing inner tubes.",
+    },
+    "group-trapping": {
+        "": "{coils} coils drain through one trap: coils at different pressures short-circuit, and the one at "
+            "lower pressure is fed backwards from its return side, holding condensate that hammers. Give "
+            "each coil its own trap (common practice).",
+    },
+    "drop-not-vented": {
+        "": "The {drop:length} drop to the trap is not back-vented to the steam space: a condensate slug can "
+            "seal it, the steam below condenses and the slug is driven into the trap. Vent the drop back to "
+            "the coil's steam side above the water line (common practice).",
+    },
+    "valve-not-dripped": {
+        "": "There is no drip leg and trap just ahead of the control valve: condensate pools there while the "
+            "valve is shut and is driven through as a slug when it opens. Fit a drip leg with its own trap "
+            "upstream of the valve (common practice).",
+    },
+    "tubes-not-pitched": {
+        "": "The horizontal tubes are not pitched toward the return: condensate lies in them, and steam "
+            "driven over it raises waves that hammer",
+        "near": " - worse here, as the coil runs near its stall point",
+        "fix": ". Pitch the coil toward its return header (common practice: as the coil maker directs).",
+    },
+}
+
+#: Why a unit needs the drainage it does (``Drainage.requirement``).
+REQUIREMENTS = {
+    "never": "the coil pressure stays above the stall pressure at every load, so a trap alone drains it",
+    "below-minimum": "it stalls only below {load:.0%} load, at or under its minimum load, so a trap alone "
+                     "drains it wherever it runs",
+    "vacuum-breaker": "{where}; a vacuum breaker holds the coil at atmospheric pressure there, and the fill "
+                      "head then drives the condensate through the trap by gravity with "
+                      "{gravity:differential} to spare (at least {wanted:differential} wanted)",
+    "gravity-short": "{where}; a vacuum breaker would leave gravity only {gravity:differential} across the "
+                     "trap, less than the {wanted:differential} a trap is sized at, so a pump-trap (or pump "
+                     "and receiver) must move the condensate, or more fill head must be found (see what to do)",
+    "above-atmospheric": "{where}; that is at or above atmospheric, and a vacuum breaker cannot help against "
+                         "that back pressure, so a pump-trap (or pump and receiver) must lift the condensate",
+}
+#: Where a stalling unit stalls, the start of the reasons above that use ``{where}``.
+STALLS_WHERE = {
+    "part": "it stalls below {load:.0%} load, where the coil pressure falls to {stall_pressure:pressure}",
+    "full": "it stalls at every load: the trap needs the coil above {stall_pressure:pressure}, more than it "
+            "has at full load",
+}
+#: Whether the installed drainage covers what is required (``Drainage.adequacy``).
+ADEQUACY = {
+    "covers": "the installed {installed} covers what is required ({required})",
+    "purge": "a constant purge keeps steam flowing only while the coil pressure is above the back pressure; "
+             "it cannot drain a coil that stalls ({required} required)",
+    "cannot": "the installed {installed} cannot drain the coil while it stalls ({required} required)",
+}
+
+#: Each remedy's note: (unit-file key or ``*`` for any, reason) → template. ``{down_to}``
+#: is how far down the load range the figure holds; ``{margin}`` the margin kept.
+REMEDIES = {
+    ("*", "tight"): "leave it as it is: the unit drains now, but with less than the {margin:differential} "
+                    "margin these figures keep",
+    ("drain.lift", "impossible"): "even with no lift the trap cannot drain it {down_to}: the return pressure "
+                                  "({return_pressure:pressure}) and the trap's own differential are more than "
+                                  "the coil and fill head have there",
+    ("drain.lift", "margin"): "up to {value:length} of lift after the trap still drains it {down_to} "
+                              "(now {current:length})",
+    ("drain.lift", "change"): "a lift of at most {value:length} after the trap (now {current:length})",
+    ("drain.return_pressure", "impossible"): "even against a full vacuum the lift takes more than the coil and "
+                                             "fill head have {down_to}",
+    ("drain.return_pressure", "margin"): "a return pressure up to {value:pressure}{vacuum} still drains it "
+                                         "{down_to} (now {current:pressure})",
+    ("drain.return_pressure", "change"): "a return pressure of at most {value:pressure}{vacuum} "
+                                         "(now {current:pressure})",
+    ("drain.trap_min_differential", "impossible"): "even a trap that opens at no differential cannot drain it "
+                                                   "{down_to}: the back pressure less the fill head, "
+                                                   "{back_less_fill:pressure}, is more than the coil has there",
+    ("drain.trap_min_differential", "margin"): "a trap that needs up to {value:differential} to open still "
+                                               "drains it {down_to} (now {current:differential})",
+    ("drain.trap_min_differential", "change"): "a trap that opens at {value:differential} or less "
+                                               "(now {current:differential})",
+    ("drain.fill_head", "margin-none"): "a fill head of {value:length} (none at all) still drains it {down_to} "
+                                        "(now {current:length})",
+    ("drain.fill_head", "margin"): "a fill head down to {value:length} still drains it {down_to} "
+                                   "(now {current:length})",
+    ("drain.fill_head", "impractical"): "it would take a fill head of {value:length} (now {current:length}), "
+                                        "more than the {practical:~length} or so found under a coil",
+    ("drain.fill_head", "change"): "a fill head of at least {value:length} (now {current:length}: "
+                                   "{more:length} more)",
+    ("design.steam_pressure", "breaker"): "any design pressure: the vacuum breaker drains it whatever the coil "
+                                          "pressure",
+    ("design.steam_pressure", "any"): "any design pressure: the coil needs more than the stall pressure, "
+                                      "{threshold:pressure}, at every load, since it can never run below the "
+                                      "set point's saturation pressure",
+    ("design.steam_pressure", "none"): "no design pressure does it: at no load the coil needs only the set "
+                                       "point's saturation pressure, below the stall pressure of "
+                                       "{threshold:pressure}",
+    ("design.steam_pressure", "too-high"): "no practical design pressure does it: it would take more than "
+                                           "{limit:pressure} at full load",
+    ("design.steam_pressure", "margin"): "a design pressure down to {value:pressure} still drains it {down_to} "
+                                        "(now {current:pressure})",
+    ("design.steam_pressure", "change"): "a smaller coil selected for {value:pressure} at full load "
+                                        "(now {current:pressure}): run hotter, it keeps the coil pressure up "
+                                        "at part load",
+    ("design.steam_pressure", "above-supply"): "a smaller coil selected for {value:pressure} at full load "
+                                              "(now {current:pressure}): run hotter, it keeps the coil "
+                                              "pressure up at part load; but that is at or above the supply "
+                                              "({supply:pressure}), so it needs the supply raised too",
+}
+#: Filled into a return pressure below atmospheric (``{vacuum}`` above).
+VACUUM_RETURN = ", below atmospheric: only a vacuum return holds that,"
+
+
+class _Fill(string.Formatter):
+    """Fills a template: a display kind as format spec converts an SI value."""
+
+    def __init__(self, system: str, atmospheric: float):
+        super().__init__()
+        self.system = system
+        self.atmospheric = atmospheric
+
+    def format_field(self, value: Any, format_spec: str) -> str:
+        if format_spec.startswith("~"):
+            return q.show_about(value, format_spec[1:], self.system)
+        if format_spec in q.DISPLAY[self.system]:
+            return q.show(value, format_spec, self.system, self.atmospheric)
+        return format(value, format_spec)
+
+
+def fill(template: str, facts: Mapping[str, Any], system: str, atmospheric: float) -> str:
+    """One template filled with SI ``facts``, in ``system`` (``"si"`` or ``"us"``)
+    display units; ``atmospheric`` [Pa] turns absolute pressures into gauge readings."""
+    return _Fill(system, atmospheric).format(template, **facts)
+
+
+def finding(f, r, system: str) -> str:
+    """The message of a :class:`stallcheck.result.Finding` of the result ``r``: its
+    parts' templates filled with its facts and joined."""
+    parts = FINDINGS[f.code]
+    atm = r.atmospheric_pressure
+    facts = f.facts
+    if f.code == "drainage-inadequate":
+        facts = dict(facts, reason=drainage_reasons(r.drainage, system, atm)[0])
+    elif f.code == "trap-type-modulating":
+        facts = dict(facts, poor=POOR_TRAP[facts["trap"]])
+    return "".join(fill(parts[name], facts, system, atm) for name in f.parts)
+
+
+def down_to(minimum: float) -> str:
+    """How far down the load range a figure holds: the unit's minimum load [-]."""
+    return f"down to {minimum:.0%} load" if minimum > 0 else "at every load"
+
+
+def remedy(m, system: str, atmospheric: float, minimum: float) -> str:
+    """The note of a :class:`stallcheck.result.Remedy`: what the figure means, or why
+    no figure works; ``minimum`` is the unit's minimum load [-]."""
+    from stallcheck.remedies import MARGIN
+
+    key = "*" if m.reason == "tight" else m.key
+    facts = {"value": m.value, "current": m.current, "margin": MARGIN, "down_to": down_to(minimum),
+             **m.facts}
+    if "vacuum" in facts:
+        facts["vacuum"] = VACUUM_RETURN if facts["vacuum"] else ""
+    return fill(REMEDIES[key, m.reason], facts, system, atmospheric)
+
+
+def drainage_reasons(dr, system: str, atmospheric: float) -> tuple[str, str]:
+    """Why a unit needs the drainage it does, and whether what is installed covers it,
+    for a :class:`stallcheck.result.Drainage`."""
+    facts = dict(dr.facts, installed=dr.installed, required=dr.required)
+    if dr.requirement in ("vacuum-breaker", "gravity-short", "above-atmospheric"):
+        where = STALLS_WHERE["full" if facts["load"] >= 1 else "part"]
+        facts["where"] = fill(where, facts, system, atmospheric)
+    return (fill(REQUIREMENTS[dr.requirement], facts, system, atmospheric),
+            fill(ADEQUACY[dr.adequacy], facts, system, atmospheric))
