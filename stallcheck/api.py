@@ -42,7 +42,7 @@ def read_unit(source: str | Path | Mapping[str, Any], name: str = "unit") -> Uni
     InputError
         For anything that cannot be accepted, naming the key.
     """
-    from stallcheck import unitfile
+    from stallcheck.files import unitfile
 
     if isinstance(source, Mapping):
         return unitfile.from_data(dict(source), name)
@@ -92,7 +92,7 @@ def survey_rows(paths: str | Path | Iterable[str | Path], units: str | None = No
 
     from stallcheck.render import survey as table
 
-    surveymod = importlib.import_module("stallcheck.survey")
+    surveymod = importlib.import_module("stallcheck.analysis.survey")
 
     if isinstance(paths, (str, Path)):
         paths = [paths]

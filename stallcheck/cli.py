@@ -154,13 +154,13 @@ def report(unit: Path = UNIT_ARG,
     """
     import datetime
 
-    from stallcheck import files
+    from stallcheck.files import atomic
     from stallcheck.render import report as rep
 
     targets = [("--output", output)] + [(o, p) for o, p in (("--svg", svg), ("--png", png)) if p is not None]
     try:
         for option, path in targets:
-            files.check_target(path, option, force)
+            atomic.check_target(path, option, force)
     except InputError as exc:
         _fail(str(exc))
     unit_obj, result = _load(unit, units, method)
@@ -171,8 +171,8 @@ def report(unit: Path = UNIT_ARG,
     try:
         pictures = [(o, p, rep.picture(result, result.system, o[2:])) for o, p in targets[1:]]
         for option, path, data in pictures:
-            files.write_new(path, data, option, force)
-        files.write_new(output, text, "--output", force)
+            atomic.write_new(path, data, option, force)
+        atomic.write_new(output, text, "--output", force)
     except rep.MissingExtra as exc:
         _fail(str(exc))
     except InputError as exc:
@@ -190,7 +190,8 @@ def new(file: Optional[Path] = typer.Argument(None, help="Where to write the uni
     """
     from rich.prompt import Confirm, Prompt
 
-    from stallcheck import files, wizard
+    from stallcheck import wizard
+    from stallcheck.files import atomic
     from stallcheck.render import terminal
 
     err = terminal.console(stderr=True)
@@ -224,7 +225,7 @@ def new(file: Optional[Path] = typer.Argument(None, help="Where to write the uni
                 path = None
                 continue
             try:
-                files.write_new(path, text, "FILE", force=True)
+                atomic.write_new(path, text, "FILE", force=True)
             except InputError as exc:
                 err.print(f"  {exc}", highlight=False, markup=False)
                 if file is not None:
@@ -281,7 +282,8 @@ def _ask_all(answers: dict, system: str, err) -> None:
 
 def _analyse_text(text: str):
     """The unit a wizard wrote, validated and analysed (InputError names the key)."""
-    from stallcheck import analysis, unitfile
+    from stallcheck import analysis
+    from stallcheck.files import unitfile
 
     unit = unitfile.parse(text, "the new unit")
     return unit, analysis.analyse(unit)
@@ -317,11 +319,12 @@ def survey(paths: list[Path] = typer.Argument(..., help="Unit files, folders of 
     Exit status 2 where any unit could not be read, else 1 where any is not adequate or
     has a warning, else 0.
     """
-    from stallcheck import files, survey as surveymod
+    from stallcheck.analysis import survey as surveymod
+    from stallcheck.files import atomic
 
     if csv is not None:
         try:
-            files.check_target(csv, "--csv", force)
+            atomic.check_target(csv, "--csv", force)
         except InputError as exc:
             _fail(str(exc))
     found = surveymod.sources(paths)
@@ -356,7 +359,8 @@ def survey(paths: list[Path] = typer.Argument(..., help="Unit files, folders of 
     if stream is not None:
         stream.close(failures, status)
     else:
-        from stallcheck.render import survey as show, terminal
+        from stallcheck.render import survey as show
+        from stallcheck.render import terminal
 
         out = terminal.console()
         if out.is_terminal:
@@ -372,7 +376,7 @@ def survey(paths: list[Path] = typer.Argument(..., help="Unit files, folders of 
         from stallcheck.render import survey as show
 
         try:
-            files.write_new(csv, show.csv_text(summaries, failures), "--csv", force)
+            atomic.write_new(csv, show.csv_text(summaries, failures), "--csv", force)
         except InputError as exc:
             _fail(str(exc))
     raise typer.Exit(status)
@@ -396,7 +400,7 @@ def _ask_missing(unit, given: dict) -> dict:
     """Ask for each reading not given, again after a bad answer (rich prompts on stderr)."""
     from rich.prompt import Prompt
 
-    from stallcheck import readings
+    from stallcheck.files import readings
     from stallcheck.render import terminal
 
     err = terminal.console(stderr=True)
@@ -439,7 +443,8 @@ def diagnose(unit: Path = UNIT_ARG,
 
     Exit status as for check, and 1 where the unit is stalled now; 2: bad input.
     """
-    from stallcheck import diagnosis, readings
+    from stallcheck.analysis import diagnosis
+    from stallcheck.files import readings
 
     unit_obj, result = _load(unit, units, None)
     given = dict(coil_pressure=coil_pressure, return_pressure=return_pressure, load=load,

@@ -1,6 +1,6 @@
 """Validated input objects: one unit, all SI, every pressure absolute.
 
-:mod:`stallcheck.unitfile` builds these from a TOML unit file; the physics reads only
+:mod:`stallcheck.files.unitfile` builds these from a TOML unit file; the physics reads only
 these. Units in brackets: pressures [Pa] absolute unless named a differential,
 temperatures [K], lengths [m], mass flows [kg/s], volume flows [m³/s].
 """

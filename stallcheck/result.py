@@ -86,7 +86,7 @@ class StallPoint:
         at full load, and ``threshold_pressure`` (above them) is what the trap needs.
     in_range : bool
         True where it stalls above its minimum load, beyond the verdict's tolerance
-        (:func:`stallcheck.drainage.stalls_in_range`).
+        (:func:`stallcheck.physics.drainage.stalls_in_range`).
     """
 
     occurs: bool
@@ -434,7 +434,7 @@ class Result:
     warnings: tuple[str, ...] = ()
     #: Load below which the mean-temperature method, with the flow varying, would ask
     #: for steam colder than the set point, and the set point is used instead [-]
-    #: (0 for every other coil; :func:`stallcheck.coil.set_point_floor_load`).
+    #: (0 for every other coil; :func:`stallcheck.physics.coil.set_point_floor_load`).
     set_point_floor_load: float = 0.0
     cautions: tuple[str, ...] = field(default=CAUTIONS)
     format: int = 1

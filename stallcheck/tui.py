@@ -20,9 +20,10 @@ from textual.containers import Vertical
 from textual.screen import ModalScreen
 from textual.widgets import Footer, Header, Input, Static
 
-from stallcheck import analysis, files, unitwriter
-from stallcheck import quantities as q
+from stallcheck import analysis
 from stallcheck.errors import InputError, StallcheckError
+from stallcheck.files import atomic, unitwriter
+from stallcheck.files import quantities as q
 from stallcheck.inputs import Unit
 from stallcheck.render import terminal
 
@@ -226,7 +227,7 @@ class Explorer(App):
 
     def _write(self, path: Path) -> None:
         try:
-            files.write_new(path, self._text(), "save", force=True)
+            atomic.write_new(path, self._text(), "save", force=True)
         except InputError as exc:
             self._say(f"not saved: {exc}")
             return
@@ -236,7 +237,7 @@ class Explorer(App):
     def _text(self) -> str:
         """The user's file with only the changed values rewritten; a unit with no file
         behind it (or one that cannot be read now) is written whole."""
-        from stallcheck import unitfile
+        from stallcheck.files import unitfile
 
         try:
             text = unitfile.read_text(self.original.source)

@@ -14,8 +14,8 @@ import re
 from dataclasses import dataclass, field
 from typing import Callable
 
-from stallcheck import quantities as q
 from stallcheck.errors import InputError
+from stallcheck.files import quantities as q
 from stallcheck.inputs import ARRANGEMENTS, CHARACTERISTICS, MEDIA, TRAPS
 
 

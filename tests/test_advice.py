@@ -13,13 +13,15 @@ import tomllib
 from pathlib import Path
 
 import pytest
-from hypothesis import given, settings
-
-from stallcheck import analysis, unitfile
-from stallcheck.errors import InputError
-from stallcheck.render import advice
 from conftest import SAMPLES, reasons, said
-from test_properties_of_units import si_text, us_text, units as generated_units
+from hypothesis import given, settings
+from test_properties_of_units import si_text, us_text
+from test_properties_of_units import units as generated_units
+
+from stallcheck import analysis
+from stallcheck.errors import InputError
+from stallcheck.files import unitfile
+from stallcheck.render import advice
 
 #: The first quantity in a remedy's words: a number and one of the units it is printed in.
 FIGURE = re.compile(r"(-?[\d,]+(?:\.\d+)?) (m|ft|barg|psig|kPa|psi)\b")
@@ -104,7 +106,7 @@ def _follow_every_figure(data: dict, source: str) -> int:
             # the figure kept is the figure printed: safe rounding at the printed step
             printed = _printed_figure(m.note)
             number, unit_text = printed.split()
-            from stallcheck import quantities
+            from stallcheck.files import quantities
             kind = {"m": "length", "ft": "length", "barg": "pressure", "psig": "pressure", "kPa": "differential",
                     "psi": "differential"}[unit_text]
             back = quantities.from_display(float(number), kind, r.system, r.atmospheric_pressure)
@@ -327,7 +329,7 @@ def test_figures_for_a_unit_run_down_to_no_load_say_so():
 
 def test_a_vacuum_breaker_acts_at_exactly_a_quarter_psi_of_gravity():
     # The rule as stated (VA HVAC Design Manual, 1/4 psi): at least that differential.
-    from stallcheck import drainage
+    from stallcheck.physics import drainage
 
     atm = 101325.0
     assert drainage.vacuum_breaker_acts(atm - drainage.GRAVITY_MARGIN, atm)

@@ -2,11 +2,12 @@
 
 import numpy as np
 import pytest
-
+from conftest import BASE_UNIT
 from iapws import IAPWS97
 
-from stallcheck import analysis, drainage, properties, quantities, unitfile
-from conftest import BASE_UNIT
+from stallcheck import analysis
+from stallcheck.files import quantities, unitfile
+from stallcheck.physics import drainage, properties
 
 PSI = 6894.757
 FT = 0.3048

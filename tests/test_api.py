@@ -7,11 +7,11 @@ import subprocess
 import sys
 
 import pytest
+from conftest import ROOT, SAMPLES
 from typer.testing import CliRunner
 
 import stallcheck
 from stallcheck.cli import app
-from conftest import ROOT, SAMPLES
 
 
 def test_the_readme_python_example_runs(tmp_path):
@@ -58,6 +58,7 @@ def test_importing_the_package_stays_light():
 
 def test_the_interface_docstring_example_runs(monkeypatch):
     import doctest
+
     from stallcheck import api
 
     monkeypatch.chdir(ROOT)

@@ -6,12 +6,12 @@ import tomllib
 from pathlib import Path
 
 import pytest
+from conftest import BASE_UNIT
 from typer.testing import CliRunner
 
-from stallcheck import unitfile
 from stallcheck.cli import app
 from stallcheck.errors import InputError
-from conftest import BASE_UNIT
+from stallcheck.files import unitfile
 
 runner = CliRunner()
 FOLDER = Path(__file__).parent / "bad_units"
@@ -73,7 +73,7 @@ def test_folder_missing_file_and_unreadable_file(tmp_path, monkeypatch):
     def refuse(*args, **kwargs):
         raise PermissionError(13, "Permission denied")
 
-    monkeypatch.setattr("stallcheck.unitfile.open", refuse, raising=False)
+    monkeypatch.setattr("stallcheck.files.unitfile.open", refuse, raising=False)
     _refused(runner.invoke(app, ["check", str(locked)]), locked, "", "permission denied")
 
 
@@ -85,7 +85,7 @@ def test_very_large_file_is_refused_without_reading_it(tmp_path, monkeypatch):
     def never(*args, **kwargs):
         raise AssertionError("a 50 MB file must not be read")
 
-    monkeypatch.setattr("stallcheck.unitfile.open", never, raising=False)
+    monkeypatch.setattr("stallcheck.files.unitfile.open", never, raising=False)
     _refused(runner.invoke(app, ["check", str(big)]), big, "", "52.4 MB")
 
 
@@ -163,7 +163,7 @@ def test_a_units_cache_of_the_wrong_shape_is_not_trusted(tmp_path, write_unit):
     import sys
     cache = tmp_path / "cache" / "stallcheck"
     cache.mkdir(parents=True)
-    code = ("import json, pathlib, sys\nfrom stallcheck import quantities as q\n"
+    code = ("import json, pathlib, sys\nfrom stallcheck.files import quantities as q\n"
             "q._answers._load()\nf = q._answers.file\nf.parent.mkdir(parents=True, exist_ok=True)\n"
             "f.write_text(json.dumps({'unit|psig': 5, 'line|psig|Pa': 'x', 'unit|cfm': [1, 2]}))\n"
             "print(f)")
@@ -180,7 +180,8 @@ def test_a_folder_that_cannot_be_searched_is_named_not_a_traceback(tmp_path, mon
     # Permission is simulated (the tests may run as a user who can read anything): the
     # walk meets a sub-folder it cannot list, as os.walk reports it.
     import os as os_module
-    from stallcheck import survey
+
+    from stallcheck.analysis import survey
 
     (tmp_path / "good.toml").write_text(BASE_UNIT, encoding="utf-8")
     locked = tmp_path / "locked"
@@ -198,7 +199,7 @@ def test_a_folder_that_cannot_be_searched_is_named_not_a_traceback(tmp_path, mon
             yield root, folders, files
 
     monkeypatch.setattr(survey.os, "walk", walk)
-    monkeypatch.setattr("stallcheck.unitfile.os.access", lambda path, mode: "locked" not in str(path))
+    monkeypatch.setattr("stallcheck.files.unitfile.os.access", lambda path, mode: "locked" not in str(path))
     result = runner.invoke(app, ["survey", str(tmp_path)])
     assert result.exit_code == 2 and "Traceback" not in result.output
     assert f"{locked}: is a folder that cannot be read (permission denied)" in result.stderr

@@ -6,10 +6,10 @@ import subprocess
 import sys
 
 import pytest
+from conftest import BASE_UNIT, SAMPLES
 from typer.testing import CliRunner
 
 from stallcheck.cli import app
-from conftest import BASE_UNIT, SAMPLES
 
 runner = CliRunner()
 

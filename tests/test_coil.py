@@ -1,11 +1,11 @@
 """Coil heat transfer: ε-NTU against the `ht` library, inverses by round trip, and the
 method's straight line for fixed flow written out by hand."""
 
+import ht
 import numpy as np
 import pytest
-import ht
 
-from stallcheck import coil
+from stallcheck.physics import coil
 
 
 def _model(method="ntu", varies="inlet-temperature", n=0.0):

@@ -6,11 +6,13 @@ from dataclasses import replace
 
 import numpy as np
 import pytest
+from conftest import BASE_UNIT, said
 from iapws import IAPWS97
 
-from stallcheck import analysis, flash, properties, purge, traps, unitfile
+from stallcheck import analysis
 from stallcheck.errors import InputError
-from conftest import BASE_UNIT, said
+from stallcheck.files import unitfile
+from stallcheck.physics import flash, properties, purge, traps
 
 PSI = 6894.757293168
 ATM = 101325.0

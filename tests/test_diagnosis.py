@@ -6,12 +6,14 @@ to ranks first (the trade's reading of those symptoms: common practice)."""
 import json
 
 import pytest
+from conftest import BASE_UNIT
 from typer.testing import CliRunner
 
-from stallcheck import analysis, diagnosis, readings, unitfile
+from stallcheck import analysis
+from stallcheck.analysis import diagnosis
 from stallcheck.cli import app
 from stallcheck.errors import InputError
-from conftest import BASE_UNIT
+from stallcheck.files import readings, unitfile
 
 runner = CliRunner()
 
@@ -295,7 +297,7 @@ def test_ambiguous_or_impossible_vacuum_readings_are_refused(reading, fragment):
 
 def test_us_output_shows_vacuum_as_a_compound_gauge_reads_it():
     # 10 inHg below 14.696 psia is 4.91 psi of vacuum (NIST SP 811: 1 inHg = 0.491154 psi).
-    from stallcheck import quantities
+    from stallcheck.files import quantities
     assert quantities.show(101325 - 33863.8, "pressure", "us") == "-4.9 psig (10.0 inHg vac)"
     assert quantities.show(101325 + 1000, "pressure", "us") == "0.1 psig"
     assert "inHg" not in quantities.show(101325 - 33863.8, "pressure", "si")

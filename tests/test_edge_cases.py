@@ -5,12 +5,15 @@ import shutil
 
 import numpy as np
 import pytest
+from conftest import BASE_UNIT, SAMPLES
 from typer.testing import CliRunner
 
-from stallcheck import analysis, diagnosis, files, properties, readings, unitfile, valve
+from stallcheck import analysis
+from stallcheck.analysis import diagnosis
 from stallcheck.cli import app
 from stallcheck.errors import InputError
-from conftest import BASE_UNIT, SAMPLES
+from stallcheck.files import atomic, readings, unitfile
+from stallcheck.physics import properties, valve
 
 runner = CliRunner()
 
@@ -80,9 +83,9 @@ def test_interrupted_write_leaves_the_old_file_and_no_scraps(tmp_path, monkeypat
     def interrupted(fd):
         raise KeyboardInterrupt
 
-    monkeypatch.setattr(files.os, "fsync", interrupted)
+    monkeypatch.setattr(atomic.os, "fsync", interrupted)
     with pytest.raises(KeyboardInterrupt):
-        files.write_new(out, "new\n", "--csv", force=True)
+        atomic.write_new(out, "new\n", "--csv", force=True)
     assert out.read_text(encoding="utf-8") == "old\n"
     assert [p.name for p in tmp_path.iterdir()] == ["survey.csv"]
 
@@ -91,9 +94,9 @@ def test_read_only_folder_is_a_clear_message(tmp_path, monkeypatch):
     def refuse(*args, **kwargs):
         raise PermissionError(13, "Permission denied")
 
-    monkeypatch.setattr(files.tempfile, "mkstemp", refuse)
+    monkeypatch.setattr(atomic.tempfile, "mkstemp", refuse)
     with pytest.raises(InputError, match="cannot write"):
-        files.write_new(tmp_path / "out.csv", "x", "--csv")
+        atomic.write_new(tmp_path / "out.csv", "x", "--csv")
 
 
 def test_commands_never_change_their_input_files(tmp_path):

@@ -5,9 +5,10 @@ import asyncio
 from dataclasses import replace
 
 import pytest
-
-from stallcheck import analysis, tui, unitfile
 from conftest import BASE_UNIT, SAMPLES
+
+from stallcheck import analysis, tui
+from stallcheck.files import unitfile
 
 FT = 0.3048
 PSI = 6894.757293168

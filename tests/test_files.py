@@ -5,10 +5,10 @@ import os
 import stat
 
 import pytest
+from conftest import SAMPLES
 from typer.testing import CliRunner
 
 from stallcheck.cli import app
-from conftest import SAMPLES
 
 runner = CliRunner()
 

@@ -9,11 +9,12 @@ import math
 import os
 import string
 
-from hypothesis import HealthCheck, given, settings, strategies as st
+from conftest import BASE_UNIT
+from hypothesis import HealthCheck, given, settings
+from hypothesis import strategies as st
 from typer.testing import CliRunner
 
 from stallcheck.cli import app
-from conftest import BASE_UNIT
 
 runner = CliRunner()
 #: Examples per test: CI keeps the suite short; set STALLCHECK_EXAMPLES to run many more.

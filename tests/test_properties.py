@@ -5,8 +5,8 @@ import numpy as np
 import pytest
 from iapws import IAPWS97
 
-from stallcheck import properties
 from stallcheck.errors import PropertyRangeError
+from stallcheck.physics import properties
 
 
 # Published: IAPWS R7-97(2012), Table 35 (saturation temperature, region 4),
@@ -95,7 +95,7 @@ def test_a_steam_and_air_or_water_check_does_not_import_coolprop():
     import subprocess
     import sys
 
-    code = ("import sys\nfrom stallcheck import analysis, unitfile\n"
+    code = ("import sys\nfrom stallcheck import analysis\nfrom stallcheck.files import unitfile\n"
             "for f in ('sample_units/us_vacuum_breaker_gravity.toml', 'sample_units/si_water_heater.toml'):\n"
             "    analysis.analyse(unitfile.load(f))\n"
             "print('CoolProp' in sys.modules)")

@@ -3,11 +3,12 @@ hold whatever the numbers. Independent tier: each property follows from the stal
 p_coil + fill ≤ back + Δp_min and from a steam temperature that rises with load."""
 
 import numpy as np
-from hypothesis import given, settings, strategies as st
-
 import pytest
+from hypothesis import given, settings
+from hypothesis import strategies as st
 
-from stallcheck import analysis, quantities, unitfile
+from stallcheck import analysis
+from stallcheck.files import quantities, unitfile
 
 # One template for both unit systems: SI (degC, kPag, m) or the same unit in US customary
 # units (degF, psig, ft), every number written at full precision (repr).

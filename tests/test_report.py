@@ -4,11 +4,11 @@ import builtins
 import struct
 
 import pytest
+from conftest import SAMPLES
 from typer.testing import CliRunner
 
 from stallcheck import __version__
 from stallcheck.cli import app
-from conftest import SAMPLES
 
 runner = CliRunner()
 SECTIONS = ["# Stall check:", "## The unit", "## Method and assumptions", "## Stall point", "## Verdict",

@@ -13,10 +13,11 @@ are those of the unit-file conventions, worked by hand:
 import math
 
 import pytest
+from conftest import ROOT
 from iapws import IAPWS97
 
-from stallcheck import analysis, unitfile
-from conftest import ROOT
+from stallcheck import analysis
+from stallcheck.files import unitfile
 
 G = 9.80665
 PSI = 6894.757

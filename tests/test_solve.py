@@ -4,7 +4,7 @@ import math
 
 import numpy as np
 
-from stallcheck.solve import illinois
+from stallcheck.physics.solve import illinois
 
 
 def test_roots_known_in_closed_form():

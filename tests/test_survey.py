@@ -7,13 +7,15 @@ import os
 import shutil
 
 import pytest
+from conftest import BASE_UNIT, ROOT, SAMPLES
 from typer.testing import CliRunner
 
-from stallcheck import analysis, csvunits, files, survey, unitfile
+from stallcheck import analysis
+from stallcheck.analysis import survey
 from stallcheck.cli import app
 from stallcheck.errors import InputError
+from stallcheck.files import atomic, csvunits, unitfile
 from stallcheck.render import json as json_out
-from conftest import BASE_UNIT, ROOT, SAMPLES
 
 runner = CliRunner()
 
@@ -175,16 +177,16 @@ def test_failed_write_leaves_the_old_file_whole(tmp_path, monkeypatch):
     def disk_full(src, dst):
         raise OSError(28, "No space left on device")
 
-    monkeypatch.setattr(files.os, "replace", disk_full)
+    monkeypatch.setattr(atomic.os, "replace", disk_full)
     with pytest.raises(InputError, match="No space left"):
-        files.write_new(out, "new contents\n", "--csv", force=True)
+        atomic.write_new(out, "new contents\n", "--csv", force=True)
     assert out.read_text(encoding="utf-8") == "old contents\n"
     assert [p.name for p in tmp_path.iterdir()] == ["survey.csv"]
 
 
 def test_writing_into_a_missing_folder_is_refused(tmp_path):
     with pytest.raises(InputError, match="does not exist"):
-        files.write_new(tmp_path / "nowhere" / "out.csv", "x", "--csv")
+        atomic.write_new(tmp_path / "nowhere" / "out.csv", "x", "--csv")
 
 
 def test_input_files_are_never_modified(tmp_path):
@@ -199,6 +201,7 @@ def test_csv_rows_that_would_take_defaults_silently_are_refused(tmp_path):
     # stalls reported fine); a header alone has no units; an unclosed quote would
     # swallow every later row. Each is bad input named with the line the record starts on.
     from typer.testing import CliRunner
+
     from stallcheck.cli import app
 
     runner = CliRunner()

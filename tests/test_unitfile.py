@@ -4,10 +4,10 @@ accepted; good input arrives in SI with absolute pressures."""
 import json
 
 import pytest
-
-from stallcheck import quantities, unitfile
-from stallcheck.errors import InputError
 from conftest import BASE_UNIT
+
+from stallcheck.errors import InputError
+from stallcheck.files import quantities, unitfile
 
 PSI = 6894.757
 
@@ -173,7 +173,8 @@ def test_a_pressure_hint_is_accepted_when_followed(text, absolute_only, own):
     # A hint keeps the user's own psi, bar or kPa (other units converted) and offers only
     # spellings the key accepts: each suggestion, typed back, parses.
     import re
-    from stallcheck import quantities
+
+    from stallcheck.files import quantities
 
     with pytest.raises(InputError) as err:
         quantities.pressure("site.atmospheric_pressure" if absolute_only else "drain.return_pressure", text,
@@ -187,7 +188,7 @@ def test_a_pressure_hint_is_accepted_when_followed(text, absolute_only, own):
 
 
 def test_pressure_spellings_with_brackets_are_read():
-    from stallcheck import quantities
+    from stallcheck.files import quantities
 
     assert quantities.pressure("k", "101 kPa(a)") == quantities.pressure("k", "101 kPaa")
     assert quantities.pressure("k", "2 bar(g)") == quantities.pressure("k", "2 barg")

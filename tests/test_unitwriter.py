@@ -4,9 +4,9 @@ import math
 from dataclasses import asdict
 
 import pytest
-
-from stallcheck import unitfile, unitwriter
 from conftest import SAMPLES
+
+from stallcheck.files import unitfile, unitwriter
 
 
 def _close(a, b, path=""):
@@ -43,9 +43,9 @@ def test_editing_a_sample_changes_only_the_changed_lines(sample):
     # the user's only on those lines, in the user's own units, at the precision shown
     # on screen, with comments kept; and it reads back to the changed values.
     import difflib
-    from dataclasses import replace
 
-    from stallcheck import tui, unitwriter
+    from stallcheck import tui
+    from stallcheck.files import unitwriter
 
     text = sample.read_text(encoding="utf-8")
     original = unitfile.parse(text, str(sample))
@@ -73,7 +73,7 @@ def test_editing_a_sample_changes_only_the_changed_lines(sample):
 def test_a_changed_value_keeps_the_file_s_own_unit_and_shown_precision():
     from dataclasses import replace
 
-    from stallcheck import unitwriter
+    from stallcheck.files import unitwriter
 
     text = ('format = 1\n[unit]\nname = "t"\n[site]\nelevation = "850 ft"   # the plant\n[design]\nmedium = "air"\n'
             'flow = "6000 cfm"\ninlet_temperature = "0 degF"\noutlet_temperature = "55 degF"\n'

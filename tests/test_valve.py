@@ -8,7 +8,7 @@ import numpy as np
 import pytest
 from fluids.control_valve import Kv_to_Cv, size_control_valve_g
 
-from stallcheck import properties, valve
+from stallcheck.physics import properties, valve
 
 R = 8.314462618
 MW_WATER = 18.01528  # g/mol

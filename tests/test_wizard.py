@@ -5,9 +5,10 @@ same unit written by hand."""
 import pytest
 from typer.testing import CliRunner
 
-from stallcheck import unitfile, wizard
+from stallcheck import wizard
 from stallcheck.cli import app
 from stallcheck.errors import InputError
+from stallcheck.files import unitfile
 
 runner = CliRunner()
 
@@ -130,7 +131,7 @@ def test_ctrl_c_writes_nothing(tmp_path, monkeypatch):
 
 
 def test_every_question_names_a_key_the_unit_file_knows():
-    from stallcheck.unitfile import _KNOWN
+    from stallcheck.files.unitfile import _KNOWN
 
     for x in wizard.QUESTIONS:
         section, name = x.key.split(".")

@@ -70,3 +70,27 @@ def test_every_template_fills_from_its_own_fields():
                     facts[field] = sample.get(spec.lstrip("~"), 0.5) if spec else "x"
             text = words.fill(template, facts, "si", 101325.0)
             assert "{" not in text and "}" not in text, (code, name)
+
+
+def _stallcheck_imports(path: Path) -> set[str]:
+    return {m for m in _imports(path) if m.startswith("stallcheck")}
+
+
+def test_the_folders_keep_the_pipeline_in_one_direction():
+    # files -> inputs -> physics -> analysis -> result -> render; commands on top.
+    allowed = {
+        "physics": ("stallcheck.physics", "stallcheck.errors", "stallcheck.inputs", "stallcheck.result"),
+        "files": ("stallcheck.files", "stallcheck.errors", "stallcheck.inputs", "stallcheck.physics.constants"),
+    }
+    for folder, ok in allowed.items():
+        for path in (PACKAGE / folder).glob("*.py"):
+            bad = {m for m in _stallcheck_imports(path) if not m.startswith(ok)}
+            assert not bad, (path.name, bad)
+    for path in (PACKAGE / "render").glob("*.py"):
+        # a presenter quotes the constants of practice, never runs the physics
+        bad = {m for m in _stallcheck_imports(path)
+               if m.startswith("stallcheck.physics") and not m.startswith("stallcheck.physics.constants")}
+        assert not bad, (path.name, bad)
+    # the command line computes nothing itself
+    bad = {m for m in _stallcheck_imports(PACKAGE / "cli.py") if m.startswith("stallcheck.physics")}
+    assert not bad

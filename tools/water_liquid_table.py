@@ -1,4 +1,4 @@
-"""Write stallcheck/water_liquid.py: Chebyshev series of liquid water's specific heat and
+"""Write stallcheck/physics/water_liquid.py: Chebyshev series of liquid water's specific heat and
 density at 500 kPa from 0 °C to 150 °C, fitted to CoolProp's HEOS (IAPWS-95) values.
 
 A check of a steam-and-water unit then needs no CoolProp import (seconds) for the one
@@ -39,7 +39,7 @@ def main() -> None:
         '"""\n\n'
         f"LOW = {LOW!r}\nHIGH = {HIGH!r}\nPRESSURE = {PRESSURE!r}\n"
         f"CP = {cp!r}\nDENSITY = {rho!r}\n")
-    Path(__file__).resolve().parent.parent.joinpath("stallcheck", "water_liquid.py").write_text(text, encoding="utf-8")
+    Path(__file__).resolve().parent.parent.joinpath("stallcheck", "physics", "water_liquid.py").write_text(text, encoding="utf-8")
 
 
 if __name__ == "__main__":

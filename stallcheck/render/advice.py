@@ -13,8 +13,8 @@ from __future__ import annotations
 
 from dataclasses import dataclass
 
-from stallcheck import quantities as q
-from stallcheck.remedies import MARGIN
+from stallcheck.analysis.remedies import MARGIN
+from stallcheck.files import quantities as q
 from stallcheck.render import words
 from stallcheck.result import Remedy, Result
 

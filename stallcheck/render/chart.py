@@ -19,7 +19,7 @@ from __future__ import annotations
 
 import numpy as np
 
-from stallcheck import quantities as q
+from stallcheck.files import quantities as q
 from stallcheck.result import Result
 
 #: Style names the terminal maps to colours.

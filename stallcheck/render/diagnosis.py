@@ -8,8 +8,8 @@ from rich.console import Group
 from rich.table import Table
 from rich.text import Text
 
-from stallcheck import quantities as q
-from stallcheck.diagnosis import Diagnosis
+from stallcheck.analysis.diagnosis import Diagnosis
+from stallcheck.files import quantities as q
 from stallcheck.render import json as json_out
 from stallcheck.render.terminal import _bullets, _heading, _para, heading
 

@@ -10,8 +10,8 @@ from __future__ import annotations
 import json
 import math
 
-from stallcheck import quantities as q
-from stallcheck.remedies import MARGIN
+from stallcheck.analysis.remedies import MARGIN
+from stallcheck.files import quantities as q
 from stallcheck.render import advice, words
 from stallcheck.result import Result
 

@@ -5,7 +5,7 @@ from __future__ import annotations
 
 import io
 
-from stallcheck import quantities as q
+from stallcheck.files import quantities as q
 from stallcheck.inputs import Unit
 from stallcheck.render import advice, chart, words
 from stallcheck.result import Result

@@ -11,9 +11,9 @@ from rich.console import Group
 from rich.padding import Padding
 from rich.text import Text
 
-from stallcheck import quantities as q
+from stallcheck.analysis.survey import Failure, Summary
+from stallcheck.files import quantities as q
 from stallcheck.render import json as json_out
-from stallcheck.survey import Failure, Summary
 
 SEVERITY_STYLE = {"danger": "bold red", "warning": "yellow", "info": "cyan"}
 

@@ -11,7 +11,7 @@ from rich.padding import Padding
 from rich.table import Table
 from rich.text import Text
 
-from stallcheck import quantities as q
+from stallcheck.files import quantities as q
 from stallcheck.render import advice, chart, words
 from stallcheck.result import Result
 
@@ -261,7 +261,7 @@ def _devices(r: Result, system: str) -> list:
         else:
             parts.append(_para("none at full load: the coil pressure is not above the return pressure"))
         if fl.velocity is not None:
-            from stallcheck.constants import VELOCITY_LIMIT
+            from stallcheck.physics.constants import VELOCITY_LIMIT
             parts.append(_para(f"return line {q.show(fl.line_diameter, 'diameter', system)} bore: "
                                f"{q.show(fl.velocity, 'velocity', system)} (keep under about "
                                f"{q.show_about(VELOCITY_LIMIT, 'velocity', system)})"))

@@ -10,10 +10,10 @@ touching a rule. The README's findings table lists the same codes
 (``tests/test_words.py`` keeps the two in step).
 
 A template is a :meth:`str.format` string. A field's format spec is either an ordinary
-one (``{load:.0%}``) or a display kind of :data:`stallcheck.quantities.DISPLAY`
+one (``{load:.0%}``) or a display kind of :data:`stallcheck.files.quantities.DISPLAY`
 (``{back:pressure}``, ``{flow:mass_flow}``): the SI value is then converted and rounded
-as :func:`stallcheck.quantities.show` prints it; ``~kind`` quotes a limit of practice
-the way practitioners round it (:func:`stallcheck.quantities.show_about`).
+as :func:`stallcheck.files.quantities.show` prints it; ``~kind`` quotes a limit of practice
+the way practitioners round it (:func:`stallcheck.files.quantities.show_about`).
 """
 
 from __future__ import annotations
@@ -21,7 +21,8 @@ from __future__ import annotations
 import string
 from typing import Any, Mapping
 
-from stallcheck import quantities as q
+from stallcheck.analysis.remedies import MARGIN
+from stallcheck.files import quantities as q
 
 #: What fitting each required arrangement means (the "what to do" section and
 #: diagnose's remedies say the same).
@@ -337,8 +338,6 @@ def down_to(minimum: float) -> str:
 def remedy(m, system: str, atmospheric: float, minimum: float) -> str:
     """The note of a :class:`stallcheck.result.Remedy`: what the figure means, or why
     no figure works; ``minimum`` is the unit's minimum load [-]."""
-    from stallcheck.remedies import MARGIN
-
     key = "*" if m.reason == "tight" else m.key
     facts = {"value": m.value, "current": m.current, "margin": MARGIN, "down_to": down_to(minimum),
              **m.facts}

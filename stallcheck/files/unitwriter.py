@@ -9,7 +9,7 @@ from __future__ import annotations
 
 import math
 
-from stallcheck import quantities as q
+from stallcheck.files import quantities as q
 from stallcheck.inputs import Unit
 
 #: Units written, by system: (pressure, differential, temperature, length, mass flow,

@@ -1,4 +1,4 @@
-"""Run the physics in order for many units at once and gather a
+"""Run the physics in order for many units at once, apply the rules and gather a
 :class:`~stallcheck.result.Result` for each.
 
 unit → design point (properties) → coil model → stall threshold and stall point
@@ -7,8 +7,8 @@ devices → remedies → findings.
 
 Every step works on arrays with one row per unit, so the steam tables are called a
 handful of times for a whole survey rather than thousands of times per unit; a single
-``check`` is a survey of one, so the two give the same numbers. Only the words (the
-reasons, findings and notes) are built unit by unit.
+``check`` is a survey of one, so the two give the same numbers. The rules' facts are
+gathered unit by unit; no words are built here (:mod:`stallcheck.render.words`).
 """
 
 from __future__ import annotations
@@ -17,13 +17,15 @@ from dataclasses import dataclass, replace
 
 import numpy as np
 
-from stallcheck import coil as coilmod
-from stallcheck import devices, drainage, findings, properties, remedies, valve as valvemod
-from stallcheck import quantities as q
+from stallcheck.analysis import findings, remedies
 from stallcheck.errors import InputError, StallcheckError
+from stallcheck.files import quantities as q
 from stallcheck.inputs import Unit
+from stallcheck.physics import coil as coilmod
+from stallcheck.physics import devices, drainage, properties
+from stallcheck.physics import valve as valvemod
+from stallcheck.physics.solve import illinois
 from stallcheck.result import DesignPoint, Drainage, Points, Result, StallPoint, ValveResult
-from stallcheck.solve import illinois
 
 #: Specific heat of air [J/(kg·K)] (the unit-file conventions).
 AIR_CP = 1006.0

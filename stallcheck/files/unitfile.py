@@ -18,11 +18,25 @@ import tomllib
 from dataclasses import replace
 from pathlib import Path
 
-from stallcheck import quantities as q
 from stallcheck.errors import InputError
-from stallcheck.inputs import (ARRANGEMENTS, CHARACTERISTICS, MEDIA, METHODS, TRAPS, VARIES,
-                               CapacityPoint, Design, Drain, Geometry, Load, LoadBin, Site, Unit,
-                               Valve)
+from stallcheck.files import quantities as q
+from stallcheck.inputs import (
+    ARRANGEMENTS,
+    CHARACTERISTICS,
+    MEDIA,
+    METHODS,
+    TRAPS,
+    VARIES,
+    CapacityPoint,
+    Design,
+    Drain,
+    Geometry,
+    Load,
+    LoadBin,
+    Site,
+    Unit,
+    Valve,
+)
 
 #: Largest unit file read [bytes]. A unit file is a page of text.
 MAX_FILE_BYTES = 1_000_000

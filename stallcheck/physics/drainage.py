@@ -23,8 +23,8 @@ from __future__ import annotations
 
 from dataclasses import dataclass
 
-from stallcheck.constants import GRAVITY
-from stallcheck.traps import SELECTION_DIFFERENTIAL
+from stallcheck.physics.constants import GRAVITY
+from stallcheck.physics.traps import SELECTION_DIFFERENTIAL
 
 #: A stall counts only where the stall pressure exceeds the coil pressure by more than
 #: this [Pa] (0.1 mbar, far below what any gauge reads): on a coil whose pressure curve

@@ -4,7 +4,7 @@ The header names the unit file's keys in dotted form (``design.flow``, ``drain.l
 A column's unit may sit in its header, ``drain.lift [ft]``, and its cells are then bare
 numbers; otherwise each cell carries its own, as in a unit file (``"8 ft"``). The unit
 of a header is checked once per column. Each row becomes the same nested tables as a
-unit file and is validated by :func:`stallcheck.unitfile.from_data`, so a CSV row is
+unit file and is validated by :func:`stallcheck.files.unitfile.from_data`, so a CSV row is
 accepted or refused exactly as the same unit written in TOML. Load bins and capacity
 tables (arrays of tables) need a TOML unit file.
 """
@@ -17,9 +17,9 @@ import re
 from pathlib import Path
 from typing import Iterator
 
-from stallcheck import quantities as q
 from stallcheck.errors import InputError
-from stallcheck.unitfile import MAX_FILE_BYTES, known_key, read_text, unknown_key
+from stallcheck.files import quantities as q
+from stallcheck.files.unitfile import MAX_FILE_BYTES, known_key, read_text, unknown_key
 
 #: Largest CSV read [bytes]: a table of many thousands of units.
 MAX_CSV_BYTES = 100 * MAX_FILE_BYTES
@@ -109,7 +109,7 @@ def rows(path: str | Path) -> Iterator[tuple[int, dict | InputError]]:
     ------
     InputError
         For a file that cannot be read or a header that cannot be used (the whole file
-        is refused). Most bad cells are left for :func:`stallcheck.unitfile.from_data`,
+        is refused). Most bad cells are left for :func:`stallcheck.files.unitfile.from_data`,
         which names their key.
     """
     source = str(path)

@@ -7,10 +7,10 @@ Codes are stable (scripts filter on them); the README lists them with their sour
 
 from __future__ import annotations
 
-from stallcheck import layout
-from stallcheck.constants import VELOCITY_LIMIT
-from stallcheck.devices import MOTIVE_MARGIN
+from stallcheck.analysis import layout
 from stallcheck.inputs import Unit
+from stallcheck.physics.constants import VELOCITY_LIMIT
+from stallcheck.physics.devices import MOTIVE_MARGIN
 from stallcheck.result import Finding, Result
 
 FREEZING = 273.15

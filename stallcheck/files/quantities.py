@@ -6,7 +6,7 @@ pressure spellings and a few trade abbreviations), checks its dimension, and
 returns a float in SI: Pa (absolute), K, m, kg/s, m³/s.
 
 Gauge pressures need the site's atmospheric pressure, so they come back as a
-:class:`Pressure` that remembers whether it was gauge; :mod:`stallcheck.unitfile`
+:class:`Pressure` that remembers whether it was gauge; :mod:`stallcheck.files.unitfile`
 resolves it once the site is known.
 
 pint is imported on first use, not with the package: ``stallcheck --help`` must stay
@@ -28,8 +28,8 @@ from dataclasses import dataclass
 from functools import lru_cache
 from pathlib import Path
 
-from stallcheck.constants import GRAVITY, STANDARD_AIR_DENSITY, STANDARD_ATMOSPHERE  # noqa: F401 (re-exported)
 from stallcheck.errors import InputError
+from stallcheck.physics.constants import GRAVITY, STANDARD_AIR_DENSITY, STANDARD_ATMOSPHERE  # noqa: F401 (re-exported)
 
 # Pressure spellings. Gauge and absolute are separate units in the registry so the
 # parsed unit tells which was written.

@@ -11,7 +11,7 @@ from __future__ import annotations
 
 import numpy as np
 
-from stallcheck import properties
+from stallcheck.physics import properties
 
 
 def flash_fraction(high_pressure, low_pressure):

@@ -136,10 +136,10 @@ LIQUID_PRESSURE = 500e3
 
 def _water(coefficients, temperature):
     """Liquid water at 500 kPa from the Chebyshev series of CoolProp's HEOS values
-    (:mod:`stallcheck.water_liquid`, within 1e-11 of CoolProp: a test holds it)."""
+    (:mod:`stallcheck.physics.water_liquid`, within 1e-11 of CoolProp: a test holds it)."""
     from numpy.polynomial import chebyshev
 
-    from stallcheck import water_liquid as w
+    from stallcheck.physics import water_liquid as w
 
     t = np.asarray(temperature, dtype=float)
     if np.any(~np.isfinite(t)) or np.any(t < w.LOW) or np.any(t > w.HIGH):
@@ -160,7 +160,7 @@ def medium_cp(medium: str, concentration: float | None, temperature):
         Usually the mean design temperature. [K]
     """
     if medium == "water":
-        from stallcheck import water_liquid
+        from stallcheck.physics import water_liquid
 
         return _water(water_liquid.CP, temperature)
     return _props("C", "T", temperature, "P", LIQUID_PRESSURE, _medium_fluid(medium, concentration))
@@ -169,7 +169,7 @@ def medium_cp(medium: str, concentration: float | None, temperature):
 def medium_density(medium: str, concentration: float | None, temperature):
     """Density [kg/m³] of a heated liquid at a temperature [K] (see :func:`medium_cp`)."""
     if medium == "water":
-        from stallcheck import water_liquid
+        from stallcheck.physics import water_liquid
 
         return _water(water_liquid.DENSITY, temperature)
     return _props("D", "T", temperature, "P", LIQUID_PRESSURE, _medium_fluid(medium, concentration))

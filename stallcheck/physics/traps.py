@@ -14,7 +14,7 @@ from __future__ import annotations
 
 import numpy as np
 
-from stallcheck import properties
+from stallcheck.physics import properties
 
 #: Discharge coefficient of a trap seat taken as a sharp-edged orifice [-]: the
 #: textbook value for sharp-edged orifices at high Reynolds number (about 0.6, as in

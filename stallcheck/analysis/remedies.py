@@ -23,14 +23,14 @@ pump-trap drains at every load, so it has no remedies here.
 
 from __future__ import annotations
 
-import numpy as np
-
 from typing import Callable
 
-from stallcheck import coil as coilmod
-from stallcheck import drainage, properties
-from stallcheck.constants import GRAVITY
+import numpy as np
+
 from stallcheck.inputs import Unit
+from stallcheck.physics import coil as coilmod
+from stallcheck.physics import drainage, properties
+from stallcheck.physics.constants import GRAVITY
 from stallcheck.result import Remedy
 
 #: ``round(value, kind, up)``: an SI value [Pa or m] rounded at the precision it is

@@ -12,11 +12,12 @@ from typing import Callable
 
 import numpy as np
 
-from stallcheck import flash as flashmod
-from stallcheck import coil as coilmod
-from stallcheck import properties, purge as purgemod, traps
 from stallcheck.inputs import Unit
-from stallcheck.solve import illinois
+from stallcheck.physics import coil as coilmod
+from stallcheck.physics import flash as flashmod
+from stallcheck.physics import properties, traps
+from stallcheck.physics import purge as purgemod
+from stallcheck.physics.solve import illinois
 from stallcheck.result import FlashFigures, PumpTrapFigures, PurgeFigures, StallPoint, TrapFigures
 
 #: The drainage limit is solved to this fraction of design load [-].

@@ -9,13 +9,13 @@ memory held does not grow with the number of units beyond the summaries.
 from __future__ import annotations
 
 import os
-
 from dataclasses import dataclass
 from pathlib import Path
 from typing import Callable, Iterable, Iterator
 
-from stallcheck import analysis, csvunits, unitfile
+from stallcheck import analysis
 from stallcheck.errors import InputError, StallcheckError
+from stallcheck.files import csvunits, unitfile
 from stallcheck.result import SEVERITIES, Result
 
 #: Units analysed together: enough to spread the steam-table calls, few enough to keep

@@ -2,17 +2,17 @@
 
 The same quantity rules as the unit file: pressures say gauge or absolute, and gauge
 values convert with the unit's site atmosphere. Checks that need steam properties (an
-outlet reading above the steam temperature) are made in :mod:`stallcheck.diagnosis`.
+outlet reading above the steam temperature) are made in :mod:`stallcheck.analysis.diagnosis`.
 """
 
 from __future__ import annotations
 
 from dataclasses import dataclass
 
-from stallcheck import quantities as q
 from stallcheck.errors import InputError
+from stallcheck.files import quantities as q
+from stallcheck.files.unitfile import COLDEST_AIR, check_pressure_range
 from stallcheck.inputs import Unit
-from stallcheck.unitfile import COLDEST_AIR, check_pressure_range
 
 #: When the noise happens.
 NOISE = ("start-up", "low-load", "mild-weather", "valve-opens", "all-the-time", "none")

@@ -15,15 +15,18 @@ from dataclasses import dataclass
 
 import numpy as np
 
-from stallcheck import analysis, coil as coilmod, layout, properties
-from stallcheck import quantities as q
-from stallcheck.constants import GRAVITY
-from stallcheck.devices import MOTIVE_MARGIN, TrapCapacity
-from stallcheck.render.words import FIT as FIT_WORDS
+from stallcheck import analysis
+from stallcheck.analysis import layout
+from stallcheck.analysis.findings import POOR_AT_LOW_DIFFERENTIAL
 from stallcheck.errors import InputError
-from stallcheck.findings import POOR_AT_LOW_DIFFERENTIAL
+from stallcheck.files import quantities as q
+from stallcheck.files.readings import Readings
 from stallcheck.inputs import Unit
-from stallcheck.readings import Readings
+from stallcheck.physics import coil as coilmod
+from stallcheck.physics import properties
+from stallcheck.physics.constants import GRAVITY
+from stallcheck.physics.devices import MOTIVE_MARGIN, TrapCapacity
+from stallcheck.render.words import FIT as FIT_WORDS
 from stallcheck.result import Result
 
 #: Gauge and model agree within the larger of this [Pa] (about 1.5 psi) ...
