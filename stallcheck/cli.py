@@ -293,8 +293,12 @@ def _analyse_text(text: str):
 def explore(unit: Path = UNIT_ARG, units: Optional[Units] = UNITS_OPT) -> None:
     """Explore what-ifs on a live stall chart: keys nudge the lift (l/L), return pressure
     (r/R), fill head (f/F), design steam pressure (p/P), valve Cv (c/C) and minimum load
-    (m/M); d shows the changes, s saves them as a new unit file, q quits.
+    (m/M); ? lists the keys, d shows the changes, s saves them as a new unit file, q quits
+    (asking first where changes are not saved). Needs an interactive terminal.
     """
+    if not (sys.stdin.isatty() and sys.stdout.isatty()):
+        _fail("explore needs an interactive terminal (its keys are read from one); for a file or a pipe "
+              "use `stallcheck check` or `stallcheck chart`.")
     unit_obj, _ = _load(unit, units, None)
     from stallcheck import tui
 

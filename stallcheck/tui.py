@@ -132,19 +132,71 @@ class TextScreen(ModalScreen):
         self.dismiss(None)
 
 
+#: The help page: every key, what it does and by how much.
+HELP = """Keys (lower-case lowers, capital raises)
+
+  l L   lift after the trap          1 ft or 0.25 m a step
+  r R   return pressure              1 psi or 0.1 bar
+  f F   fill head under the coil     3 in or 50 mm
+  p P   design steam pressure        1 psi or 0.1 bar
+  c C   valve Cv                     10 %
+  m M   minimum load                 5 points
+  d     the changes from the file, in values and results
+  s     save the changes as a new file (asks before replacing)
+  ?     this page
+  q     quit (asks first where the changes are not saved)
+
+Each key re-runs the analysis and redraws the chart.
+"was -> now" compares with the unit as its file has it.
+Escape closes this page."""
+
+
+def compared(before, after, system: str) -> list[str]:
+    """The results that differ between two analyses: ``what was -> now``."""
+    atm = after.atmospheric_pressure
+    out = []
+
+    def stall(r) -> str:
+        s = r.stall
+        return "none" if not s.occurs else ("every load" if s.load_fraction >= 1 else f"below {s.load_fraction:.0%}")
+
+    def verdict(r) -> str:
+        return f"{r.drainage.required}, {'adequate' if r.drainage.adequate else 'NOT ADEQUATE'}"
+
+    pairs = [("stall", stall(before), stall(after)), ("needs", verdict(before), verdict(after))]
+    if before.valve is not None and after.valve is not None:
+        pairs.append(("valve", f"{before.valve.opening_design:.0%} open", f"{after.valve.opening_design:.0%} open"))
+    if before.trap is not None and after.trap is not None:
+        pairs.append(("trap sized at", q.show(before.trap.selection_differential, "differential", system, atm),
+                      q.show(after.trap.selection_differential, "differential", system, atm)))
+    out += [f"{name} {a} -> {b}" for name, a, b in pairs if a != b]
+    return out
+
+
+def wrapped(text: str, width: int) -> list[str]:
+    """Plain words wrapped to ``width`` columns (status lines must not wrap on screen,
+    so that their height, and so the chart's, is known)."""
+    import textwrap
+
+    return textwrap.wrap(text, width=max(width, 20), break_on_hyphens=False) or [""]
+
+
 class Explorer(App):
     """The what-if app for one unit."""
 
     TITLE = "stallcheck explore"
     CSS = """
-    #chart { height: auto; }
-    #status { height: auto; padding: 1 0 0 0; }
-    #dialog, #page { border: round $accent; padding: 1 2; width: 80%; height: auto; margin: 4 8; }
+    #chart { height: 1fr; }
+    #status { height: auto; }
+    #dialog, #page { border: round $accent; padding: 0 1; height: auto; max-height: 90%; margin: 1 2; }
+    #dialog { width: 90%; max-width: 76; }
+    #page { width: auto; max-width: 90%; }
     """
     BINDINGS = [
         Binding(key, f"nudge('{knob}', {sign})", f"{LABELS[knob]} {'+' if sign > 0 else '-'}", show=False)
         for knob, keys in KEYS.items() for key, sign in ((keys[0], -1), (keys[2], 1))
-    ] + [Binding("d", "diff", "differences"), Binding("s", "save", "save as"), Binding("q", "quit", "quit")]
+    ] + [Binding("question_mark", "keys", "keys"), Binding("d", "diff", "changes"),
+         Binding("s", "save", "save as"), Binding("q", "quit", "quit")]
 
     def __init__(self, unit: Unit, system: str | None = None):
         super().__init__()
@@ -152,8 +204,10 @@ class Explorer(App):
         self.unit = unit
         self.system = system or unit.system
         self.result = analysis.analyse(unit, system=self.system)
-        self.message = "lower-case keys lower a value, capitals raise it"
+        self.baseline = self.result
+        self.message = "lower-case keys lower a value, capitals raise it; ? lists the keys"
         self.saved: Path | None = None
+        self.kept = unit          # the unit as last saved (or as the file has it)
 
     def compose(self) -> ComposeResult:
         yield Header()
@@ -165,32 +219,57 @@ class Explorer(App):
         self.sub_title = self.unit.name
         self.redraw()
 
-    def status_text(self) -> Text:
+    def on_resize(self, event) -> None:
+        # the new size reaches the widgets after this event: redraw once it has
+        self.call_after_refresh(self.redraw)
+
+    def status_lines(self, width: int) -> list[Text]:
+        """The lines under the chart, each at most ``width`` columns."""
         r, system, atm = self.result, self.system, self.result.atmospheric_pressure
         s = r.stall
-        lines = Text()
+        lines: list[Text] = []
         if not s.occurs:
-            lines.append("stall point: none, it drains at every load\n", style="green")
+            lines.append(Text("stall point: none, it drains at every load", style="green"))
         elif s.load_fraction >= 1:
-            lines.append("stall point: stalled at every load\n", style="bold red")
+            lines.append(Text("stall point: stalled at every load", style="bold red"))
         else:
-            lines.append(f"stall point: below {s.load_fraction:.0%} load, coil at "
-                         f"{q.show(s.coil_pressure, 'pressure', system, atm)}\n", style="bold")
+            lines.append(Text(f"stall point: below {s.load_fraction:.0%} load, coil at "
+                              f"{q.show(s.coil_pressure, 'pressure', system, atm)}", style="bold"))
         dn = r.drainage
-        lines.append(f"drainage: needs {dn.required}, has {dn.installed}: ")
-        lines.append("adequate\n" if dn.adequate else "NOT ADEQUATE\n", style="green" if dn.adequate else "bold red")
+        verdict = Text(f"drainage: needs {dn.required}, has {dn.installed}: ")
+        verdict.append("adequate" if dn.adequate else "NOT ADEQUATE", style="green" if dn.adequate else "bold red")
+        lines.append(verdict)
         for row in (("lift", "return", "fill"), ("design", "cv", "minimum")):
+            line = Text()
             for k in row:
-                lines.append(f"{KEYS[k]} ", style="bold")
-                lines.append(f"{LABELS[k]} {shown(value_of(self.unit, k), KNOBS[k][1], system, atm)}   ")
-            lines.append("\n")
-        lines.append(self.message, style="dim")
+                line.append(f"{KEYS[k]} ", style="bold")
+                line.append(f"{LABELS[k]} {shown(value_of(self.unit, k), KNOBS[k][1], system, atm)}   ")
+            line.rstrip()
+            lines.append(line)
+        # "drain.lift: 0.0 ft -> 1.0 ft" shortened to "lift 0.0 ft -> 1.0 ft"
+        changes = [key.split(".")[-1] + " " + change
+                   for key, change in (c.split(": ", 1) for c in differences(self.original, self.unit, system))]
+        changes += compared(self.baseline, r, system)
+        if changes:
+            lines += [Text(t, style="yellow") for t in wrapped("was -> now: " + "; ".join(changes), width)]
+        lines += [Text(t, style="dim") for t in wrapped(self.message, width)]
+        for line in lines:
+            line.truncate(width)
         return lines
 
     def redraw(self) -> None:
-        width = max(min(self.size.width, 100) - 2, 60)
-        self.query_one("#chart", Static).update(terminal.chart_text(self.result, self.system, width=width))
-        self.query_one("#status", Static).update(self.status_text())
+        width = max(min(self.size.width, 120) - 1, 40)
+        status = self.status_lines(width)
+        room = self.size.height - 2 - len(status)  # header and footer
+        rows = max(room - 6, 4)
+        for _ in range(3):  # the legend takes one line or two: fit the chart to the room left
+            chart = terminal.chart_text(self.result, self.system, width=width, height=rows)
+            over = len(chart.plain.splitlines()) - room
+            if over <= 0 or rows <= 4:
+                break
+            rows = max(rows - over, 4)
+        self.query_one("#chart", Static).update(chart)
+        self.query_one("#status", Static).update(Text("\n").join(status))
 
     def action_nudge(self, knob: str, sign: int) -> None:
         try:
@@ -204,9 +283,24 @@ class Explorer(App):
             self.message = f"{key} now {shown(value_of(unit, knob), kind, self.system, result.atmospheric_pressure)}"
         self.redraw()
 
+    def action_keys(self) -> None:
+        self.push_screen(TextScreen(HELP))
+
     def action_diff(self) -> None:
-        lines = differences(self.original, self.unit, self.system) or ["no changes from the original"]
-        self.push_screen(TextScreen("Changes from the original\n\n" + "\n".join(lines)))
+        inputs = differences(self.original, self.unit, self.system)
+        lines = (["Changes from the file", ""] + inputs + ["", "Results, was -> now", ""]
+                 + (compared(self.baseline, self.result, self.system) or ["no result changed"])
+                 if inputs else ["No changes from the file."])
+        self.push_screen(TextScreen("\n".join(lines)))
+
+    async def action_quit(self) -> None:
+        """Quit, asking first where there are changes not saved."""
+        if self.unit == self.kept:
+            self.exit()
+            return
+        self.push_screen(AskScreen("The changes are not saved. Quit anyway? (yes/no)", "no"),
+                         lambda yes: self.exit() if (yes or "").strip().lower() in ("y", "yes")
+                         else self._say("not quit: s saves the changes"))
 
     def action_save(self) -> None:
         source = Path(self.original.source)
@@ -232,6 +326,7 @@ class Explorer(App):
             self._say(f"not saved: {exc}")
             return
         self.saved = path
+        self.kept = self.unit
         self._say(f"saved {path}")
 
     def _text(self) -> str:

@@ -110,3 +110,158 @@ def test_every_sample_opens(tmp_path):
             await pilot.press("m", "M")
         _run(app, script)
         assert app.result.unit == unitfile.load(sample).name
+
+
+# --- the layout at 80x24 and 120x40 ---------------------------------------------------
+
+def _screen_text(app) -> list[str]:
+    """The screen as plain text, one string per row."""
+    import io
+
+    from rich.console import Console
+
+    width, height = app.size
+    console = Console(width=width, height=height, file=io.StringIO(), record=True, color_system=None)
+    console.print(app.screen._compositor.render_update(full=True, screen_stack=app._background_screens))
+    return console.export_text().splitlines()
+
+
+@pytest.mark.parametrize("size", [(80, 24), (120, 40)], ids=["80x24", "120x40"])
+def test_the_whole_what_if_loop_fits_the_terminal(size):
+    # Everything a user needs is on the screen at once: the chart with its whole x axis,
+    # the stall point, the verdict, every nudge key with its value, the was -> now line,
+    # and the footer's keys (? for the rest).
+    for sample in SAMPLES:
+        app = tui.Explorer(unitfile.load(sample))
+        seen = {}
+
+        async def script(pilot):
+            await pilot.press("L", "L", "m")
+            await pilot.pause()
+            seen["rows"] = _screen_text(app)
+
+        async def go():
+            async with app.run_test(size=size) as pilot:
+                await script(pilot)
+        asyncio.run(go())
+        rows = seen["rows"]
+        text = "\n".join(rows)
+        assert len(rows) == size[1]
+        assert any(r.rstrip().endswith("100") for r in rows), sample.name   # the x axis is whole
+        assert "load, % of design" in text
+        assert "stall point:" in text and "drainage: needs" in text, sample.name
+        for key in ("l/L", "r/R", "f/F", "p/P", "c/C", "m/M"):
+            assert key in text, (sample.name, key)
+        assert "was -> now: lift" in text, sample.name
+        assert "? keys" in rows[-1] and "q quit" in rows[-1]
+        assert all(len(r.rstrip()) <= size[0] for r in rows)
+
+
+def test_the_chart_follows_a_resized_window():
+    unit = unitfile.load(SAMPLES[0])
+    app = tui.Explorer(unit)
+    seen = {}
+
+    async def go():
+        async with app.run_test(size=(80, 24)) as pilot:
+            seen["small"] = app.query_one("#chart").content.plain.splitlines()
+            await pilot.resize_terminal(120, 40)
+            await pilot.pause()
+            seen["large"] = app.query_one("#chart").content.plain.splitlines()
+    asyncio.run(go())
+    assert len(seen["large"]) > len(seen["small"])
+    assert max(map(len, seen["large"])) > max(map(len, seen["small"]))
+
+
+def test_help_lists_every_key(tmp_path):
+    unit, _ = _unit(tmp_path)
+    app = tui.Explorer(unit)
+    seen = {}
+
+    async def script(pilot):
+        await pilot.press("question_mark")
+        seen["page"] = str(app.screen.query_one("#page").content)
+        await pilot.press("escape")
+        seen["back"] = app.screen is app.screen_stack[0]
+
+    _run(app, script)
+    for keys in ("l L", "r R", "f F", "p P", "c C", "m M", "d ", "s ", "q "):
+        assert f"  {keys}" in seen["page"], keys
+    assert seen["back"]
+
+
+def test_quitting_with_changes_not_saved_asks_first(tmp_path):
+    unit, _ = _unit(tmp_path)
+    app = tui.Explorer(unit)
+    seen = {}
+
+    async def script(pilot):
+        await pilot.press("L", "q")
+        seen["asked"] = isinstance(app.screen, tui.AskScreen)
+        await pilot.press("enter")                  # the default answer: no
+        seen["still"] = app.is_running and not isinstance(app.screen, tui.AskScreen)
+        await pilot.press("q")
+        app.screen.query_one("#answer").value = "yes"
+        await pilot.press("enter")
+        await pilot.pause()
+
+    _run(app, script)
+    assert seen["asked"] and seen["still"]
+    assert "not quit" in app.message
+    assert app.return_code == 0
+
+
+def test_quitting_with_nothing_changed_or_everything_saved_does_not_ask(tmp_path):
+    unit, _ = _unit(tmp_path)
+    app = tui.Explorer(unit)
+
+    async def script(pilot):
+        await pilot.press("q")
+        await pilot.pause()
+    _run(app, script)
+    assert app.return_code == 0
+
+    app = tui.Explorer(unit)
+    seen = {}
+
+    async def saved(pilot):
+        await pilot.press("L", "s", "enter", "q")
+        await pilot.pause()
+        seen["asked"] = isinstance(app.screen, tui.AskScreen)
+    _run(app, saved)
+    assert app.saved is not None and not seen["asked"] and app.return_code == 0
+
+
+def test_was_and_now_name_the_inputs_and_results_that_changed(tmp_path):
+    unit, _ = _unit(tmp_path)
+    app = tui.Explorer(unit)
+    seen = {}
+
+    async def script(pilot):
+        await pilot.press("L", "L")
+        seen["status"] = str(app.query_one("#status").content)
+    _run(app, script)
+    before = analysis.analyse(unit).stall.load_fraction
+    after = analysis.analyse(replace(unit, drain=replace(unit.drain, lift=2 * FT))).stall.load_fraction
+    status = " ".join(seen["status"].split())
+    assert "lift 0.0 ft -> 2.0 ft" in status
+    assert f"stall below {before:.0%} -> below {after:.0%}" in status
+
+
+def test_without_a_terminal_explore_refuses_with_exit_2():
+    from typer.testing import CliRunner
+
+    from stallcheck.cli import app
+
+    run = CliRunner().invoke(app, ["explore", str(SAMPLES[0])], input="")
+    assert run.exit_code == 2
+    assert "interactive terminal" in run.stderr and not run.stdout
+
+
+@pytest.mark.parametrize("size", [(80, 24), (120, 40)], ids=["80x24", "120x40"])
+def test_screens_match_their_snapshots(snap_compare, size):
+    # Regression pins of the layout (pytest-textual-snapshot): after two steps of lift
+    # on the vacuum-breaker sample, and with the key page open.
+    sample = next(s for s in SAMPLES if s.name == "us_vacuum_breaker_gravity.toml")
+    assert snap_compare(tui.Explorer(unitfile.load(sample)), terminal_size=size, press=["L", "L"])
+    assert snap_compare(tui.Explorer(unitfile.load(sample)), terminal_size=size, press=["question_mark"])

@@ -25,10 +25,10 @@ def _heading(text: str) -> Text:
     return Text(text.upper(), style="bold")
 
 
-def chart_text(result: Result, system: str, width: int, x_axis: str = "load") -> Text:
-    """The stall chart as a rich Text, coloured by mark."""
+def chart_text(result: Result, system: str, width: int, x_axis: str = "load", height: int = 15) -> Text:
+    """The stall chart as a rich Text, coloured by mark (``height``: plot rows)."""
     out = Text()
-    for i, line in enumerate(chart.render(result, system, width=width, x_axis=x_axis)):
+    for i, line in enumerate(chart.render(result, system, width=width, height=height, x_axis=x_axis)):
         if i:
             out.append("\n")
         for text, style in line:
