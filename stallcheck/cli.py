@@ -111,10 +111,21 @@ def chart(unit: Path = UNIT_ARG, units: Optional[Units] = UNITS_OPT,
           method: Optional[Method] = METHOD_OPT,
           x: Optional[XAxis] = typer.Option(None, "--x", help="x axis: load (%) or inlet (entering "
                                             "temperature). Default: inlet where the load follows it."),
-          width: Optional[int] = WIDTH_OPT) -> None:
-    """Print the stall chart alone."""
+          width: Optional[int] = WIDTH_OPT,
+          csv: Optional[Path] = typer.Option(None, "--csv", metavar="OUT.csv",
+                                             help="Also write the chart's points (101 loads, display units) "
+                                                  "to this CSV file."),
+          force: bool = typer.Option(False, "--force", help="Let --csv replace an existing file.")) -> None:
+    """Print the stall chart alone (--csv also writes its points for a spreadsheet)."""
     from stallcheck.render import terminal
 
+    if csv is not None:
+        from stallcheck.files import atomic
+
+        try:
+            atomic.check_target(csv, "--csv", force)
+        except InputError as exc:
+            _fail(str(exc))
     result = _run(unit, units, method)
     if x is not None and x.value == "inlet" and result.varies != "inlet-temperature":
         _fail(f"{unit}, option '--x': inlet needs a unit whose load follows its entering temperature "
@@ -123,17 +134,25 @@ def chart(unit: Path = UNIT_ARG, units: Optional[Units] = UNITS_OPT,
     axis = x.value if x else ("inlet" if result.varies == "inlet-temperature" else "load")
     out = terminal.console(width=width)
     terminal.emit(out, terminal.chart_text(result, result.system, width=out.width - 2, x_axis=axis))
+    if csv is not None:
+        from stallcheck.files import atomic
+        from stallcheck.render import chart as chartmod
+
+        try:
+            atomic.write_new(csv, chartmod.points_csv(result, result.system), "--csv", force)
+        except InputError as exc:
+            _fail(str(exc))
     raise typer.Exit(result.exit_status)
 
 
 @app.command()
-def demo(units: Optional[Units] = UNITS_OPT, json: bool = JSON_OPT) -> None:
+def demo(units: Optional[Units] = UNITS_OPT, json: bool = JSON_OPT, width: Optional[int] = WIDTH_OPT) -> None:
     """Analyse the example unit shipped with stallcheck (an invented air preheat coil)."""
     from importlib.resources import as_file, files
 
     with as_file(files("stallcheck") / "data" / "demo.toml") as path:
         result = _run(path, units, None)
-    _show_check(result, json)
+    _show_check(result, json, width)
 
 
 @app.command()
@@ -215,6 +234,10 @@ def new(file: Optional[Path] = typer.Argument(None, help="Where to write the uni
         out.print(f"{result.unit}: {verdict}; needs {result.drainage.required}, has {result.drainage.installed} "
                   f"({'adequate' if result.drainage.adequate else 'NOT adequate'})", highlight=False, markup=False)
         terminal.emit(out, terminal.chart_text(result, result.system, width=min(out.width, 100) - 2))
+        out.print("")
+        out.print("The unit file will hold:", highlight=False, markup=False)
+        for key, value in wizard.summary(answers):
+            out.print(f"  {key} = {value}", highlight=False, markup=False)
         out.print("")
         path = file
         while True:
@@ -317,7 +340,8 @@ def survey(paths: list[Path] = typer.Argument(..., help="Unit files, folders of 
                                      "as one JSON object, and nothing else."),
            csv: Optional[Path] = typer.Option(None, "--csv", help="Also write the survey table to this CSV file.",
                                               metavar="OUT.csv"),
-           force: bool = typer.Option(False, "--force", help="Let --csv replace an existing file.")) -> None:
+           force: bool = typer.Option(False, "--force", help="Let --csv replace an existing file."),
+           width: Optional[int] = WIDTH_OPT) -> None:
     """Survey many units: one line each, worst first.
 
     Exit status 2 where any unit could not be read, else 1 where any is not adequate or
@@ -366,9 +390,9 @@ def survey(paths: list[Path] = typer.Argument(..., help="Unit files, folders of 
         from stallcheck.render import survey as show
         from stallcheck.render import terminal
 
-        out = terminal.console()
+        out = terminal.console(width=width)
         if out.is_terminal:
-            out.print(show.table(summaries, failures, system))
+            out.print(show.table(summaries, failures, system, width=out.width))
         else:
             sys.stdout.write(show.plain(summaries, failures, system, width=out.width))
     for failure in failures:
@@ -441,7 +465,8 @@ def diagnose(unit: Path = UNIT_ARG,
                                                        "blowing-steam."),
              ask: Optional[bool] = typer.Option(None, "--ask/--no-ask", help="Ask for readings not given. "
                                                 "Default: ask when input is a terminal."),
-             units: Optional[Units] = UNITS_OPT, json: bool = JSON_OPT) -> None:
+             units: Optional[Units] = UNITS_OPT, json: bool = JSON_OPT,
+             width: Optional[int] = WIDTH_OPT) -> None:
     """Diagnose a unit in service from gauge readings and symptoms: the operating point,
     whether it is stalled now, and the likely causes ranked with how to confirm each.
 
@@ -469,7 +494,7 @@ def diagnose(unit: Path = UNIT_ARG,
     else:
         from stallcheck.render import terminal
 
-        out = terminal.console()
+        out = terminal.console(width=width)
         terminal.emit(out, show.report(found, result.system))
     raise typer.Exit(found.exit_status)
 

@@ -79,8 +79,9 @@ QUESTIONS = (
     Question("steam.supply_pressure", "Steam pressure ahead of the control valve (gauge)",
              "must be above the coil pressure so the valve can pass steam", "pressure",
              {"us": "15 psig", "si": "1 barg"}),
-    Question("valve.cv", "Control valve Cv (blank if not known)", "full-travel flow coefficient, US Cv",
-             "number", low=0.01, high=1e5, optional=True),
+    Question("valve.cv", "Control valve Cv or Kv (blank if not known)",
+             "full-travel flow coefficient: a plain number is Cv; write \"Kv 12\" for a Kv", "coefficient",
+             low=0.01, high=1e5, optional=True),
     Question("valve.characteristic", "Valve characteristic", "inherent flow characteristic", "choice",
              {"us": "equal-percentage", "si": "equal-percentage"}, choices=CHARACTERISTICS,
              when=lambda a: "valve.cv" in a),
@@ -116,22 +117,15 @@ CHOICE_WORDS = {
     "pg": "propylene-glycol", "propylene glycol": "propylene-glycol", "eg": "ethylene-glycol",
     "ethylene glycol": "ethylene-glycol",
 }
-#: Unit spellings as engineers type them (compared without case), by question kind.
-UNIT_WORDS = {
-    "temperature": {"c": "degC", "°c": "degC", "degc": "degC", "deg c": "degC", "deg. c": "degC", "celsius": "degC",
-                    "f": "degF", "°f": "degF", "degf": "degF", "deg f": "degF", "deg. f": "degF",
-                    "fahrenheit": "degF", "k": "K"},
-    "flow": {"cfm": "cfm", "scfm": "cfm", "gpm": "gpm", "lb/h": "lb/h", "lb/hr": "lb/h", "pph": "lb/h",
-             "kg/h": "kg/h", "kg/hr": "kg/h", "kg/s": "kg/s", "m3/h": "m3/h", "m³/h": "m3/h", "m3/s": "m3/s",
-             "m³/s": "m3/s", "l/s": "L/s"},
-    "pressure": {"psig": "psig", "psia": "psia", "barg": "barg", "bara": "bara", "kpag": "kPag", "kpaa": "kPaa",
-                 "kpa(g)": "kPa(g)", "kpa(abs)": "kPa(abs)", "kpa(a)": "kPa(a)", "bar(g)": "bar(g)",
-                 "bar(a)": "bar(a)"},
-    "length": {"in": "in", '"': "in", "inch": "in", "inches": "in", "ft": "ft", "'": "ft", "feet": "ft",
-               "foot": "ft", "m": "m", "mm": "mm"},
-    "fraction": {"%": "%", "percent": "%"},
-}
+#: Question kinds whose answers carry a unit (spelled by :func:`quantities.typed_unit`).
+UNIT_KINDS = {"temperature", "flow", "pressure", "length", "elevation", "fraction"}
 _TYPED = re.compile(r"^\s*([-+]?(?:\d{1,3}(?:,\d{3})+|\d+)?(?:\.\d+)?(?:[eE][-+]?\d+)?)\s*(.*?)\s*$")
+#: A flow coefficient as typed: "12", "Cv 12", "12 Cv", "Kv 10.4", "10.4 kv".
+_COEFFICIENT = re.compile(r"^\s*(cv|kv)?\s*=?\s*((?:\d{1,3}(?:,\d{3})+|\d+)(?:\.\d*)?|\.\d+)\s*(cv|kv)?\s*$", re.I)
+
+
+class Kv(float):
+    """A valve coefficient answered as Kv [m³/h at 1 bar]: written as ``kv`` in the file."""
 
 
 def typed(question: Question, text: str) -> str:
@@ -152,13 +146,19 @@ def typed(question: Question, text: str) -> str:
             return f"{float(text[:-1].strip().replace(',', '')) / 100.0:g}"
         except ValueError:
             return text
-    words = UNIT_WORDS.get(question.kind)
+    if question.kind == "coefficient":
+        match = _COEFFICIENT.match(text)
+        if not match or (match.group(1) and match.group(3)):
+            return text
+        kind = (match.group(1) or match.group(3) or "cv").lower()
+        return f"{kind} {match.group(2).replace(',', '')}"
     match = _TYPED.match(text)
-    if not words or not match or not match.group(1) or match.group(1) in "+-":
+    if question.kind not in UNIT_KINDS or not match or not match.group(1) or match.group(1) in "+-":
         return text
     number, unit = match.group(1).replace(",", ""), match.group(2)
-    spelled = words.get(unit.lower(), unit)
-    return f"{number} {spelled}"
+    if unit.lower() == "percent":
+        unit = "%"
+    return f"{number} {q.typed_unit(unit)}"
 
 
 def suggestion(question: Question, system: str, answers: dict) -> str | None:
@@ -207,6 +207,18 @@ def accept(question: Question, text: str, answers: dict, atmospheric: float = q.
         if text not in question.choices:
             raise InputError(key, f"'{text}' is not one of: {', '.join(question.choices)}.")
         return text
+    if kind == "coefficient":
+        name, _, number = text.partition(" ")
+        try:
+            if name not in ("cv", "kv"):
+                raise ValueError(name)
+            value = float(number)
+        except ValueError:
+            raise InputError(key, f"'{text}' is not a flow coefficient; accepted: a number (Cv), such as 12, or "
+                                  f"\"Kv 10.4\".") from None
+        if not question.low <= value <= question.high:
+            raise InputError(key, f"{value:g} is out of range; accepted: {question.low:g} to {question.high:g}.")
+        return Kv(value) if name == "kv" else value
     if kind == "number":
         try:
             value = float(text)
@@ -253,10 +265,21 @@ def accept(question: Question, text: str, answers: dict, atmospheric: float = q.
     raise ValueError(f"unknown question kind {kind}")
 
 
+def summary(answers: dict) -> list[tuple[str, str]]:
+    """Every answer as the file will have it: (key, value), in the order asked."""
+    out = []
+    for x in QUESTIONS:
+        if x.key in answers:
+            value = answers[x.key]
+            key = "valve.kv" if isinstance(value, Kv) else x.key
+            out.append((key, f"{value:g}" if isinstance(value, float) else str(value)))
+    return out
+
+
 def to_toml(answers: dict) -> str:
     """A commented unit file (format 1) from the answers."""
     lines = ["# Unit file written by stallcheck new. Each value is commented with what it means;",
-             "# the README lists every key the format accepts.", "format = 1"]
+             "# stallcheck's reference (docs/reference.md) lists every key the format accepts.", "format = 1"]
     section = None
     for x in QUESTIONS:
         if x.key not in answers:
@@ -266,6 +289,9 @@ def to_toml(answers: dict) -> str:
             lines += ["", f"[{part}]"]
             section = part
         value = answers[x.key]
+        explain = x.explain
+        if isinstance(value, Kv):
+            name, explain = "kv", "full-travel flow coefficient, Kv (m³/h of water at 1 bar drop)"
         written = f"{value:g}" if isinstance(value, float) else '"' + str(value).replace('"', '\\"') + '"'
-        lines.append(f"{name} = {written}".ljust(40) + f"# {x.explain}")
+        lines.append(f"{name} = {written}".ljust(40) + f"# {explain}")
     return "\n".join(lines) + "\n"

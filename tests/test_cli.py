@@ -154,3 +154,39 @@ def test_width_option_widens_the_report_and_the_chart():
     assert max(map(len, narrow.splitlines())) <= 80
     assert 100 < max(map(len, wide.splitlines())) <= 140
     assert runner.invoke(app, ["chart", str(SAMPLES[0]), "--width", "20"]).exit_code == 2
+
+
+def test_chart_csv_writes_the_points_in_display_units(tmp_path):
+    # The water heater's file: design steam pressure 2 barg, return 0 barg with no lift,
+    # so at full load the coil column reads 2 barg and the back pressure 0 barg.
+    import csv as csvmod
+
+    sample = next(s for s in SAMPLES if s.name == "si_water_heater.toml")
+    out = tmp_path / "points.csv"
+    r = runner.invoke(app, ["chart", str(sample), "--csv", str(out)])
+    assert r.exit_code in (0, 1), r.output
+    rows = list(csvmod.DictReader(out.open(encoding="utf-8")))
+    assert [float(row["load [%]"]) for row in rows] == [float(k) for k in range(101)]
+    full = rows[-1]
+    assert float(full["coil pressure [barg]"]) == pytest.approx(2.0, abs=1e-4)
+    assert float(full["back pressure [barg]"]) == pytest.approx(0.0, abs=1e-4)
+    assert full["stalled"] == "no" and rows[0]["stalled"] == "yes"
+    # a stalled row is one where the drain differential is not above zero (no trap minimum here)
+    assert all((float(row["drain differential [kPa]"]) <= 0.0) == (row["stalled"] == "yes") for row in rows)
+    # and the file is never replaced unasked
+    again = runner.invoke(app, ["chart", str(sample), "--csv", str(out)])
+    assert again.exit_code == 2 and "--force" in again.stderr
+
+
+@pytest.mark.parametrize("command", [["demo"], ["survey", "sample_units"], ["check", "sample_units/si_flooded_reheat.toml"],
+                                     ["chart", "sample_units/si_flooded_reheat.toml"],
+                                     ["diagnose", "sample_units/si_flooded_reheat.toml", "--no-ask"]])
+def test_every_text_command_takes_a_width(command, monkeypatch):
+    from conftest import ROOT
+
+    monkeypatch.chdir(ROOT)
+    narrow = runner.invoke(app, command + ["--width", "60"], env={"NO_COLOR": "1"})
+    wide = runner.invoke(app, command + ["--width", "140"], env={"NO_COLOR": "1"})
+    assert narrow.exit_code in (0, 1) and wide.exit_code == narrow.exit_code, narrow.output
+    assert max(map(len, narrow.stdout.splitlines())) <= 60
+    assert max(map(len, wide.stdout.splitlines())) > 60

@@ -190,3 +190,37 @@ def test_a_missing_answer_gives_an_example_in_the_chosen_units():
     question = next(x for x in wizard.QUESTIONS if x.key == "design.flow")
     with pytest.raises(InputError, match='such as "10000 m3/h"'):
         wizard.accept(question, "", {}, system="si")
+
+
+def test_a_kv_is_written_as_kv_and_read_as_the_same_valve(tmp_path):
+    # IEC 60534-1: Kv (m³/h, bar) = 0.865 Cv (US gpm, psi), i.e. Cv = 1.156 Kv.
+    answers = [(a, why) if why != "Cv" else ("Kv 15.6", "Kv") for a, why in ANSWERS]
+    assert any(why == "Kv" for _, why in answers)
+    out = tmp_path / "ahu9.toml"
+    result = _run(tmp_path, answers, [str(out)])
+    assert result.exit_code == 0, result.output
+    text = out.read_text(encoding="utf-8")
+    assert "kv = 15.6" in text and "\ncv = " not in text
+    assert unitfile.load(out).valve.cv == pytest.approx(15.6 * 1.156, rel=2e-3)
+
+
+@pytest.mark.parametrize("typed_text, cv, kv", [("12", 12.0, False), ("Cv 12", 12.0, False), ("12 cv", 12.0, False),
+                                                ("Kv 10.4", 10.4, True), ("10.4 KV", 10.4, True)])
+def test_a_valve_coefficient_as_typed(typed_text, cv, kv):
+    question = next(x for x in wizard.QUESTIONS if x.key == "valve.cv")
+    value = wizard.accept(question, typed_text, {})
+    assert value == cv and isinstance(value, wizard.Kv) is kv
+
+
+def test_the_summary_before_writing_lists_every_answer(tmp_path):
+    out = tmp_path / "ahu9.toml"
+    result = _run(tmp_path, ANSWERS, [str(out)])
+    assert result.exit_code == 0, result.output
+    shown = result.stdout.split("The unit file will hold:", 1)[1]
+    written = unitfile.parse(out.read_text(encoding="utf-8"), "x.toml")
+    assert written.name in shown
+    for key in ("unit.name", "unit.tag", "design.medium", "design.flow", "design.inlet_temperature",
+                "design.outlet_temperature", "design.steam_pressure", "steam.supply_pressure", "valve.cv",
+                "valve.characteristic", "load.minimum", "drain.arrangement", "drain.trap", "drain.fill_head",
+                "drain.lift", "drain.return_pressure"):
+        assert f"  {key} = " in shown, key

@@ -47,7 +47,31 @@ MAX_UNIT_TEXT = 40
 #: Longest quantity string read [characters].
 MAX_QUANTITY_TEXT = 120
 
-_NUMBER_UNIT = re.compile(r"^\s*([-+]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][-+]?\d+)?)\s*(\S.*?)\s*$")
+_NUMBER_UNIT = re.compile(
+    r"^\s*([-+]?(?:\d{1,3}(?:,\d{3})+(?:\.\d*)?|\d+(?:\.\d*)?|\.\d+)(?:[eE][-+]?\d+)?)\s*(\S.*?)\s*$")
+
+#: Units as engineers type them, compared without case (``15C``, ``0 deg F``,
+#: ``12000 CFM``, ``15 PSIG``): the one grammar of unit files, CSV cells, ``new`` and
+#: ``diagnose``. A spelling not here is looked up as written.
+TYPED_UNITS = {
+    "c": "degC", "°c": "degC", "degc": "degC", "deg c": "degC", "deg. c": "degC", "celsius": "degC",
+    "f": "degF", "°f": "degF", "degf": "degF", "deg f": "degF", "deg. f": "degF", "fahrenheit": "degF",
+    "k": "K", "kelvin": "K",
+    "cfm": "cfm", "scfm": "cfm", "gpm": "gpm", "lb/h": "lb/h", "lb/hr": "lb/h", "lbs/h": "lb/h",
+    "lbs/hr": "lb/h", "pph": "lb/h", "kg/h": "kg/h", "kg/hr": "kg/h", "kg/s": "kg/s", "m3/h": "m3/h",
+    "m³/h": "m3/h", "m3/s": "m3/s", "m³/s": "m3/s", "l/s": "L/s",
+    "psig": "psig", "psia": "psia", "barg": "barg", "bara": "bara", "kpag": "kPag", "kpaa": "kPaa",
+    "kpa(g)": "kPa(g)", "kpa(abs)": "kPa(abs)", "kpa(a)": "kPa(a)", "bar(g)": "bar(g)", "bar(a)": "bar(a)",
+    "bar(abs)": "bar(abs)", "psi(g)": "psi(g)", "psi(a)": "psi(a)",
+    "psi": "psi", "kpa": "kPa", "bar": "bar", "inh2o": "inH2O", "in h2o": "inH2O", "in. w.c.": "inH2O", "in wc": "inH2O",
+    "in": "in", '"': "in", "inch": "in", "inches": "in", "ft": "ft", "'": "ft", "feet": "ft", "foot": "ft",
+    "m": "m", "mm": "mm",
+}
+
+
+def typed_unit(unit_text: str) -> str:
+    """A unit as typed, in the unit file's spelling (:data:`TYPED_UNITS`), else as given."""
+    return TYPED_UNITS.get(unit_text.lower(), unit_text)
 
 
 @lru_cache(maxsize=1)
@@ -173,19 +197,20 @@ def _split(key: str, text, example: str) -> tuple[float, str]:
     if len(text) > MAX_QUANTITY_TEXT:
         raise InputError(key, f"is {len(text):,} characters long; a quantity is a number and a unit, such as "
                               f"\"{example}\".")
-    if "(" in text:
-        for spelled, name in _SPELLINGS.items():
-            text = text.replace(spelled, name)
     match = _NUMBER_UNIT.match(text)
+    if match and re.match(r",\d", match.group(2)):
+        raise InputError(key, f"'{text}': write the decimal point as a point (1.5, not 1,5); a comma only "
+                              f"separates thousands (12,000).")
     if not match:
         low = text.strip().lower()
         if any(word in low for word in ("nan", "inf")):
             raise InputError(key, f"'{text}' is not a finite number; write a value such as \"{example}\".")
         raise InputError(key, f"'{text}' is not '<number> <unit>'; write it as \"{example}\".")
-    value = float(match.group(1))
+    value = float(match.group(1).replace(",", ""))
     if not math.isfinite(value):
         raise InputError(key, f"'{text}' is not a finite number; write a value such as \"{example}\".")
-    return value, match.group(2)
+    unit = typed_unit(match.group(2))
+    return value, _SPELLINGS.get(unit, unit)
 
 
 class _Parsed:

@@ -192,3 +192,30 @@ def render(result: Result, system: str, width: int = 78, height: int = 15,
 def plain(lines: list[list[tuple[str, str | None]]]) -> str:
     """Join chart lines to plain text."""
     return "\n".join("".join(text for text, _ in line).rstrip() for line in lines)
+
+
+def points_csv(result: Result, system: str) -> str:
+    """The chart's points as a CSV table for a spreadsheet: one row per load step, in the
+    display units of ``system`` (each column's unit in its header; pressures gauge)."""
+    import csv
+    import io
+
+    pts = result.points
+    atm = result.atmospheric_pressure
+    p_unit, t_unit = q.label("pressure", system), q.label("temperature", system)
+    dp_unit, w_unit = q.label("differential", system), q.label("mass_flow", system)
+    buffer = io.StringIO()
+    out = csv.writer(buffer, lineterminator="\n")
+    out.writerow(["load [%]", f"entering temperature [{t_unit}]", f"coil pressure [{p_unit}]",
+                  f"back pressure [{p_unit}]", f"steam temperature [{t_unit}]", f"steam flow [{w_unit}]",
+                  f"drain differential [{dp_unit}]", "stalled", "valve travel [%]"])
+    back = q.convert(result.back_pressure, "pressure", system, atm)
+    for i, f in enumerate(pts.load_fraction):
+        opening = "" if pts.valve_opening is None else f"{100.0 * pts.valve_opening[i]:.1f}"
+        out.writerow([f"{100.0 * f:g}", f"{q.convert(pts.inlet_temperature[i], 'temperature', system):.2f}",
+                      f"{q.convert(pts.coil_pressure[i], 'pressure', system, atm):.4f}", f"{back:.4f}",
+                      f"{q.convert(pts.steam_temperature[i], 'temperature', system):.2f}",
+                      f"{q.convert(pts.steam_flow[i], 'mass_flow', system):.2f}",
+                      f"{q.convert(pts.drain_differential[i], 'differential', system):.4f}",
+                      "yes" if pts.stalled[i] else "no", opening])
+    return buffer.getvalue()

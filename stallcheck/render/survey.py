@@ -21,6 +21,21 @@ SEVERITY_STYLE = {"danger": "bold red", "warning": "yellow", "info": "cyan"}
 #: Columns of the first line of each unit: (heading, width, right-aligned).
 COLUMNS = (("unit", 18, False), ("stalls", 9, True), ("entering", 9, True), ("needs", 19, False),
            ("ok", 3, False), ("stalled", 10, True))
+#: How the columns give way, in turn, where the width asked for is less than they take
+#: (a year has at most 8,760 h, seven characters):
+#: (heading, narrowest width).
+GIVE_WAY = (("unit", 8), ("stalled", 7), ("entering", 8), ("unit", 6))
+
+
+def _columns(width: int) -> tuple:
+    """:data:`COLUMNS` fitted to ``width`` columns where they can be."""
+    widths = {h: w for h, w, _ in COLUMNS}
+    for heading, narrowest in GIVE_WAY:
+        over = sum(widths.values()) + len(widths) - 1 - width
+        if over <= 0:
+            break
+        widths[heading] = max(narrowest, widths[heading] - over)
+    return tuple((h, widths[h], right) for h, _, right in COLUMNS)
 
 
 def _cell(text: str, width: int, right: bool) -> str:
@@ -29,10 +44,11 @@ def _cell(text: str, width: int, right: bool) -> str:
     return text.rjust(width) if right else text.ljust(width)
 
 
-def _rows(summaries: list[Summary], system: str | None):
+def _rows(summaries: list[Summary], system: str | None, width: int = 80):
     """Each unit's two lines: the figures, then the details (name, what is installed
     where it differs, the worst finding)."""
-    yield Text(" ".join(_cell(h, w, r) for h, w, r in COLUMNS), style="bold"), None
+    columns = _columns(width)
+    yield Text(" ".join(_cell(h, w, r) for h, w, r in columns), style="bold"), None
     # one column, one unit: the units most of the files are written in, unless --units
     systems = [s.system for s in summaries]
     sys_ = system or max(("us", "si"), key=systems.count)
@@ -43,9 +59,9 @@ def _rows(summaries: list[Summary], system: str | None):
         hours = "" if s.stalled_hours is None else f"{s.stalled_hours:,.0f} h"
         cells = [s.tag or s.name, stall, inlet, s.required, "yes" if s.adequate else "NO", hours]
         line = Text()
-        for (heading, width, right), value in zip(COLUMNS, cells):
+        for (heading, room, right), value in zip(columns, cells):
             style = ("green" if s.adequate else "bold red") if heading == "ok" else None
-            line.append(_cell(value, width, right) + " ", style=style)
+            line.append(_cell(value, room, right) + " ", style=style)
         detail = Text()
         detail.append(s.name if s.tag else s.source, style="dim")
         if s.required != s.installed:
@@ -67,10 +83,10 @@ def _count(summaries: list[Summary], failures: list[Failure]) -> list[Text]:
     return out
 
 
-def table(summaries: list[Summary], failures: list[Failure], system: str | None) -> Group:
+def table(summaries: list[Summary], failures: list[Failure], system: str | None, width: int = 80) -> Group:
     """The survey, worst first, two lines a unit, and a count (for a terminal)."""
     parts: list = []
-    for line, detail in _rows(summaries, system):
+    for line, detail in _rows(summaries, system, width):
         parts.append(line)
         if detail is not None:
             parts.append(Padding(detail, (0, 0, 0, 4)))
@@ -81,7 +97,7 @@ def plain(summaries: list[Summary], failures: list[Failure], system: str | None,
     """:func:`table` as plain text, for pipes and files: the same lines, written
     directly (a survey of thousands prints far faster this way)."""
     out = []
-    for line, detail in _rows(summaries, system):
+    for line, detail in _rows(summaries, system, width):
         out.append(line.plain.rstrip())
         if detail is not None:
             out.append(textwrap.fill(detail.plain, width, initial_indent="    ", subsequent_indent="    "))
