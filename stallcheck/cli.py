@@ -88,10 +88,10 @@ def _show_check(result, as_json: bool, width: Optional[int] = None) -> None:
         for warning in result.warnings:
             typer.echo(f"stallcheck: {result.source}: {warning}", err=True)
     else:
-        from stallcheck.render import terminal
+        from stallcheck.render import page, terminal
 
-        out = terminal.console(width=width)
-        terminal.emit(out, terminal.report(result, result.system, width=out.width))
+        columns = page.width_for(sys.stdout, width)
+        page.emit(terminal.report(result, result.system, width=columns), columns)
     raise typer.Exit(result.exit_status)
 
 
@@ -132,8 +132,10 @@ def chart(unit: Path = UNIT_ARG, units: Optional[Units] = UNITS_OPT,
               f"(load.varies = \"inlet-temperature\"); this one's load varies with {result.varies}. Accepted "
               f"here: load.")
     axis = x.value if x else ("inlet" if result.varies == "inlet-temperature" else "load")
-    out = terminal.console(width=width)
-    terminal.emit(out, terminal.chart_text(result, result.system, width=out.width - 2, x_axis=axis))
+    from stallcheck.render import page
+
+    columns = page.width_for(sys.stdout, width)
+    page.emit([terminal.chart_block(result, result.system, width=columns - 2, x_axis=axis)], columns)
     if csv is not None:
         from stallcheck.files import atomic
         from stallcheck.render import chart as chartmod
@@ -211,7 +213,7 @@ def new(file: Optional[Path] = typer.Argument(None, help="Where to write the uni
 
     from stallcheck import wizard
     from stallcheck.files import atomic
-    from stallcheck.render import terminal
+    from stallcheck.render import page, terminal
 
     err = terminal.console(stderr=True)
     try:
@@ -233,7 +235,8 @@ def new(file: Optional[Path] = typer.Argument(None, help="Where to write the uni
                    else f"stalls below {s.load_fraction:.0%} load")
         out.print(f"{result.unit}: {verdict}; needs {result.drainage.required}, has {result.drainage.installed} "
                   f"({'adequate' if result.drainage.adequate else 'NOT adequate'})", highlight=False, markup=False)
-        terminal.emit(out, terminal.chart_text(result, result.system, width=min(out.width, 100) - 2))
+        page.emit([terminal.chart_block(result, result.system, width=min(out.width, page.MAX_WIDTH) - 2)],
+                  min(out.width, page.MAX_WIDTH))
         out.print("")
         out.print("The unit file will hold:", highlight=False, markup=False)
         for key, value in wizard.summary(answers):
@@ -492,10 +495,10 @@ def diagnose(unit: Path = UNIT_ARG,
     if json:
         sys.stdout.write(show.dumps(found) + "\n")
     else:
-        from stallcheck.render import terminal
+        from stallcheck.render import page
 
-        out = terminal.console(width=width)
-        terminal.emit(out, show.report(found, result.system))
+        columns = page.width_for(sys.stdout, width)
+        page.emit(show.report(found, result.system), columns)
     raise typer.Exit(found.exit_status)
 
 

@@ -4,14 +4,13 @@ from __future__ import annotations
 
 import json
 
-from rich.console import Group
-from rich.table import Table
-from rich.text import Text
-
 from stallcheck.analysis.diagnosis import Diagnosis
 from stallcheck.files import quantities as q
 from stallcheck.render import json as json_out
-from stallcheck.render.terminal import _bullets, _heading, _para, heading
+from stallcheck.render.page import BLANK, Para, bullets, runs
+from stallcheck.render.page import heading as _heading
+from stallcheck.render.page import para as _para
+from stallcheck.render.terminal import heading
 
 AGREEMENT = {
     "agree": "the coil gauge agrees with what the model needs for this load",
@@ -22,8 +21,9 @@ AGREEMENT = {
 }
 
 
-def report(d: Diagnosis, system: str) -> Group:
-    """Everything ``diagnose`` prints, in reading order."""
+def report(d: Diagnosis, system: str) -> list:
+    """Everything ``diagnose`` prints, in reading order: the page's blocks
+    (:func:`stallcheck.render.page.emit`)."""
     r = d.result
     rd = d.readings
     atm = r.atmospheric_pressure
@@ -51,7 +51,7 @@ def report(d: Diagnosis, system: str) -> Group:
         read.append("bangs: " + ", ".join(rd.noise))
     if rd.trap_outlet:
         read.append(f"trap outlet: {rd.trap_outlet}")
-    parts += [_heading("Readings"), _bullets(read or ["none given"]), Text("")]
+    parts += [_heading("Readings"), *bullets(read or ["none given"]), BLANK]
 
     parts.append(_heading("Operating point"))
     if d.load is None:
@@ -62,37 +62,30 @@ def report(d: Diagnosis, system: str) -> Group:
         parts.append(_para(f"load {d.load:.0%} ({basis}); the coil needs {p(d.model_coil_pressure)} there; back "
                            f"pressure on the trap {p(d.back_pressure)}"))
     if d.stalled_model is not None:
-        parts.append(_para(Text("stalled now by the model: " + ("YES" if d.stalled_model else "no"),
-                                style="bold red" if d.stalled_model else "green")))
+        parts.append(_para("stalled now by the model: " + ("YES" if d.stalled_model else "no"),
+                           style="bold red" if d.stalled_model else "green"))
     if d.stalled_gauges is not None:
-        parts.append(_para(Text("stalled now by the gauges: " + ("YES" if d.stalled_gauges else "no"),
-                                style="bold red" if d.stalled_gauges else "green")))
+        parts.append(_para("stalled now by the gauges: " + ("YES" if d.stalled_gauges else "no"),
+                           style="bold red" if d.stalled_gauges else "green"))
     if d.agreement:
         parts.append(_para(AGREEMENT[d.agreement]))
-    parts.append(Text(""))
+    parts.append(BLANK)
 
     parts.append(_heading("Likely causes, most likely first"))
     if not d.causes:
         parts.append(_para("none stands out from these readings; give the symptoms (--noise, --trap-outlet) "
                            "and the gauges"))
     for i, c in enumerate(d.causes, start=1):
-        head = Table.grid(padding=(0, 1))
-        head.add_column(width=4, justify="right")
-        head.add_column()
-        head.add_row(Text(f"{i}.", style="bold"),
-                     Text.assemble((c.title, "bold"), (f"  ({c.code}, score {c.score})", "dim")))
-        parts.append(head)
-        grid = Table.grid(padding=(0, 1))
-        grid.add_column(width=11)
-        grid.add_column()
-        grid.add_row("  evidence", Text("; ".join(c.evidence)))
+        parts.append(Para(runs((c.title, "bold"), (f"  ({c.code}, score {c.score})", "dim")), 5,
+                          runs((f"{i}.".rjust(4), "bold"), " ")))
+        rows = [("evidence", "; ".join(c.evidence), None)]
         if c.against:
-            grid.add_row("  against", Text("; ".join(c.against), style="dim"))
-        grid.add_row("  confirm", Text(c.confirm))
-        grid.add_row("  remedy", Text(c.remedy))
-        parts += [grid, Text("")]
-    parts += [_heading("Caution"), _bullets(r.cautions)]
-    return Group(*parts)
+            rows.append(("against", "; ".join(c.against), "dim"))
+        rows += [("confirm", c.confirm, None), ("remedy", c.remedy, None)]
+        parts += [Para(((text, style),), 12, runs(f"  {label}".ljust(12))) for label, text, style in rows]
+        parts.append(BLANK)
+    parts += [_heading("Caution"), *bullets(r.cautions)]
+    return parts
 
 
 def to_dict(d: Diagnosis) -> dict:

@@ -1,18 +1,15 @@
-"""The ``check`` report for people, printed with rich.
+"""The ``check`` report for people, as a page (:mod:`stallcheck.render.page`).
 
 Reads well at 80 columns with and without colour: every mark and verdict is also a
-word, so nothing depends on colour (``NO_COLOR`` and piped output print plain text).
+word, so nothing depends on colour (``NO_COLOR`` and piped output print plain text,
+without loading rich at all).
 """
 
 from __future__ import annotations
 
-from rich.console import Console, Group
-from rich.padding import Padding
-from rich.table import Table
-from rich.text import Text
-
 from stallcheck.files import quantities as q
-from stallcheck.render import advice, chart, words
+from stallcheck.render import advice, chart, page, words
+from stallcheck.render.page import BLANK, Para, bullets, runs
 from stallcheck.result import Result
 
 CHART_COLOURS = {"curve": "bold cyan", "back": "yellow", "atmos": "dim", "stall": "bold red", "limit": "bold magenta",
@@ -20,46 +17,36 @@ CHART_COLOURS = {"curve": "bold cyan", "back": "yellow", "atmos": "dim", "stall"
 SEVERITY_STYLE = {"danger": "bold red", "warning": "yellow", "info": "cyan"}
 SEVERITY_WORD = {"danger": "DANGER", "warning": "WARNING", "info": "note"}
 
+_heading = page.heading
+_para = page.para
 
-def _heading(text: str) -> Text:
-    return Text(text.upper(), style="bold")
+
+def chart_block(result: Result, system: str, width: int, x_axis: str = "load", height: int = 15) -> page.Pre:
+    """The stall chart as preformatted lines, coloured by mark (``height``: plot rows)."""
+    return page.Pre(tuple(tuple((text, CHART_COLOURS.get(style) if style else None) for text, style in line)
+                          for line in chart.render(result, system, width=width, height=height, x_axis=x_axis)))
 
 
-def chart_text(result: Result, system: str, width: int, x_axis: str = "load", height: int = 15) -> Text:
-    """The stall chart as a rich Text, coloured by mark (``height``: plot rows)."""
+def chart_text(result: Result, system: str, width: int, x_axis: str = "load", height: int = 15):
+    """The stall chart as a rich Text (for the full-screen ``explore``)."""
+    from rich.text import Text
+
     out = Text()
-    for i, line in enumerate(chart.render(result, system, width=width, height=height, x_axis=x_axis)):
+    for i, line in enumerate(chart_block(result, system, width, x_axis, height).lines):
         if i:
             out.append("\n")
         for text, style in line:
-            out.append(text, style=CHART_COLOURS.get(style) if style else None)
+            out.append(text, style=style)
     return out
 
 
 def heading(r: Result, *lines: str) -> list:
     """The unit's name and tag in bold, then dim lines, then a blank line."""
-    title = Text(r.unit, style="bold")
-    if r.tag:
-        title.append(f"  ({r.tag})")
-    return [title, *(Text(line, style="dim") for line in lines), Text("")]
+    title = runs((r.unit, "bold"), f"  ({r.tag})" if r.tag else "")
+    return [Para(title, 0), *(Para(((line, "dim"),), 0) for line in lines), BLANK]
 
 
-def _para(text: Text | str, indent: int = 2) -> Padding:
-    """A paragraph wrapped with every line indented."""
-    return Padding(text if isinstance(text, Text) else Text(text), (0, 0, 0, indent))
-
-
-def _bullets(items, style=None) -> Table:
-    """Items with a hanging indent, so wrapped lines stay under their text."""
-    grid = Table.grid(padding=(0, 1))
-    grid.add_column(width=3, justify="right")
-    grid.add_column()
-    for item in items:
-        grid.add_row("-", Text(item, style=style))
-    return grid
-
-
-def report(result: Result, system: str, width: int = 80) -> Group:
+def report(result: Result, system: str, width: int = 80) -> list:
     """Everything ``check`` prints, in reading order.
 
     Parameters
@@ -69,6 +56,11 @@ def report(result: Result, system: str, width: int = 80) -> Group:
         ``"si"`` or ``"us"``.
     width : int
         Columns available (the chart is drawn to fit).
+
+    Returns
+    -------
+    list
+        The page's blocks (:func:`stallcheck.render.page.emit` prints them).
     """
     r = result
     atm = r.atmospheric_pressure
@@ -94,22 +86,22 @@ def report(result: Result, system: str, width: int = 80) -> Group:
         _para(f"back pressure on the trap {p(r.back_pressure)} (return {p(r.return_pressure)} plus "
               f"{q.show(r.lift, 'length', system)} lift); "
               f"{fill_note}"),
-        Text(""),
+        BLANK,
     ]
 
     s = r.stall
     parts.append(_heading("Stall point"))
     if not s.occurs:
-        parts.append(_para(Text(f"none: the coil pressure stays above {p(s.threshold_pressure)}, the pressure at "
-                          f"which the trap stops discharging, at every load.", style="green")))
+        parts.append(_para(f"none: the coil pressure stays above {p(s.threshold_pressure)}, the pressure at "
+                           f"which the trap stops discharging, at every load.", style="green"))
     else:
         if s.load_fraction >= 1.0:
-            lead = Text("  stalled at every load, full load included", style="bold red")
+            lead = runs(("  stalled at every load, full load included", "bold red"))
         else:
-            lead = Text(f"  stalls below {s.load_fraction:.0%} load", style="bold")
+            lead = runs((f"  stalls below {s.load_fraction:.0%} load", "bold"))
             if s.inlet_temperature is not None:
-                lead.append(f": entering {t(s.inlet_temperature)} and warmer")
-        parts.append(lead)
+                lead += runs(f": entering {t(s.inlet_temperature)} and warmer")
+        parts.append(Para(lead, 0))
         if s.load_fraction >= 1.0:
             parts.append(_para(f"the coil has {p(s.coil_pressure)} at full load (steam {t(s.steam_temperature)}, "
                                f"condensate {w(s.condensate)}); the trap needs more than {p(s.threshold_pressure)} "
@@ -118,18 +110,17 @@ def report(result: Result, system: str, width: int = 80) -> Group:
             parts.append(_para(f"coil pressure {p(s.coil_pressure)}, steam {t(s.steam_temperature)}, "
                                f"condensate {w(s.condensate)}"))
         if not s.in_range:
-            parts.append(_para(Text(f"below the minimum load of {r.minimum_load:.0%}: it never runs there.",
-                                   style="green")))
+            parts.append(_para(f"below the minimum load of {r.minimum_load:.0%}: it never runs there.",
+                               style="green"))
     if r.stalled_hours is not None:
         parts.append(_para(f"stalled {r.stalled_hours:,.0f} h of {r.total_hours:,.0f} h in the load bins"))
-    parts.append(Text(""))
+    parts.append(BLANK)
 
     dr = r.drainage
-    verdict = Text("  ")
-    verdict.append(f"installed {dr.installed}, required {dr.required}: ")
-    verdict.append("adequate" if dr.adequate else "NOT ADEQUATE",
-                   style="bold green" if dr.adequate else "bold red")
-    parts += [_heading("Drainage"), verdict, _bullets(words.drainage_reasons(dr, system, r.atmospheric_pressure)), Text("")]
+    verdict = runs(f"  installed {dr.installed}, required {dr.required}: ",
+                   ("adequate", "bold green") if dr.adequate else ("NOT ADEQUATE", "bold red"))
+    parts += [_heading("Drainage"), Para(verdict, 0),
+              *bullets(words.drainage_reasons(dr, system, r.atmospheric_pressure)), BLANK]
     parts += _devices(r, system)
 
     v = r.valve
@@ -140,29 +131,27 @@ def report(result: Result, system: str, width: int = 80) -> Group:
                           f"Cv {v.required_cv_design:.3g} needed at design, {opening}"
                           + ("; choked" if v.choked_at_design else "")))
         if not v.capacity_ok:
-            parts.append(_para(Text(f"too small: wide open it holds {p(v.limited_coil_pressure)} and delivers "
-                              f"{v.limited_load_fraction:.0%} of design load", style="yellow")))
+            parts.append(_para(f"too small: wide open it holds {p(v.limited_coil_pressure)} and delivers "
+                               f"{v.limited_load_fraction:.0%} of design load", style="yellow"))
         parts.append(_para(f"controls down to about {v.min_controllable_load:.0%} load; below that it cycles"))
-        parts.append(Text(""))
+        parts.append(BLANK)
 
     parts.append(_heading("Findings"))
     if not r.findings:
-        parts.append(Text("  none", style="green"))
+        parts.append(Para(runs(("  none", "green")), 0))
     for f in r.findings:
-        line = Text("  ")
-        line.append(f"{SEVERITY_WORD[f.severity]}", style=SEVERITY_STYLE[f.severity])
-        line.append(f"  {f.code}", style="dim")
-        parts += [line, _para(words.finding(f, r, system), 4)]
-    parts.append(Text(""))
+        line = runs("  ", (SEVERITY_WORD[f.severity], SEVERITY_STYLE[f.severity]), (f"  {f.code}", "dim"))
+        parts += [Para(line, 0), _para(words.finding(f, r, system), 4)]
+    parts.append(BLANK)
 
     parts += _remedies(r, system)
-    parts += [_heading("Stall chart"), chart_text(r, system, width=width - 2), Text("")]
+    parts += [_heading("Stall chart"), chart_block(r, system, width=width - 2), BLANK]
 
-    parts += [_heading("Assumptions"), _bullets(r.assumptions, style="dim"), Text("")]
+    parts += [_heading("Assumptions"), *bullets(r.assumptions, style="dim"), BLANK]
     if r.warnings:
-        parts += [_heading("Input warnings"), _bullets(r.warnings, style="yellow"), Text("")]
-    parts += [_heading("Caution"), _bullets(r.cautions)]
-    return Group(*parts)
+        parts += [_heading("Input warnings"), *bullets(r.warnings, style="yellow"), BLANK]
+    parts += [_heading("Caution"), *bullets(r.cautions)]
+    return parts
 
 
 _BASIS = {"table": "capacity from the maker's table",
@@ -184,9 +173,9 @@ def _devices(r: Result, system: str) -> list:
     tr = r.trap
     if tr is not None:
         parts.append(_heading("Trap"))
-        parts.append(Text(f"  {_BASIS[tr.basis]}"
-                          + (f" ({q.show(tr.bore, 'diameter', system)} bore)" if tr.basis != "table" else ""),
-                          style="dim"))
+        parts.append(Para(runs((f"  {_BASIS[tr.basis]}"
+                                + (f" ({q.show(tr.bore, 'diameter', system)} bore)" if tr.basis != "table" else ""),
+                                "dim")), 0))
         flooded = "; below zero: the trap cannot discharge at all" if tr.design_differential <= 0 else ""
         parts.append(_para(f"full load: {w(tr.design_condensate)} at {p(tr.design_differential, 'differential')} "
                            f"differential{flooded}"))
@@ -194,12 +183,11 @@ def _devices(r: Result, system: str) -> list:
                            f"{tr.working_load:.0%} load, with {w(tr.working_condensate)}"))
         floor = ("" if tr.selection_differential <= tr.working_differential else
                  " (1/4 psi, the usual sizing floor: it has less than that)")
-        select = Text(f"select for {w(tr.required_capacity)} ({tr.margin:g} x full load, common practice) at "
+        select = runs(f"select for {w(tr.required_capacity)} ({tr.margin:g} x full load, common practice) at "
                       f"{p(tr.selection_differential, 'differential')}{floor}")
         if tr.installed_capacity is not None:
-            select.append(f"; it passes {w(tr.installed_capacity)} there: ")
-            select.append("enough" if tr.capacity_ok else "SHORT",
-                          style="bold green" if tr.capacity_ok else "bold red")
+            select += runs(f"; it passes {w(tr.installed_capacity)} there: ",
+                           ("enough", "bold green") if tr.capacity_ok else ("SHORT", "bold red"))
         parts.append(_para(select))
         if tr.limit_load is None:
             parts.append(_para("drainage limit: none, it keeps up at every load above zero"))
@@ -212,7 +200,7 @@ def _devices(r: Result, system: str) -> list:
                 if tr.limit_inlet_temperature is not None else ""
             parts.append(_para(f"drainage limit: {tr.limit_load:.0%} load{where} ({w(tr.limit_condensate)} at "
                                f"{p(tr.limit_differential, 'differential')}); below it the trap falls short{stall}"))
-        parts.append(Text(""))
+        parts.append(BLANK)
     pt = r.pump_trap
     if pt is not None:
         parts.append(_heading("Pump-trap " + ("(installed)" if pt.installed else "(required)")))
@@ -228,13 +216,13 @@ def _devices(r: Result, system: str) -> list:
         parts.append(_para(f"fill head {q.show(pt.fill_head, 'length', system)}; needs "
                            f"{q.show(pt.required_fill_head, 'length', system)} ({need})"))
         if pt.outside_table:
-            parts.append(_para(Text("the back pressure is above the maker's capacity table: not rated for this duty",
-                                    style="yellow")))
+            parts.append(_para("the back pressure is above the maker's capacity table: not rated for this duty",
+                               style="yellow"))
         elif pt.capacity is not None:
             source = " (read from the maker's table)" if pt.capacity_basis == "table" else ""
             parts.append(_para(f"rated {w(pt.capacity)} at this duty{source}: "
                                + ("enough" if pt.capacity >= pt.condensate else "SHORT")))
-        parts.append(Text(""))
+        parts.append(BLANK)
     pu = r.purge
     if pu is not None:
         parts.append(_heading("Constant purge"))
@@ -251,7 +239,7 @@ def _devices(r: Result, system: str) -> list:
         else:
             parts.append(_para("give site.hours_per_year (or load bins) and site.steam_price for its yearly cost",
                                ))
-        parts.append(Text(""))
+        parts.append(BLANK)
     fl = r.flash
     if fl is not None:
         parts.append(_heading("Flash steam at the trap outlet"))
@@ -265,7 +253,7 @@ def _devices(r: Result, system: str) -> list:
             parts.append(_para(f"return line {q.show(fl.line_diameter, 'diameter', system)} bore: "
                                f"{q.show(fl.velocity, 'velocity', system)} (keep under about "
                                f"{q.show_about(VELOCITY_LIMIT, 'velocity', system)})"))
-        parts.append(Text(""))
+        parts.append(BLANK)
     return parts
 
 
@@ -275,46 +263,26 @@ def _remedies(r: Result, system: str) -> list:
     parts: list = [_heading(a.title)]
     lead = list(a.lead)
     if a.fit:
-        parts.append(_para(Text(lead.pop(0), style="bold")))
+        parts.append(_para(lead.pop(0), style="bold"))
     parts += [_para(line) for line in lead]
-    grid = Table.grid(padding=(0, 1))
-    grid.add_column(width=3)
-    grid.add_column()
-    for rem in a.changes:
-        grid.add_row("", Text.assemble((rem.key, "bold"), ": ", rem.note))
-    if a.changes:
-        parts.append(grid)
+    parts += [Para(runs((rem.key, "bold"), ": ", rem.note), 4) for rem in a.changes]
     if a.cannot:
         if a.changes:
             parts.append(_para("Not by changing one of these alone:"))
-        cannot = Table.grid(padding=(0, 1))
-        cannot.add_column(width=3)
-        cannot.add_column()
-        for rem in a.cannot:
-            cannot.add_row("", Text.assemble((rem.key, "dim bold"), ": ", (rem.note, "dim")))
-        parts.append(cannot)
-    parts += [_para(Text(note, style="dim")) for note in a.notes]
-    parts.append(Text(""))
+        parts += [Para(runs((rem.key, "dim bold"), ": ", (rem.note, "dim")), 4) for rem in a.cannot]
+    parts += [_para(note, style="dim") for note in a.notes]
+    parts.append(BLANK)
     return parts
 
 
-def emit(out: Console, renderable) -> None:
-    """Print; where the output is not a terminal, without the padding rich adds to line ends."""
-    if out.is_terminal:
-        out.print(renderable)
-        return
-    with out.capture() as captured:
-        out.print(renderable)
-    text = "\n".join(line.rstrip() for line in captured.get().split("\n"))
-    out.file.write(text)
+def console(stderr: bool = False, width: int | None = None):
+    """A rich console for prompts and progress (stderr), honouring NO_COLOR; at most 100
+    columns unless ``width`` is given."""
+    from rich.console import Console
 
-
-def console(stderr: bool = False, width: int | None = None) -> Console:
-    """A console that honours NO_COLOR and plain output when piped; at most 100 columns
-    unless ``width`` is given (``--width``)."""
     if width is not None:
         return Console(stderr=stderr, highlight=False, width=width)
     c = Console(stderr=stderr, highlight=False, soft_wrap=False)
-    if c.width > 100:
-        c = Console(stderr=stderr, highlight=False, width=100)
+    if c.width > page.MAX_WIDTH:
+        c = Console(stderr=stderr, highlight=False, width=page.MAX_WIDTH)
     return c
