@@ -197,19 +197,32 @@ def _split(key: str, text, example: str) -> tuple[float, str]:
     if len(text) > MAX_QUANTITY_TEXT:
         raise InputError(key, f"is {len(text):,} characters long; a quantity is a number and a unit, such as "
                               f"\"{example}\".")
-    match = _NUMBER_UNIT.match(text)
-    if match and re.match(r",\d", match.group(2)):
+    read = _read(text)
+    if isinstance(read, tuple):
+        return read
+    if read == "comma":
         raise InputError(key, f"'{text}': write the decimal point as a point (1.5, not 1,5); a comma only "
                               f"separates thousands (12,000).")
+    if read == "finite" or any(word in text.strip().lower() for word in ("nan", "inf")):
+        raise InputError(key, f"'{text}' is not a finite number; write a value such as \"{example}\".")
+    raise InputError(key, f"'{text}' is not '<number> <unit>'; write it as \"{example}\".")
+
+
+@lru_cache(maxsize=4096)
+def _read(text: str) -> tuple[float, str] | str:
+    """The number and the unit (in the unit file's spelling) of a quantity string, or
+    why it cannot be read: ``"form"``, ``"comma"`` (a decimal comma) or ``"finite"``.
+    Cached: a file is read once to choose its units and once for its values."""
+    match = _NUMBER_UNIT.match(text)
     if not match:
-        low = text.strip().lower()
-        if any(word in low for word in ("nan", "inf")):
-            raise InputError(key, f"'{text}' is not a finite number; write a value such as \"{example}\".")
-        raise InputError(key, f"'{text}' is not '<number> <unit>'; write it as \"{example}\".")
+        return "form"
+    unit_text = match.group(2)
+    if unit_text[:1] == "," and unit_text[1:2].isdigit():
+        return "comma"
     value = float(match.group(1).replace(",", ""))
     if not math.isfinite(value):
-        raise InputError(key, f"'{text}' is not a finite number; write a value such as \"{example}\".")
-    unit = typed_unit(match.group(2))
+        return "finite"
+    unit = typed_unit(unit_text)
     return value, _SPELLINGS.get(unit, unit)
 
 
