@@ -9,8 +9,10 @@ Prints medians of ``--repeat`` runs (default 3), interleaved with their floors:
 * ``stallcheck check`` of a steam-and-air and a steam-and-water sample unit against
   ``python -c "import numpy, typer, rich"`` (the floor of any command that prints a
   result);
-* ``stallcheck survey`` of ``--units`` invented units (default 10,000), from a folder of
-  TOML files and from one CSV table: the marginal cost per unit,
+* ``stallcheck explore`` to its first screen, in a pseudo-terminal, against the same
+  floor; and one what-if (a key's analysis and redraw), timed inside the app;
+* ``stallcheck survey`` of ``--units`` invented units (default 10,000 and 100,000), from
+  a folder of TOML files and from one CSV table: the marginal cost per unit,
   (t(N) − t(1)) / (N − 1), and the peak resident memory of the survey process.
 
 The invented units are generated here with a fixed seed (air preheat coils and
@@ -100,11 +102,15 @@ def to_csv(units: list[dict]) -> str:
     return "\n".join(rows) + "\n"
 
 
-#: Targets (issue: a check in a third of a second): ratio to the floor, ms per unit.
-TARGETS = {"--help": 3.5, "check": 1.5, "refusal": 1.5, "survey CSV": 0.15, "survey TOML": 0.4}
+#: Targets (issue: a check in a third of a second): ratio to the floor, ms per unit or
+#: per what-if, MB at the largest survey.
+TARGETS = {"check": 1.5, "refusal": 1.5, "explore": 2.0, "what-if": 30.0, "survey CSV": 0.15,
+           "survey TOML": 0.4, "memory": 200.0}
 
 
-def verdict(value: float, target: float) -> str:
+def verdict(value: float, target: float | None) -> str:
+    if target is None:
+        return ""
     return f"target {target:g}: {'met' if value <= target else 'NOT MET'}"
 
 
@@ -118,57 +124,118 @@ def run(cmd: list[str]) -> tuple[float, float]:
     return time.perf_counter() - start, usage.ru_maxrss / 1024.0
 
 
+def first_screen(cmd: list[str], marker: bytes = b"stall point") -> float:
+    """Seconds until a full-screen command shows ``marker`` in a pseudo-terminal (80x24),
+    then quit it."""
+    import pty
+    import select
+    import signal
+
+    pid, fd = pty.fork()
+    if pid == 0:  # the child: the terminal's size, then the command
+        os.environ.update(ENV, COLUMNS="80", LINES="24", TERM="xterm-256color")
+        os.chdir(tempfile.gettempdir())
+        os.execv(cmd[0], cmd)
+    import fcntl
+    import struct
+    import termios
+
+    fcntl.ioctl(fd, termios.TIOCSWINSZ, struct.pack("HHHH", 24, 80, 0, 0))
+    start = time.perf_counter()
+    seen = b""
+    try:
+        while marker not in seen and time.perf_counter() - start < 60:
+            ready, _, _ = select.select([fd], [], [], 0.05)
+            if ready:
+                try:
+                    seen += os.read(fd, 65536)
+                except OSError:
+                    break
+        return time.perf_counter() - start
+    finally:
+        os.kill(pid, signal.SIGKILL)
+        os.waitpid(pid, 0)
+        os.close(fd)
+
+
 def ratios(repeat: int) -> None:
     py = sys.executable
     floor = [py, "-c", "import numpy, typer, rich"]
     pairs = [
-        ("stallcheck --help", [py, "-m", "stallcheck", "--help"], "python -c pass", [py, "-c", "pass"], "--help"),
-        ("check, steam and air", [py, "-m", "stallcheck", "check", str(SAMPLE)], "numpy+typer+rich", floor, "check"),
-        ("check, steam and water", [py, "-m", "stallcheck", "check", str(WATER)], "numpy+typer+rich", floor,
-         "check"),
-        ("refusal of a bad file", [py, "-m", "stallcheck", "check", str(BAD)], "numpy+typer+rich", floor,
-         "refusal"),
+        ("--help", [py, "-m", "stallcheck", "--help"], "python -c pass", [py, "-c", "pass"], None),
+        ("check, steam and air", [py, "-m", "stallcheck", "check", str(SAMPLE)], "floor", floor, "check"),
+        ("check, steam and water", [py, "-m", "stallcheck", "check", str(WATER)], "floor", floor, "check"),
+        ("refusal of a bad file", [py, "-m", "stallcheck", "check", str(BAD)], "floor", floor, "refusal"),
     ]
-    for name, cmd, floor_name, floor, target in pairs:
-        run(cmd), run(floor)  # warm-up: compiled modules and the units cache in place
+    for name, cmd, floor_name, floor_cmd, target in pairs:
+        run(cmd), run(floor_cmd)  # warm-up: compiled modules and the units cache in place
         a, b = [], []
         for _ in range(repeat):  # interleaved: both sides see the same machine load
             a.append(run(cmd)[0])
-            b.append(run(floor)[0])
+            b.append(run(floor_cmd)[0])
         ta, tb = statistics.median(a), statistics.median(b)
-        print(f"{name:24s} {ta:6.2f} s   {floor_name:16s} {tb:6.2f} s   ratio {ta / tb:5.2f}   "
-              f"{verdict(ta / tb, TARGETS[target])}")
+        print(f"{name:23s}{ta:5.2f} s  {floor_name} {tb:4.2f} s  x{ta / tb:4.2f}  "
+              f"{verdict(ta / tb, TARGETS.get(target) if target else None)}")
+    explore = [py, "-m", "stallcheck", "explore", str(SAMPLE)]
+    first_screen(explore)
+    a, b = [], []
+    for _ in range(repeat):
+        a.append(first_screen(explore))
+        b.append(run(floor)[0])
+    ta, tb = statistics.median(a), statistics.median(b)
+    print(f"{'explore, first screen':23s}{ta:5.2f} s  floor {tb:4.2f} s  x{ta / tb:4.2f}  "
+          f"{verdict(ta / tb, TARGETS['explore'])}")
+    code = ("import asyncio, time, statistics\nfrom stallcheck import tui\nfrom stallcheck.files import unitfile\n"
+            f"app = tui.Explorer(unitfile.load({str(SAMPLE)!r}))\ntimes = []\n"
+            "async def go():\n    async with app.run_test(size=(80, 24)) as pilot:\n"
+            "        for k in range(20):\n            t = time.perf_counter()\n"
+            "            app.action_nudge('lift', 1 if k % 2 == 0 else -1)\n"
+            "            times.append(time.perf_counter() - t)\n"
+            "asyncio.run(go())\nprint(statistics.median(times) * 1000)")
+    ms = float(subprocess.run([py, "-c", code], capture_output=True, text=True, env=ENV, check=True,
+                              cwd=tempfile.gettempdir()).stdout.strip())
+    print(f"{'explore, one what-if':23s}{ms:5.1f} ms analysis and redraw  {verdict(ms, TARGETS['what-if'])}")
+    home = Path(tempfile.mkdtemp(prefix="stallcheck-home-"))
+    home.chmod(0o555)
+    code = ("import sys, io, contextlib\nfrom stallcheck.cli import main\n"
+            f"sys.argv = ['stallcheck', 'check', {str(SAMPLE)!r}]\n"
+            "try:\n    with contextlib.redirect_stdout(io.StringIO()):\n        main()\nexcept SystemExit:\n    pass\n"
+            "print('pint' in sys.modules)")
+    env = dict(ENV, HOME=str(home), XDG_CACHE_HOME=str(home / "cache"))
+    pint = subprocess.run([py, "-c", code], capture_output=True, text=True, env=env, cwd=tempfile.gettempdir())
+    print(f"{'read-only home':23s}pint imported: {pint.stdout.strip() or pint.stderr.strip()[-80:]}")
+    shutil.rmtree(home, ignore_errors=True)
 
 
-def surveys(n: int, repeat: int) -> None:
+def surveys(sizes: list[int], repeat: int) -> None:
     py = sys.executable
-    units = invented(n)
+    units = invented(max(sizes))
     work = Path(tempfile.mkdtemp(prefix="stallcheck-bench-"))
     try:
-        many, one = work / "many", work / "one"
-        many.mkdir()
+        one = work / "one"
         one.mkdir()
-        for k, u in enumerate(units):
-            (many / f"unit{k:05d}.toml").write_text(to_toml(u), encoding="utf-8")
         (one / "unit00000.toml").write_text(to_toml(units[0]), encoding="utf-8")
-        (work / "many.csv").write_text(to_csv(units), encoding="utf-8")
         (work / "one.csv").write_text(to_csv(units[:1]), encoding="utf-8")
-        cases = [("TOML folder", many, one), ("one CSV", work / "many.csv", work / "one.csv")]
-        for name, big, small in cases:
-            t_big, t_small, memory, memory_one = [], [], [], []
-            for _ in range(repeat):
-                t, m = run([py, "-m", "stallcheck", "survey", str(big)])
-                t_big.append(t)
-                memory.append(m)
-                t, m = run([py, "-m", "stallcheck", "survey", str(small)])
-                t_small.append(t)
-                memory_one.append(m)
-            big_t, small_t = statistics.median(t_big), statistics.median(t_small)
-            marginal = (big_t - small_t) / (n - 1) * 1000.0
-            target = TARGETS["survey CSV" if name == "one CSV" else "survey TOML"]
-            print(f"survey, {name:11s} {n:,} units {big_t:6.2f} s, 1 unit {small_t:5.2f} s: "
-                  f"{marginal:5.3f} ms per unit ({verdict(marginal, target)}); peak memory "
-                  f"{max(memory):4.0f} MB (1 unit: {max(memory_one):4.0f} MB)")
+        for n in sizes:
+            many = work / f"many{n}"
+            many.mkdir()
+            for k, u in enumerate(units[:n]):
+                (many / f"unit{k:06d}.toml").write_text(to_toml(u), encoding="utf-8")
+            (work / f"many{n}.csv").write_text(to_csv(units[:n]), encoding="utf-8")
+            cases = [("TOML", many, one), ("CSV", work / f"many{n}.csv", work / "one.csv")]
+            for name, big, small in cases:
+                t_big, t_small, memory = [], [], []
+                for _ in range(repeat if n <= 20_000 else 1):
+                    t, m = run([py, "-m", "stallcheck", "survey", str(big)])
+                    t_big.append(t)
+                    memory.append(m)
+                    t_small.append(run([py, "-m", "stallcheck", "survey", str(small)])[0])
+                big_t, small_t = statistics.median(t_big), statistics.median(t_small)
+                marginal = (big_t - small_t) / (n - 1) * 1000.0
+                mem = "" if n < max(sizes) else f"  {verdict(max(memory), TARGETS['memory'])} MB"
+                print(f"survey {name:4s} {n:>7,} units {big_t:6.1f} s: {marginal:5.3f} ms/unit  "
+                      f"{verdict(marginal, TARGETS['survey ' + name])}; peak {max(memory):3.0f} MB{mem}")
+            shutil.rmtree(many, ignore_errors=True)
     finally:
         shutil.rmtree(work, ignore_errors=True)
 
@@ -176,11 +243,13 @@ def surveys(n: int, repeat: int) -> None:
 def main() -> None:
     parser = argparse.ArgumentParser(description=__doc__.split("\n\n")[0])
     parser.add_argument("--repeat", type=int, default=3)
-    parser.add_argument("--units", type=int, default=10_000)
+    parser.add_argument("--units", default="10000,100000",
+                        help="survey sizes, comma-separated (default 10000,100000)")
     args = parser.parse_args()
-    print(f"{time.strftime('%Y-%m-%d')}, {os.cpu_count()} cores, median of {args.repeat} runs")
+    print(f"{time.strftime('%Y-%m-%d')}, {os.cpu_count()} cores, median of {args.repeat} runs "
+          f"(one run above 20,000 units); floor: python -c 'import numpy, typer, rich'")
     ratios(args.repeat)
-    surveys(args.units, args.repeat)
+    surveys([int(n) for n in args.units.split(",")], args.repeat)
 
 
 if __name__ == "__main__":

@@ -180,6 +180,22 @@ class Drain:
     return_temperature : float or None
         Temperature of the condensate already in that line (a pumped or flooded
         return runs below saturation). [K]
+    return_length : float or None
+        Length of that line from the trap (or pump-trap) to the receiver or main. [m]
+    return_pitch : float or None
+        Its fall in the direction of flow per length; negative where it rises against
+        the flow. [-]
+    return_material : str
+        ``"steel"`` or ``"copper"``: the wall's elasticity sets the surge wave speed.
+    return_wall : float or None
+        Its wall thickness; None: Schedule 40 steel for the bore. [m]
+    return_rating : float or None
+        The pressure the line and its fittings are rated for. [Pa] absolute
+    pump_rate : float or None
+        A pump-trap's discharge rate while it pumps (the maker's figure). [kg/s]
+    check_closing_time : float
+        How long the check valve on the discharge takes to close; 0: at once (a
+        swing check that slams). [s]
     """
 
     arrangement: str
@@ -199,6 +215,13 @@ class Drain:
     purge_rate: float | None = None
     return_line: float | None = None
     return_temperature: float | None = None
+    return_length: float | None = None
+    return_pitch: float | None = None
+    return_material: str = "steel"
+    return_wall: float | None = None
+    return_rating: float | None = None
+    pump_rate: float | None = None
+    check_closing_time: float = 0.0
 
 
 @dataclass(frozen=True)

@@ -350,6 +350,103 @@ class FlashFigures:
 
 
 @dataclass(frozen=True)
+class LinePoint:
+    """The flow in the line from the trap at one load.
+
+    Attributes
+    ----------
+    where : str
+        ``"full load"``, ``"stall point"`` or ``"minimum load"``.
+    load_fraction : float  [-]
+    condensate : float
+        Through the line, flash included. [kg/s]
+    flash_fraction : float  [-]
+    taitel_dukler, mandhane : str
+        The flow pattern by each map (:class:`stallcheck.physics.hammer.Pattern`).
+    slugging : bool
+        Intermittent (slug) flow by Taitel & Dukler's map.
+    """
+
+    where: str
+    load_fraction: float
+    condensate: float
+    flash_fraction: float
+    taitel_dukler: str
+    mandhane: str
+    slugging: bool
+
+
+@dataclass(frozen=True)
+class ReturnLineFigures:
+    """The two-phase flow in the line from the trap, where its bore is given.
+
+    Attributes
+    ----------
+    bore : float  [m]
+    pitch : float or None
+        Fall in the direction of flow per length (None: not given, taken level). [-]
+    points : tuple of LinePoint
+        At full load, at the stall point (where it stalls in range) and at the minimum
+        load (where above zero).
+    slugging : bool
+        Intermittent (slug) flow at any of them (Taitel & Dukler).
+    stratified_bore, stratified_size : float or None, str or None
+        The smallest Schedule 40 bore, not below the present one, that keeps the flow
+        stratified at every one of those loads, and its nominal size; None where none
+        up to 6 in does.
+    """
+
+    bore: float
+    pitch: float | None
+    points: tuple[LinePoint, ...]
+    slugging: bool
+    stratified_bore: float | None
+    stratified_size: str | None
+
+
+@dataclass(frozen=True)
+class SurgeFigures:
+    """Hydraulic shock where a moving column of condensate is stopped.
+
+    Attributes
+    ----------
+    basis : str
+        ``"pump-trap"`` (its discharge stopped by the check valve) or
+        ``"falling-column"`` (the column in a lift after the trap falling back).
+    velocity : float
+        Of the column before it is stopped. [m/s]
+    wave_speed : float
+        In the line (Korteweg). [m/s]
+    density : float  [kg/m³]
+    length : float or None
+        Of the line (the wave's round trip is 2L/a). [m]
+    closing_time : float  [s]
+    surge : float
+        The pressure rise. [Pa]
+    working : float
+        The pressure it adds to: the back pressure. [Pa] absolute
+    peak : float
+        working + surge. [Pa] absolute
+    rating : float or None  [Pa] absolute
+    slow_closing_time : float or None
+        For a pump-trap's check valve: a closing time that holds the peak to 80 % of
+        the rating (Michaud), where the rating and the line's length are known. [s]
+    """
+
+    basis: str
+    velocity: float
+    wave_speed: float
+    density: float
+    length: float | None
+    closing_time: float
+    surge: float
+    working: float
+    peak: float
+    rating: float | None
+    slow_closing_time: float | None
+
+
+@dataclass(frozen=True)
 class Remedy:
     """One single change that lets the installed drainage drain the unit, or, where it
     already does, how far one value can go before it stops doing so.
@@ -431,6 +528,8 @@ class Result:
     purge: PurgeFigures | None = None
     flash: FlashFigures | None = None
     remedies: tuple[Remedy, ...] = ()
+    return_line: ReturnLineFigures | None = None
+    surge: SurgeFigures | None = None
     warnings: tuple[str, ...] = ()
     #: Load below which the mean-temperature method, with the flow varying, would ask
     #: for steam colder than the set point, and the set point is used instead [-]

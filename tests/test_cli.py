@@ -132,20 +132,57 @@ def test_check_shows_drain_devices_and_remedies(sample):
     assert len(data["remedies"]) == 5
 
 
-def test_warm_check_does_not_import_pint(tmp_path):
-    # pint's answers are kept in the cache folder: the second check of the same unit
-    # meets only spellings seen before and needs no pint (start-up speed).
-    sample = str(SAMPLES[0])
-    env = dict(os.environ, XDG_CACHE_HOME=str(tmp_path), NO_COLOR="1")
+def test_no_check_imports_pint_even_with_a_home_folder_it_cannot_write(tmp_path):
+    # pint's answers for every spelling of the samples ship with the package: a first
+    # check, with an empty cache folder that cannot be written, needs no pint.
+    home = tmp_path / "home"
+    home.mkdir()
+    home.chmod(0o555)
+    env = dict(os.environ, HOME=str(home), XDG_CACHE_HOME=str(home / "cache"), NO_COLOR="1")
+    for sample in SAMPLES:
+        code = ("import sys\nfrom stallcheck.cli import app\n"
+                "from typer.testing import CliRunner\n"
+                f"r = CliRunner().invoke(app, ['check', {str(sample)!r}])\nassert r.exit_code in (0, 1), r.output\n"
+                "print('pint' in sys.modules)")
+        run = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True, check=True, env=env)
+        assert run.stdout.strip() == "False", sample.name
+
+
+def test_a_spelling_not_shipped_goes_to_pint_and_is_kept(tmp_path):
+    # A unit spelling outside the shipped answers (furlongs) is pint's to read, and its
+    # answer is kept in the cache folder for the next run.
+    unit = tmp_path / "u.toml"
+    unit.write_text(BASE_UNIT.replace('fill_head = "18 in"', 'fill_head = "0.00227 furlong"'), encoding="utf-8")
+    env = dict(os.environ, XDG_CACHE_HOME=str(tmp_path / "cache"), NO_COLOR="1")
     code = ("import sys\nfrom stallcheck.cli import app\n"
             "from typer.testing import CliRunner\n"
-            f"r = CliRunner().invoke(app, ['check', {sample!r}])\nassert r.exit_code in (0, 1), r.output\n"
+            f"r = CliRunner().invoke(app, ['check', {str(unit)!r}])\nassert r.exit_code in (0, 1), r.output\n"
             "print('pint' in sys.modules)")
     first = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True, check=True, env=env)
     second = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True, check=True, env=env)
-    assert first.stdout.strip() == "True"
-    assert second.stdout.strip() == "False"
-    assert list((tmp_path / "stallcheck").glob("units-*.json"))
+    assert first.stdout.strip() == "True" and second.stdout.strip() == "False"
+    assert list((tmp_path / "cache" / "stallcheck").glob("units-*.json"))
+
+
+def test_the_shipped_unit_answers_are_what_pint_says():
+    # Independent: pint itself, asked again for every answer the package ships.
+    import json
+
+    from stallcheck.files import quantities as q
+
+    shipped = json.loads(q.SHIPPED_ANSWERS.read_text(encoding="utf-8"))
+    assert len(shipped) > 50
+    ureg = q.registry()
+    for key, value in shipped.items():
+        kind, *args = key.split("|")
+        if kind == "unit":
+            assert value == q._pint_unit(args[0]), key
+        elif kind == "dimension":
+            assert value == str(ureg.parse_units(args[0]).dimensionality), key
+        else:
+            zero = float(ureg.Quantity(0.0, args[0]).to(args[1]).magnitude)
+            one = float(ureg.Quantity(1.0, args[0]).to(args[1]).magnitude)
+            assert value == pytest.approx([zero, one - zero], rel=1e-12, abs=1e-12), key
 
 
 def test_width_option_widens_the_report_and_the_chart():

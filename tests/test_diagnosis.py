@@ -43,6 +43,15 @@ return_pressure = "0 barg"
 """
 
 
+# A low-pressure water heater (0.15 barg in the shell at full load) on a vacuum breaker.
+LOW_PRESSURE_HEATER = (HOT_WATER.replace('steam_pressure = "5 barg"', 'steam_pressure = "0.15 barg"')
+                       .replace('supply_pressure = "8 barg"', 'supply_pressure = "1 barg"')
+                       .replace('inlet_temperature = "100 degC"', 'inlet_temperature = "50 degC"')
+                       .replace('outlet_temperature = "130 degC"', 'outlet_temperature = "70 degC"')
+                       .replace('flow = "20 m3/h"', 'flow = "25 m3/h"')
+                       .replace('arrangement = "trap"', 'arrangement = "trap-vacuum-breaker"'))
+
+
 def _unit(text, extra=""):
     return unitfile.parse(text + extra, "scenario.toml")
 
@@ -99,6 +108,20 @@ SCENARIOS = {
                               .replace('lift = "0 ft"', 'lift = "10 ft"'), 'motive_pressure = "6 psig"\n',
                               dict(inlet_temperature="40 degF", coil_pressure="2 psig", noise="low-load",
                                    trap_outlet="cold")),
+    # 900 kg/h of condensate from a 0.15 barg heater, 0.7 % of it flashing, in a 25 mm
+    # line to a vented receiver: intermittent (slug) flow by the Taitel-Dukler map
+    "return-line-slugging": (LOW_PRESSURE_HEATER, 'return_line = "25 mm"\nreturn_pitch = "1 %"\n',
+                             dict(load="0.97", noise="all-the-time", trap_outlet="hot-passing")),
+    # a pump-trap lifting 10 ft through 100 ft of 1 in line rated 50 psig, its check
+    # valve slamming: the computed surge passes the rating
+    "check-valve-slam": (BASE_UNIT.replace('arrangement = "trap"', 'arrangement = "pump-trap"')
+                         .replace('lift = "0 ft"', 'lift = "10 ft"'),
+                         'motive_pressure = "60 psig"\npump_rate = "3000 lb/h"\nreturn_line = "1 in"\n'
+                         'return_length = "100 ft"\nreturn_rating = "50 psig"\n',
+                         dict(inlet_temperature="40 degF", noise="all-the-time", trap_outlet="hot-passing")),
+    # hot condensate flashing into a pumped return at 50 °C, the trap working
+    "flash-into-cool-return": (HOT_WATER, 'return_temperature = "50 degC"\n',
+                               dict(load="0.7", noise="all-the-time", trap_outlet="hot-passing")),
     # a coil that never stalls, its gauge well above the return, and a cold trap
     "trap-failed-closed": (HOT_WATER, "", dict(load="0.6", coil_pressure="4 barg", trap_outlet="cold",
                                                outlet_temperature="115 degC")),

@@ -344,6 +344,9 @@ def _analyse(units: list[Unit], systems: list[str], tabulate: bool = True) -> li
         bins_load, bins_hours = _bin_loads(u, b.coil.take(i))
         stalled_hours, total_hours = _hours(u, s.load_fraction or 0.0, bins_load, bins_hours)
         pump = devices.pump_trap_figures(u, drains[i].required, s, float(b.back[i]), float(b.supply[i]))
+        line = devices.return_line_figures(u, float(b.steam_design[i]), float(b.design_pressure[i]), s,
+                                           float(w_min[i]), float(p_min[i]))
+        shock = devices.surge_figures(u, pump, float(b.back[i]))
         purge = devices.purge_figures(u, b.one(i), float(b.back[i]), float(b.design_pressure[i]),
                                       float(p_min[i]), bins_load, bins_hours)
         result = Result(
@@ -355,7 +358,7 @@ def _analyse(units: list[Unit], systems: list[str], tabulate: bool = True) -> li
             supply_pressure=float(b.supply[i]), design=d, stall=s, points=points, stalled_hours=stalled_hours,
             total_hours=total_hours, drainage=drains[i], valve=valves[i], findings=(),
             assumptions=_assumptions(u, bool(clipped[i]), traps[i]), trap=traps[i], pump_trap=pump, purge=purge,
-            flash=flashes[i], remedies=fixes[i], warnings=u.warnings,
+            flash=flashes[i], remedies=fixes[i], warnings=u.warnings, return_line=line, surge=shock,
             set_point_floor_load=float(floor_load[i]))
         # The rules read the finished result; their findings complete it before anyone
         # else sees it (set in place: a copy of every result costs a survey 10 % more).

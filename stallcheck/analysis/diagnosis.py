@@ -78,6 +78,9 @@ FACTS = {
     "trap_cold_with_differential": "the trap outlet is cold although the coil gauge is above the back pressure",
     "drainage_covers_stall": "the installed drainage is the one the check requires for its stall, so a stall "
                              "floods the coil only where that equipment fails",
+    "return_slugging": "by the flow-pattern map the line from the trap runs in slug flow (see the return line)",
+    "surge_high": "the computed surge, where the column in the line is stopped, is near or past the line's "
+                  "rating (see the surge)",
 }
 
 
@@ -186,6 +189,30 @@ CAUSES = (
           "Clean the strainer, or repair or replace the trap with one of the same rating."),
 )
 
+CAUSES += (
+    Cause("return-line-slugging", "Flash steam drives condensate as slugs along the line from the trap "
+                                  "(differential shock)",
+          {"return_slugging": 4, "noise_all_the_time": 1, "noise_valve_opens": 1, "trap_hot": 1,
+           "stalled_model": -1, "trap_cold": -1},
+          "Listen along the line from the trap at high load: banging that travels along the line, loudest at "
+          "bends, risers and the receiver, not at the coil, is slug flow.",
+          "Enlarge the line to the bore the check gives (its return-line section), pitch it down with the "
+          "flow, or flash the condensate in a vented receiver next to the trap."),
+    Cause("check-valve-slam", "A moving column of condensate is stopped at once: a check valve slamming on the "
+                              "discharge, or a column falling back down the lift (hydraulic shock)",
+          {"surge_high": 4, "lift_after_trap": 1, "noise_low_load": 1, "noise_all_the_time": 1,
+           "trap_blowing": -2},
+          "Listen at the check valve on the discharge as each pumping stroke ends, or at the trap as the load "
+          "falls: one sharp knock a cycle is a slam.",
+          "Fit a non-slam (spring-loaded, centre-guided) check valve, or slow the closure (the check's surge "
+          "figure); do not lift straight after the trap of a modulating coil."),
+    Cause("flash-into-cool-return", "Flash steam collapses in a cool return and hammers",
+          {"cool_return": 4, "noise_all_the_time": 2, "trap_hot": 1, "trap_cold": -2},
+          "Feel or measure the return at the trap's connection: a return well below boiling with hot condensate "
+          "entering it crackles and knocks at the joint.",
+          "Discharge along the direction of flow through a sparging fitting, or into a vented receiver."),
+)
+
 #: Facts a cause cannot do without: it is listed only where at least one of these holds
 #: (symptoms alone, such as the time it bangs, never make a cause).
 REQUIRES = {
@@ -201,6 +228,9 @@ REQUIRES = {
     "vacuum-breaker-stuck": ("breaker_holding_vacuum",),
     "vacuum-breaker-cannot-act": ("breaker_cannot_act",),
     "pump-trap-not-pumping": ("pump_flooding", "pump_motive_low", "pump_short"),
+    "return-line-slugging": ("return_slugging",),
+    "check-valve-slam": ("surge_high",),
+    "flash-into-cool-return": ("cool_return",),
     "trap-failed-closed": ("trap_cold_with_differential",),
 }
 
@@ -406,8 +436,27 @@ def _facts(unit, r, readings, load, model_p, condensate, back, fill, stalled_mod
         "valve_oversized": bool(v is not None and v.capacity_ok and v.opening_design < 0.5),
         "freezing_air": bool(r.medium == "air" and inlet_now is not None and inlet_now < 273.15),
         "cool_return": bool(dr.return_temperature is not None and r.flash is not None
-                            and dr.return_temperature < r.flash.return_saturation_temperature - 5.0),
+                            and dr.return_temperature < r.flash.return_saturation_temperature - 5.0
+                            and r.flash.fraction > 0),
+        "return_slugging": bool(r.return_line is not None and r.return_line.slugging),
+        "surge_high": _surge_high(r),
     }
+
+
+#: Without a rating, a surge above this is large for the usual condensate piping [Pa]
+#: (about 150 psi; common practice, from memory).
+LARGE_SURGE = 1.0e6
+
+
+def _surge_high(r: Result) -> bool:
+    """True where the computed surge takes the line near or past its rating (80 %), or,
+    with no rating given, above :data:`LARGE_SURGE`."""
+    sh = r.surge
+    if sh is None:
+        return False
+    if sh.rating is not None:
+        return sh.peak >= 0.8 * sh.rating
+    return sh.surge >= LARGE_SURGE
 
 
 def rank(facts: dict, **context) -> tuple[RankedCause, ...]:

@@ -22,6 +22,12 @@ _AT = 1e-6
 POOR_AT_LOW_DIFFERENTIAL = frozenset({"thermodynamic", "thermostatic", "bimetallic", "inverted-bucket"})
 
 
+#: A return line pitched less than this in the direction of flow is flatter than common
+#: practice (1 in in 40 ft, about 0.2 %; from memory) [-].
+LEAST_PITCH = 1.0 / 480.0
+#: Share of the line's rating a surge peak is held to (see ``devices.RATING_SHARE``).
+RATING_SHARE = 0.8
+
 #: A working differential below this is low for traps that need one to operate [Pa]
 #: (1 psi; common practice, from memory).
 LOW_DIFFERENTIAL = 6894.757
@@ -83,6 +89,7 @@ def core(unit: Unit, r: Result) -> tuple[Finding, ...]:
         out.append(Finding("method-below-set-point", "info", ("",),
                            {"load": r.set_point_floor_load, "set_point": unit.design.outlet_temperature}))
     out.extend(_devices(unit, r))
+    out.extend(_return_line(r))
     out.extend(layout.rules(unit, r))
     order = {"danger": 0, "warning": 1, "info": 2}
     return tuple(sorted(out, key=lambda f: order[f.severity]))
@@ -142,6 +149,39 @@ def _devices(unit: Unit, r: Result) -> list[Finding]:
                 "flash-into-cool-return", "warning", ("",),
                 {"fraction": fl.fraction, "return_temperature": fl.return_temperature,
                  "saturation": fl.return_saturation_temperature}))
+    return out
+
+
+def _return_line(r: Result) -> list[Finding]:
+    """Differential shock (slug flow in the line from the trap), the line's pitch, and
+    hydraulic shock (a column of condensate stopped)."""
+    out: list[Finding] = []
+    line = r.return_line
+    if line is not None:
+        if line.slugging:
+            where = [p for p in line.points if p.slugging]
+            out.append(Finding(
+                "return-line-slug-flow", "warning", ("", "size" if line.stratified_bore else "none"),
+                {"where": ", ".join(p.where for p in where), "second": where[0].mandhane, "bore": line.bore,
+                 "stratified": line.stratified_bore, "size": line.stratified_size}))
+        if line.pitch is not None and line.pitch < 0:
+            out.append(Finding("return-line-pitch", "warning", ("against",), {"pitch": -line.pitch}))
+        elif line.pitch is not None and line.pitch < LEAST_PITCH:
+            out.append(Finding("return-line-pitch", "info", ("flat",), {"pitch": line.pitch, "least": LEAST_PITCH}))
+    sh = r.surge
+    if sh is not None:
+        facts = {"surge": sh.surge, "velocity": sh.velocity, "speed": sh.wave_speed, "peak": sh.peak,
+                 "rating": sh.rating, "slow": sh.slow_closing_time, "share": RATING_SHARE}
+        cause, fix = ("pump", "fix-pump") if sh.basis == "pump-trap" else ("column", "fix-column")
+        if sh.rating is None:
+            out.append(Finding("hydraulic-shock", "info", (cause, "unrated", fix), facts))
+        elif sh.peak >= sh.rating:
+            out.append(Finding("hydraulic-shock", "danger", (cause, "over", fix), facts))
+        elif sh.peak >= RATING_SHARE * sh.rating:
+            out.append(Finding("hydraulic-shock", "warning", (cause, "near", fix), facts))
+        if out and out[-1].code == "hydraulic-shock":
+            slow = ("slow",) if sh.slow_closing_time is not None else ()
+            out[-1] = Finding(out[-1].code, out[-1].severity, out[-1].parts + slow + ("end",), facts)
     return out
 
 

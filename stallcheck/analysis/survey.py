@@ -45,6 +45,9 @@ class Summary:
     exit_status : int
     warnings : tuple of str
         The unit file's input warnings (shown on stderr).
+    return_pattern : str or None
+        The worst flow pattern in the line from the trap (Taitel & Dukler), where the
+        line is described.
     """
 
     source: str
@@ -61,6 +64,7 @@ class Summary:
     top_severity: str | None
     exit_status: int
     warnings: tuple[str, ...] = ()
+    return_pattern: str | None = None
 
     @classmethod
     def of(cls, r: Result) -> "Summary":
@@ -69,13 +73,24 @@ class Summary:
         return cls(r.source, r.unit, r.tag, r.system, s.load_fraction if s.occurs else None,
                    s.inlet_temperature if s.occurs else None, r.drainage.required, r.drainage.installed,
                    r.drainage.adequate, r.stalled_hours, top.code if top else None,
-                   top.severity if top else None, r.exit_status, r.warnings)
+                   top.severity if top else None, r.exit_status, r.warnings, _worst_pattern(r))
 
     def badness(self) -> tuple:
         """Sort key, worst first: failing units, then the worst finding, inadequate
         drainage, and the highest stall load."""
         severity = SEVERITIES.index(self.top_severity) if self.top_severity else -1
         return (-self.exit_status, -severity, self.adequate, -(self.stall_fraction or 0.0), self.source)
+
+
+#: Flow patterns in the line from the trap, worst first (slugs hammer; annular flow
+#: tears condensate along at speed; the rest run quietly).
+PATTERNS = ("intermittent", "annular", "bubbly", "stratified wavy", "stratified smooth", "liquid only")
+
+
+def _worst_pattern(r: Result) -> str | None:
+    if r.return_line is None:
+        return None
+    return min((p.taitel_dukler for p in r.return_line.points), key=PATTERNS.index)
 
 
 @dataclass(frozen=True)

@@ -59,7 +59,8 @@ _KNOWN = {
     "drain": {"arrangement", "trap", "fill_head", "lift", "return_pressure",
               "trap_min_differential", "capacity", "capacity_margin", "trap_orifice",
               "motive_pressure", "pump_fill_head", "pump_capacity", "purge_orifice", "purge_rate",
-              "return_line", "return_temperature"},
+              "return_line", "return_temperature", "return_length", "return_pitch", "return_material",
+              "return_wall", "return_rating", "pump_rate", "check_closing_time"},
     "drain.capacity": {"differential", "flow"},
     "drain.pump_capacity": {"back_pressure", "flow"},
     "geometry": {"tubes", "supply_feed", "distributing_tubes", "pitched_to_return",
@@ -613,6 +614,48 @@ def _drain_devices(r: _Reader, d: dict, atm: float) -> dict:
             raise InputError("drain.return_temperature", f"\"{d['return_temperature']}\" is out of range; "
                                                          "accepted: 0 °C to 200 °C.")
         out["return_temperature"] = t
+    out.update(_return_line(r, d, atm))
+    return out
+
+
+def _return_line(r: _Reader, d: dict, atm: float) -> dict:
+    """The optional keys of the line from the trap: its run, pitch, wall and rating,
+    and what drives or stops the flow in it."""
+    out: dict = {}
+    length = r.optional(d, "drain", "return_length", q.length)
+    if length is not None:
+        if not 0.0 < length <= 2000.0:
+            raise InputError("drain.return_length", f"\"{d['return_length']}\" is out of range; accepted: above "
+                                                    "0 to 2000 m.")
+        out["return_length"] = length
+    pitch = r.optional(d, "drain", "return_pitch", q.fraction)
+    if pitch is not None:
+        if not -1.0 <= pitch <= 1.0:
+            raise InputError("drain.return_pitch", f"\"{d['return_pitch']}\" is out of range; accepted: -100 % "
+                                                   "to 100 % (fall per length; negative rises against the flow).")
+        out["return_pitch"] = pitch
+    if "return_material" in d:
+        out["return_material"] = r.choice(d, "drain", "return_material", ("steel", "copper"))
+    wall = r.optional(d, "drain", "return_wall", q.length)
+    if wall is not None:
+        _require_positive("drain.return_wall", wall, f", got \"{d['return_wall']}\"")
+        if wall > 0.05:
+            raise InputError("drain.return_wall", f"\"{d['return_wall']}\" is over 50 mm; check the units.")
+        out["return_wall"] = wall
+    rating = r.optional(d, "drain", "return_rating", q.pressure)
+    if rating is not None:
+        out["return_rating"] = rating.absolute(atm)
+        check_pressure_range("drain.return_rating", out["return_rating"], d["return_rating"])
+    rate = r.optional(d, "drain", "pump_rate", q.mass_flow)
+    if rate is not None:
+        _require_positive("drain.pump_rate", rate, f", got \"{d['pump_rate']}\"")
+        out["pump_rate"] = rate
+    closing = r.optional(d, "drain", "check_closing_time", q.duration)
+    if closing is not None:
+        if not 0.0 <= closing <= 600.0:
+            raise InputError("drain.check_closing_time", f"\"{d['check_closing_time']}\" is out of range; "
+                                                         "accepted: 0 to 600 s.")
+        out["check_closing_time"] = closing
     return out
 
 

@@ -1,5 +1,6 @@
 """Sizing the drain devices: the trap (capacity against differential and the
-drainage limit), a pump-trap, a constant purge, and the flash steam at the trap outlet.
+drainage limit), a pump-trap, a constant purge, the flash steam at the trap outlet, and
+the return line: its flow pattern and the surge where a column of condensate is stopped.
 
 Called by :mod:`stallcheck.analysis` with the computed state of a batch of units
 (arrays, one row per unit); returns the figure dataclasses of
@@ -8,6 +9,7 @@ Called by :mod:`stallcheck.analysis` with the computed state of a batch of units
 
 from __future__ import annotations
 
+import math
 from typing import Callable
 
 import numpy as np
@@ -15,10 +17,19 @@ import numpy as np
 from stallcheck.inputs import Unit
 from stallcheck.physics import coil as coilmod
 from stallcheck.physics import flash as flashmod
-from stallcheck.physics import properties, traps
+from stallcheck.physics import hammer, properties, traps
 from stallcheck.physics import purge as purgemod
 from stallcheck.physics.solve import illinois
-from stallcheck.result import FlashFigures, PumpTrapFigures, PurgeFigures, StallPoint, TrapFigures
+from stallcheck.result import (
+    FlashFigures,
+    LinePoint,
+    PumpTrapFigures,
+    PurgeFigures,
+    ReturnLineFigures,
+    StallPoint,
+    SurgeFigures,
+    TrapFigures,
+)
 
 #: The drainage limit is solved to this fraction of design load [-].
 LIMIT_TOLERANCE = 1e-10
@@ -311,3 +322,100 @@ def flash_figures(b) -> list[FlashFigures]:
                                 return_temperature=dr.return_temperature,
                                 return_saturation_temperature=float(t_sat[i])))
     return out
+
+
+#: Loads at which the return line's flow pattern is found, in the order reported.
+LINE_LOADS = ("full load", "stall point", "minimum load")
+
+
+def _line_points(u: Unit, bore: float, angle: float, states) -> tuple[list[LinePoint], bool]:
+    """The flow pattern at each (where, load, condensate, coil pressure) state."""
+    p_ret = u.drain.return_pressure
+    points = []
+    for where, load, condensate, coil in states:
+        x = float(flashmod.flash_fraction(coil, p_ret)) if coil > p_ret else 0.0
+        pattern = hammer.flow_pattern(condensate, x, p_ret, bore, angle)
+        points.append(LinePoint(where, load, condensate, x, pattern.taitel_dukler, pattern.mandhane,
+                                pattern.slugging))
+    return points, any(p.slugging for p in points)
+
+
+def return_line_figures(u: Unit, design_flow: float, design_pressure: float, stall: StallPoint,
+                        minimum_flow: float, minimum_pressure: float) -> ReturnLineFigures | None:
+    """The flow pattern in the line from the trap at full load, at the stall point and
+    at the minimum load, where its bore is given, and the smallest standard bore that
+    keeps it stratified at all of them.
+
+    Parameters
+    ----------
+    u : Unit
+    design_flow, design_pressure : float
+        Condensate [kg/s] and coil pressure [Pa] at full load.
+    stall : StallPoint
+    minimum_flow, minimum_pressure : float
+        Condensate [kg/s] and coil pressure [Pa] at the minimum load.
+    """
+    dr = u.drain
+    if dr.return_line is None:
+        return None
+    states = [("full load", 1.0, design_flow, design_pressure)]
+    if stall.occurs and stall.in_range and stall.load_fraction < 1.0:
+        states.append(("stall point", stall.load_fraction, stall.condensate, stall.coil_pressure))
+    if u.load.minimum > 0 and minimum_flow > 0:
+        states.append(("minimum load", u.load.minimum, minimum_flow, minimum_pressure))
+    angle = -math.degrees(math.atan(dr.return_pitch)) if dr.return_pitch is not None else 0.0
+    points, slugging = _line_points(u, dr.return_line, angle, states)
+    bore = size = None
+    for name, inside, _ in hammer.SCHEDULE_40:
+        if inside + 1e-9 < dr.return_line:
+            continue
+        # judged at a bore 0.5 % smaller: the bore is printed to three figures, and a
+        # line a user builds from the printed figure must hold it too
+        trial, slugs = _line_points(u, inside * 0.995, angle, states)
+        if not slugs and all(p.taitel_dukler in hammer.STRATIFIED for p in trial):
+            bore, size = inside, name
+            break
+    return ReturnLineFigures(dr.return_line, dr.return_pitch, tuple(points), slugging, bore, size)
+
+
+#: Share of the rating a surge peak should stay below (a margin for the fittings and
+#: for reflections the simple formula leaves out; common practice, from memory).
+RATING_SHARE = 0.8
+
+
+def surge_figures(u: Unit, pump: PumpTrapFigures | None, back_pressure: float) -> SurgeFigures | None:
+    """Hydraulic shock in the line from the trap: a pump-trap's discharge stopped by its
+    check valve, or, after a plain trap, the column in the lift falling back when the
+    trap shuts. Needs the line's bore (and for a pump-trap its discharge rate or
+    capacity)."""
+    dr = u.drain
+    if dr.return_line is None:
+        return None
+    area = math.pi * dr.return_line ** 2 / 4.0
+    rho = float(properties.liquid_density(back_pressure))
+    if pump is not None and pump.installed:
+        rate = dr.pump_rate or pump.capacity
+        if not rate:
+            return None
+        basis, velocity, closing = "pump-trap", rate / (rho * area), dr.check_closing_time
+    elif dr.lift > 0 and dr.arrangement != "pump-trap":
+        basis, velocity, closing = "falling-column", hammer.falling_velocity(dr.lift), 0.0
+    else:
+        return None
+    c = float(properties.liquid_sound_speed(back_pressure))
+    wall = dr.return_wall or hammer.standard_wall(dr.return_line)
+    a = hammer.wave_speed(rho * c * c, rho, dr.return_line, wall, hammer.YOUNGS_MODULUS[dr.return_material])
+    length = dr.return_length if dr.return_length is not None else (dr.lift if basis == "falling-column" else None)
+    if length is None:
+        rise = hammer.joukowsky(rho, a, velocity)
+    else:
+        rise = hammer.surge(rho, a, velocity, length, closing)
+    slow = None
+    if basis == "pump-trap" and dr.return_rating is not None and length is not None:
+        allowed = RATING_SHARE * dr.return_rating - back_pressure
+        if allowed > 0 and back_pressure + rise > RATING_SHARE * dr.return_rating:
+            exact = max(2.0 * rho * length * velocity / allowed, 2.0 * length / a)
+            step = 10.0 ** (math.floor(math.log10(exact)) - 1)   # printed to two figures,
+            slow = math.ceil(exact / step - 1e-9) * step          # rounded up: the safe way
+    return SurgeFigures(basis, velocity, a, rho, length, closing, rise, back_pressure, back_pressure + rise,
+                        dr.return_rating, slow)

@@ -35,7 +35,7 @@ P_CRIT = 22.064e6
 _ZERO_C = 273.15
 
 # seuif97 property codes (its documented output ids)
-_P, _T, _D, _H, _CP = 0, 1, 2, 4, 8
+_P, _T, _D, _H, _CP, _W, _MU, _SIGMA = 0, 1, 2, 4, 8, 10, 24, 29
 _px = np.frompyfunc(seuif97.px, 3, 1)
 _tx = np.frompyfunc(seuif97.tx, 3, 1)
 
@@ -101,6 +101,30 @@ def liquid_density(pressure):
 def vapour_density(pressure):
     """Density of saturated steam [kg/m³] at an absolute pressure [Pa]."""
     return _sat(_px, _check_p(pressure) / 1e6, 1.0, _D)
+
+
+def liquid_viscosity(pressure):
+    """Dynamic viscosity of saturated liquid water [Pa·s] at an absolute pressure [Pa]
+    (IAPWS R12-08, as seuif97 gives it)."""
+    return _sat(_px, _check_p(pressure) / 1e6, 0.0, _MU)
+
+
+def vapour_viscosity(pressure):
+    """Dynamic viscosity of saturated steam [Pa·s] at an absolute pressure [Pa]
+    (IAPWS R12-08, as seuif97 gives it)."""
+    return _sat(_px, _check_p(pressure) / 1e6, 1.0, _MU)
+
+
+def surface_tension(pressure):
+    """Surface tension of water against its vapour [N/m] at saturation, at an absolute
+    pressure [Pa] (IAPWS R1-76, as seuif97 gives it)."""
+    return _sat(_px, _check_p(pressure) / 1e6, 0.0, _SIGMA)
+
+
+def liquid_sound_speed(pressure):
+    """Speed of sound in saturated liquid water [m/s] at an absolute pressure [Pa]
+    (IAPWS-IF97 region 1)."""
+    return _sat(_px, _check_p(pressure) / 1e6, 0.0, _W)
 
 
 def liquid_cp(pressure):

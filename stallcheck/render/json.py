@@ -98,6 +98,8 @@ def to_dict(r: Result) -> dict:
         "pump_trap": _pump_trap(r),
         "purge": _purge(r),
         "flash": _flash(r),
+        "return_line": _return_line(r),
+        "surge": _surge(r),
         "remedies": [{"key": m.key, "status": m.remedy.status, "current_si": m.remedy.current,
                       "value_si": m.remedy.value, "unit_si": _SI_UNIT[m.remedy.kind],
                       "achievable": m.remedy.achievable, "note": m.note}
@@ -200,6 +202,39 @@ def _flash(r: Result):
         "return_line_mm": None if f.line_diameter is None else f.line_diameter * 1000.0,
         "velocity_m_s": f.velocity,
         "return_temperature_c": q.celsius(f.return_temperature),
+    }
+
+
+def _return_line(r: Result):
+    line = r.return_line
+    if line is None:
+        return None
+    return {
+        "bore_mm": line.bore * 1000.0,
+        "pitch": line.pitch,
+        "points": [{"where": p.where, "load_fraction": p.load_fraction, "condensate_kg_h": q.kg_h(p.condensate),
+                    "flash_fraction": p.flash_fraction, "taitel_dukler": p.taitel_dukler, "mandhane": p.mandhane,
+                    "slugging": p.slugging} for p in line.points],
+        "slugging": line.slugging,
+        "stratified_bore_mm": None if line.stratified_bore is None else line.stratified_bore * 1000.0,
+        "stratified_size": line.stratified_size,
+    }
+
+
+def _surge(r: Result):
+    sh = r.surge
+    if sh is None:
+        return None
+    return {
+        "basis": sh.basis,
+        "velocity_m_s": sh.velocity,
+        "wave_speed_m_s": sh.wave_speed,
+        "length_m": sh.length,
+        "closing_time_s": sh.closing_time,
+        "surge_kpa": sh.surge / 1000.0,
+        "peak_kpa": q.kpa(sh.peak),
+        "rating_kpa": q.kpa(sh.rating),
+        "slow_closing_time_s": sh.slow_closing_time,
     }
 
 

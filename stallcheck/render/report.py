@@ -7,7 +7,7 @@ import io
 
 from stallcheck.files import quantities as q
 from stallcheck.inputs import Unit
-from stallcheck.render import advice, chart, words
+from stallcheck.render import advice, chart, page, terminal, words
 from stallcheck.result import Result
 
 SEVERITY_WORD = {"danger": "DANGER", "warning": "Warning", "info": "Note"}
@@ -91,6 +91,9 @@ def markdown(unit: Unit, r: Result, system: str, version: str, date: str, pictur
     out += [f"![Stall chart]({link})" for link in pictures] + ([""] if pictures else [])
 
     out += _figures(r, show)
+    hammer = terminal.hammer_sections(r, system)
+    if hammer:
+        out += ["## Return line and surge", "", "```text", page.plain(hammer, 78).rstrip(), "```", ""]
 
     a = advice.advise(r, system)
     out += [f"## {a.title}", ""]

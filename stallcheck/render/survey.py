@@ -66,6 +66,9 @@ def _rows(summaries: list[Summary], system: str | None, width: int = 80):
         detail.append(s.name if s.tag else s.source, style="dim")
         if s.required != s.installed:
             detail.append(f"; has {s.installed}", style="dim")
+        if s.return_pattern:
+            detail.append(f"; return line {s.return_pattern}",
+                          style="yellow" if s.return_pattern == "intermittent" else "dim")
         if s.top_code:
             detail.append("; ")
             detail.append(s.top_code, style=SEVERITY_STYLE.get(s.top_severity))
@@ -107,7 +110,8 @@ def plain(summaries: list[Summary], failures: list[Failure], system: str | None,
 
 
 CSV_COLUMNS = ("source", "name", "tag", "stall_load_fraction", "stall_inlet_temperature_c", "required",
-               "installed", "adequate", "stalled_hours", "top_finding", "top_severity", "exit_status", "error")
+               "installed", "adequate", "stalled_hours", "top_finding", "top_severity", "exit_status", "error",
+               "return_line_pattern")
 
 
 def records(summaries: list[Summary], failures: list[Failure]) -> list[dict]:
@@ -115,7 +119,7 @@ def records(summaries: list[Summary], failures: list[Failure]) -> list[dict]:
     known), the failures last with their messages under ``error``."""
     out = [dict(zip(CSV_COLUMNS, (s.source, s.name, s.tag, s.stall_fraction, q.celsius(s.stall_inlet_temperature),
                                   s.required, s.installed, s.adequate, s.stalled_hours, s.top_code,
-                                  s.top_severity, s.exit_status, None)))
+                                  s.top_severity, s.exit_status, None, s.return_pattern)))
            for s in summaries]
     out += [dict.fromkeys(CSV_COLUMNS) | {"source": f.source, "exit_status": 2, "error": f.message} for f in failures]
     return out

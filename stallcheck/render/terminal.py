@@ -123,6 +123,8 @@ def report(result: Result, system: str, width: int = 80) -> list:
               *bullets(words.drainage_reasons(dr, system, r.atmospheric_pressure)), BLANK]
     parts += _devices(r, system)
 
+    parts += hammer_sections(r, system)
+
     v = r.valve
     if v is not None:
         parts.append(_heading("Control valve"))
@@ -254,6 +256,49 @@ def _devices(r: Result, system: str) -> list:
                                f"{q.show(fl.velocity, 'velocity', system)} (keep under about "
                                f"{q.show_about(VELOCITY_LIMIT, 'velocity', system)})"))
         parts.append(BLANK)
+    return parts
+
+
+def hammer_sections(r: Result, system: str) -> list:
+    """The return line's flow pattern and the surge, where the line is described."""
+    parts: list = []
+    line = r.return_line
+    if line is not None:
+        pitch = "level (no pitch given)" if line.pitch is None else (
+            f"falling {line.pitch:.1%} with the flow" if line.pitch >= 0 else f"rising {-line.pitch:.1%} against it")
+        parts += [_heading("Return line from the trap"),
+                  _para(f"{q.show(line.bore, 'diameter', system)} bore, {pitch}; flow pattern by Taitel & Dukler "
+                        f"(Mandhane's map beside it):")]
+        for pt in line.points:
+            flow = q.show(pt.condensate, "mass_flow", system)
+            if pt.taitel_dukler == "liquid only":  # no flash: no two-phase pattern (physics.hammer)
+                text = runs(f"{pt.where} ({pt.load_fraction:.0%}): liquid only, no flash; {flow}")
+            else:
+                text = runs(f"{pt.where} ({pt.load_fraction:.0%}): ",
+                            (pt.taitel_dukler, "bold red" if pt.slugging else None),
+                            f" ({pt.mandhane}); flash {pt.flash_fraction:.1%} of {flow}")
+            parts.append(Para(text, 4, runs("  - ")))
+        if line.slugging:
+            parts.append(_para(f"stratified at every load from {line.stratified_size} "
+                               f"({q.show(line.stratified_bore, 'diameter', system)} bore)" if line.stratified_bore
+                               else "no line up to 6 in keeps it stratified at every load", style="yellow"))
+        parts.append(BLANK)
+    sh = r.surge
+    if sh is not None:
+        atm = r.atmospheric_pressure
+        what = ("the pump-trap's discharge stopped by its check valve" if sh.basis == "pump-trap"
+                else "the column in the lift falling back onto the trap (free fall, an upper bound)")
+        closing = (f", closing in {sh.closing_time:g} s" if sh.closing_time else ", closing at once")
+        parts += [_heading("Surge (hydraulic shock)"), _para(what + (closing if sh.basis == "pump-trap" else "")),
+                  _para(f"{q.show(sh.velocity, 'velocity', system)} stopped; wave speed "
+                        f"{q.show(sh.wave_speed, 'velocity', system, decimals=0)} (Korteweg): a rise of "
+                        f"{q.show_about(sh.surge, 'differential', system)} (Joukowsky"
+                        + (", slowed by the closure" if sh.length and sh.closing_time > 2 * sh.length / sh.wave_speed
+                           else "") + f"), to {q.show(sh.peak, 'pressure', system, atm)}"
+                        + (f" against a rating of {q.show(sh.rating, 'pressure', system, atm)}" if sh.rating else "")),
+                  _para("a screening figure: relief, ratings and the fix follow the piping code and licensed "
+                        "practice", style="dim"),
+                  BLANK]
     return parts
 
 

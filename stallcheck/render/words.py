@@ -172,6 +172,39 @@ FINDINGS: dict[str, dict[str, str]] = {
             "collapse in the cooler water and hammer. Discharge along the direction of flow through a "
             "sparging fitting, or into a vented receiver.",
     },
+    "return-line-slug-flow": {
+        "": "Flash steam and condensate run in slug (intermittent) flow in the {bore:diameter} line from the trap "
+            "at {where} (Taitel & Dukler's map; Mandhane's reads {second}): a wave seals the pipe and the steam "
+            "behind drives it as a slug that hammers at bends and fittings (differential shock). ",
+        "size": "A {size} line ({stratified:diameter} bore) keeps the flow stratified at every load shown; or "
+                "flash the condensate in a vented receiver next to the trap.",
+        "none": "No line up to 6 in keeps it stratified at every load: flash the condensate in a vented receiver "
+                "next to the trap, or pump from one.",
+    },
+    "return-line-pitch": {
+        "against": "The line from the trap rises against the flow ({pitch:.1%}): condensate lies in it and "
+                   "steam drives it back and forth in slugs. Pitch it down in the direction of flow.",
+        "flat": "The line from the trap falls only {pitch:.2%} in the direction of flow, flatter than about "
+                "{least:.1%} (1 in in 40 ft, common practice): condensate lies in it where it sags. Pitch it "
+                "down in the direction of flow.",
+    },
+    "hydraulic-shock": {
+        "pump": "When the pump-trap's discharge ({velocity:velocity}) is stopped by its check valve, the column "
+                "raises the pressure by {surge:~differential} (Joukowsky, with a wave speed of "
+                "{speed:velocity}), to {peak:pressure}",
+        "column": "When the trap shuts, the column in the lift after it can fall back at up to "
+                  "{velocity:velocity} (free fall, an upper bound) and stop on the trap, raising the pressure "
+                  "by up to {surge:~differential} (Joukowsky, wave speed {speed:velocity}), to {peak:pressure}",
+        "unrated": "; give drain.return_rating to compare it with the line's rating. ",
+        "over": ", above the line's rating of {rating:pressure}. ",
+        "near": ", above {share:.0%} of the line's rating of {rating:pressure}. ",
+        "fix-pump": "Fit a non-slam (spring-loaded, centre-guided) check valve on the discharge",
+        "fix-column": "Do not lift straight after the trap of a modulating coil: drain by gravity to a vented "
+                      "receiver and pump from there, or fit a non-slam check valve after the trap",
+        "slow": ", or close it over at least {slow:.2g} s",
+        "end": ". A screening figure: relief, ratings and the fix follow the piping code in force and licensed "
+               "practice; make a hammering system safe before studying it.",
+    },
     "tube-fill-both-ends": {
         "": "Steam enters the supply header at its centre and the coil has no steam-distributing tubes: "
             "steam reaches the return header through the middle tubes first and then enters the outer "

@@ -1,0 +1,198 @@
+"""The two ways a steam unit hammers besides the stall: differential shock in the return
+line, and hydraulic shock where a moving column of condensate is stopped.
+
+* **Differential shock.** Flash steam and condensate share the line from the trap. Where
+  the flow is intermittent (slug) a wave of condensate seals the pipe and the steam
+  behind drives it as a slug. The flow pattern comes from two published maps, as
+  implemented in the ``fluids`` library: Taitel & Dukler (1976), with the line's
+  inclination, and Mandhane, Gregory & Aziz (1974) as a second opinion.
+* **Hydraulic shock.** A column moving at v stopped within one wave round trip 2L/a
+  raises the pressure by Joukowsky's Δp = ρ·a·Δv; the wave speed a in a pipe follows
+  Korteweg's correction for the elasticity of its wall. A slower closure, t_c > 2L/a,
+  raises it by about 2·ρ·L·Δv/t_c (Michaud's formula).
+
+SI throughout: pressures [Pa], lengths [m], velocities [m/s], flows [kg/s].
+"""
+
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass
+
+from stallcheck.physics import properties
+from stallcheck.physics.constants import GRAVITY
+
+#: Young's modulus of pipe materials [Pa]: carbon steel 200 GPa, copper 117 GPa
+#: (Wylie & Streeter, *Fluid Transients in Systems*, 1993, Table 2.1; from memory).
+YOUNGS_MODULUS = {"steel": 200e9, "copper": 117e9}
+#: Inside diameter and wall of Schedule 40 steel pipe by nominal size [m] (ASME B36.10M;
+#: from memory): the standard bores a larger return line is chosen from.
+SCHEDULE_40 = (
+    ("1/2 in", 0.622 * 0.0254, 0.109 * 0.0254), ("3/4 in", 0.824 * 0.0254, 0.113 * 0.0254),
+    ("1 in", 1.049 * 0.0254, 0.133 * 0.0254), ("1-1/4 in", 1.380 * 0.0254, 0.140 * 0.0254),
+    ("1-1/2 in", 1.610 * 0.0254, 0.145 * 0.0254), ("2 in", 2.067 * 0.0254, 0.154 * 0.0254),
+    ("2-1/2 in", 2.469 * 0.0254, 0.203 * 0.0254), ("3 in", 3.068 * 0.0254, 0.216 * 0.0254),
+    ("4 in", 4.026 * 0.0254, 0.237 * 0.0254), ("6 in", 6.065 * 0.0254, 0.280 * 0.0254),
+)
+#: Below this flash fraction the line runs liquid only: no steam to drive a slug [-].
+NO_FLASH = 1e-4
+#: The pattern named where the line runs liquid only.
+LIQUID = "liquid only"
+#: Taitel-Dukler patterns in which the line stays stratified: condensate along the
+#: bottom, steam above, no slug to drive.
+STRATIFIED = ("stratified smooth", "stratified wavy", LIQUID)
+
+
+def standard_wall(bore: float) -> float:
+    """Wall thickness [m] of the Schedule 40 steel pipe whose bore is nearest ``bore`` [m]."""
+    return min(SCHEDULE_40, key=lambda row: abs(row[1] - bore))[2]
+
+
+@dataclass(frozen=True)
+class Pattern:
+    """The two-phase flow pattern in a line at one load.
+
+    Attributes
+    ----------
+    taitel_dukler : str
+        ``annular``, ``bubbly``, ``intermittent``, ``stratified wavy`` or
+        ``stratified smooth``.
+    mandhane : str
+        ``elongated bubble``, ``stratified``, ``annular mist``, ``slug``,
+        ``dispersed bubble`` or ``wave``.
+    gas_velocity, liquid_velocity : float
+        Superficial velocities of the flash steam and the condensate. [m/s]
+    """
+
+    taitel_dukler: str
+    mandhane: str
+    gas_velocity: float
+    liquid_velocity: float
+
+    @property
+    def slugging(self) -> bool:
+        """True where Taitel & Dukler's map, which takes the line's inclination, puts the
+        flow in intermittent (slug) flow; Mandhane's map is the second opinion shown
+        beside it."""
+        return self.taitel_dukler == "intermittent"
+
+
+def flow_pattern(condensate: float, fraction: float, pressure: float, bore: float, angle: float) -> Pattern:
+    """The flow pattern of condensate and its flash steam in a line.
+
+    Parameters
+    ----------
+    condensate : float
+        Mass flow through the line, steam and water together. [kg/s]
+    fraction : float
+        Flash fraction (mass quality) in the line. [-]
+    pressure : float
+        Absolute pressure in the line (properties at saturation there). [Pa]
+    bore : float
+        Inside diameter. [m]
+    angle : float
+        Inclination in the direction of flow, from horizontal; negative where the line
+        falls (pitched with the flow). [degrees]
+
+    References
+    ----------
+    .. [1] Taitel, Y., Dukler, A. E. (1976). A model for predicting flow regime
+       transitions in horizontal and near horizontal gas-liquid flow. AIChE J. 22(1),
+       47-55.
+    .. [2] Mandhane, J. M., Gregory, G. A., Aziz, K. (1974). A flow pattern map for
+       gas-liquid flow in horizontal pipes. Int. J. Multiphase Flow 1, 537-553.
+    .. [3] Bell, C. and contributors, ``fluids``: ``fluids.two_phase``.
+    """
+    Mandhane_Gregory_Aziz_regime, Taitel_Dukler_regime = _maps()
+    area = math.pi * bore ** 2 / 4.0
+    if fraction <= NO_FLASH or condensate <= 0:
+        rho = float(properties.liquid_density(pressure))
+        return Pattern(LIQUID, LIQUID, 0.0, max(condensate, 0.0) / (rho * area))
+    x = min(fraction, 1.0 - 1e-6)
+    m = condensate
+    rho_l, rho_g = float(properties.liquid_density(pressure)), float(properties.vapour_density(pressure))
+    mu_l, mu_g = float(properties.liquid_viscosity(pressure)), float(properties.vapour_viscosity(pressure))
+    sigma = float(properties.surface_tension(pressure))
+    td = Taitel_Dukler_regime(m=m, x=x, rhol=rho_l, rhog=rho_g, mul=mu_l, mug=mu_g, D=bore, angle=angle)[0]
+    mga = Mandhane_Gregory_Aziz_regime(m=m, x=x, rhol=rho_l, rhog=rho_g, mul=mu_l, mug=mu_g, sigma=sigma, D=bore)[0]
+    return Pattern(td, mga, m * x / (rho_g * area), m * (1.0 - x) / (rho_l * area))
+
+
+def _maps():
+    """The two maps from ``fluids.two_phase``. Taitel & Dukler's curves are B-splines
+    that ``fluids`` evaluates with SciPy's ``splev`` on CPython, whose import costs
+    about 0.4 s, more than a whole check; ``fluids`` ships the same evaluation in pure
+    Python (``fluids.numerics.py_splev``, what it uses on PyPy), taken here instead.
+    ``tests/test_hammer.py`` holds the two to the same patterns over the maps."""
+    from fluids import two_phase
+    from fluids.numerics import py_splev
+
+    two_phase.splev = py_splev
+    return two_phase.Mandhane_Gregory_Aziz_regime, two_phase.Taitel_Dukler_regime
+
+
+def flow_pattern_td(m: float, x: float, bore: float, angle: float, rhol: float, rhog: float, mul: float,
+                    mug: float) -> str:
+    """Taitel & Dukler's pattern alone, through :func:`_maps` (for the tests)."""
+    return _maps()[1](m=m, x=x, rhol=rhol, rhog=rhog, mul=mul, mug=mug, D=bore, angle=angle)[0]
+
+
+def wave_speed(bulk_modulus: float, density: float, bore: float, wall: float, youngs_modulus: float) -> float:
+    """Pressure-wave speed in liquid in an elastic pipe [m/s] (Korteweg):
+
+    .. math:: a = \\sqrt{\\frac{K/\\rho}{1 + (K/E)(D/e)}}
+
+    for a thin-walled pipe free to move along its length (the restraint factor c₁ = 1);
+    in a rigid pipe (E → ∞) it is the speed of sound in the liquid, √(K/ρ).
+
+    Parameters
+    ----------
+    bulk_modulus : float
+        Of the liquid, K = ρ·c², c the speed of sound. [Pa]
+    density : float  [kg/m³]
+    bore, wall : float
+        Inside diameter and wall thickness. [m]
+    youngs_modulus : float
+        Of the pipe wall. [Pa]
+
+    References
+    ----------
+    .. [1] Korteweg, D. J. (1878). Über die Fortpflanzungsgeschwindigkeit des Schalles
+       in elastischen Röhren. Ann. Phys. 241(12), 525-542.
+    .. [2] Wylie, E. B., Streeter, V. L. (1993). Fluid Transients in Systems, eq. 2.6.
+    """
+    return math.sqrt(bulk_modulus / density / (1.0 + bulk_modulus * bore / (youngs_modulus * wall)))
+
+
+def joukowsky(density: float, speed: float, velocity_change: float) -> float:
+    """Pressure rise [Pa] when a column's velocity changes by Δv within 2L/a:
+    Δp = ρ·a·Δv.
+
+    References
+    ----------
+    .. [1] Joukowsky, N. (1898). Über den hydraulischen Stoss in Wasserleitungsröhren.
+    .. [2] Wylie, E. B., Streeter, V. L. (1993). Fluid Transients in Systems, eq. 1.1.
+    """
+    return density * speed * velocity_change
+
+
+def surge(density: float, speed: float, velocity_change: float, length: float, closing_time: float) -> float:
+    """Pressure rise [Pa] of a closure taking ``closing_time`` [s] on a line ``length``
+    [m] long: Joukowsky's within the round trip 2L/a, else Michaud's 2·ρ·L·Δv/t_c.
+
+    References
+    ----------
+    .. [1] Michaud, J. (1878). Coups de bélier dans les conduites. Bull. Soc. Vaudoise
+       Ing. Arch. 4; as given in Thorley, A. R. D. (2004), Fluid Transients in Pipeline
+       Systems, 2nd ed., section 2.3.
+    """
+    sudden = joukowsky(density, speed, velocity_change)
+    if closing_time <= 2.0 * length / speed:
+        return sudden
+    return min(sudden, 2.0 * density * length * velocity_change / closing_time)
+
+
+def falling_velocity(height: float) -> float:
+    """Speed [m/s] of a column that falls freely back down a rise of ``height`` [m]:
+    √(2·g·h), an upper bound (friction slows it)."""
+    return math.sqrt(2.0 * GRAVITY * max(height, 0.0))

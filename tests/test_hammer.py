@@ -1,0 +1,173 @@
+"""The return line and the other two ways a unit hammers: Joukowsky's surge with
+Korteweg's wave speed, and the flow-pattern maps, checked against hand arithmetic,
+IAPWS-95 (the `iapws` package) and the maps as `fluids` publishes them."""
+
+import math
+
+import pytest
+from conftest import BASE_UNIT
+from iapws import IAPWS95, IAPWS97
+
+from stallcheck import analysis
+from stallcheck.files import unitfile
+from stallcheck.physics import hammer, properties
+from stallcheck.render import words
+
+FT = 0.3048
+PSI = 6894.757293168
+LB_FT3 = 0.45359237 / FT ** 3
+
+
+def test_joukowsky_for_a_column_stopped_at_ten_feet_a_second():
+    # Common practice: 1 ft³ of water weighs about 62.4 lb; a column at 10 ft/s stopped
+    # at once in steel pipe (a = 4,000 to 4,700 ft/s) rises by about 550-650 psi.
+    # Arithmetic: 62.4 lb/ft³ / 32.174 ft/s² x 4,300 ft/s x 10 ft/s / 144 in²/ft² = 579 psi.
+    rise = hammer.joukowsky(62.4 * LB_FT3, 4300 * FT, 10 * FT) / PSI
+    assert rise == pytest.approx(62.4 / 32.174 * 4300 * 10 / 144, rel=1e-4)
+    assert 550 <= rise <= 650
+    for a in (4000, 4700):
+        assert 530 <= hammer.joukowsky(62.4 * LB_FT3, a * FT, 10 * FT) / PSI <= 650
+
+
+def test_wave_speed_in_a_rigid_pipe_is_the_speed_of_sound():
+    # IAPWS-95 (iapws): about 1,482 m/s in water at 20 °C and 1 atm.
+    water = IAPWS95(T=293.15, P=0.101325)
+    k = water.rho * water.w ** 2
+    assert hammer.wave_speed(k, water.rho, 0.1, 0.005, 1e30) == pytest.approx(water.w, rel=1e-9)
+    assert water.w == pytest.approx(1482, abs=2)
+
+
+def test_the_speed_of_sound_in_saturated_condensate_is_iapws_s():
+    # IAPWS-IF97 region 1 at saturation (iapws) against the property layer.
+    for p in (0.101325, 0.5, 1.0):
+        assert float(properties.liquid_sound_speed(p * 1e6)) == pytest.approx(IAPWS97(P=p, x=0).w, rel=1e-6)
+
+
+def test_korteweg_on_a_thin_steel_pipe():
+    # The form of Wylie & Streeter, Fluid Transients in Systems (1993), eq. 2.6 with
+    # c1 = 1, worked by hand: K = 2.19 GPa, ρ = 998.2 kg/m³, D = 1 m, e = 10 mm,
+    # E = 207 GPa (values from memory):
+    # a = √(2.19e9/998.2 / (1 + 2.19e9·100/207e9)) = √(2.19399e6/2.05797) = 1,032.5 m/s.
+    a = hammer.wave_speed(2.19e9, 998.2, 1.0, 0.010, 207e9)
+    assert a == pytest.approx(math.sqrt(2.19e9 / 998.2 / (1 + 2.19e9 * 100 / 207e9)), rel=1e-12)
+    assert a == pytest.approx(1032.5, abs=0.5)
+
+
+def test_a_closure_slower_than_the_round_trip_lowers_the_surge():
+    # Michaud: closing over 2x the round trip 2L/a halves Joukowsky's rise (hand).
+    rho, a, dv, length = 960.0, 1300.0, 2.0, 100.0
+    sudden = hammer.joukowsky(rho, a, dv)
+    assert hammer.surge(rho, a, dv, length, 0.0) == sudden
+    assert hammer.surge(rho, a, dv, length, 2 * length / a) == sudden
+    assert hammer.surge(rho, a, dv, length, 4 * length / a) == pytest.approx(sudden / 2, rel=1e-12)
+
+
+def test_a_falling_column_falls_as_a_free_body():
+    # v = √(2 g h): 10 ft gives about 25.4 ft/s (hand).
+    assert hammer.falling_velocity(10 * FT) / FT == pytest.approx(math.sqrt(2 * 32.174 * 10), rel=1e-4)
+
+
+def test_taitel_dukler_evaluated_without_scipy_agrees_with_fluids_own():
+    # fluids evaluates Taitel & Dukler's spline curves with SciPy; the pure-Python
+    # evaluation taken here must give the same pattern across the map.
+    from fluids import two_phase
+    from fluids.numerics import py_splev
+    from scipy.interpolate import splev
+
+    kwargs = dict(rhol=958.0, rhog=0.6, mul=2.8e-4, mug=1.2e-5)
+    cases = [(m, x, d, angle) for m in (0.01, 0.05, 0.2, 1.0, 3.0) for x in (0.001, 0.005, 0.02, 0.1, 0.5)
+             for d in (0.015, 0.025, 0.05, 0.1) for angle in (-2.0, 0.0, 1.0)]
+    two_phase.splev = splev
+    with_scipy = [two_phase.Taitel_Dukler_regime(m=m, x=x, D=d, angle=a, **kwargs)[0] for m, x, d, a in cases]
+    two_phase.splev = py_splev
+    without = [hammer.flow_pattern_td(m, x, d, a, **kwargs) for m, x, d, a in cases]
+    assert with_scipy == without
+    assert len(set(without)) >= 4
+
+
+@pytest.mark.parametrize("v_ls, v_gs, pattern", [
+    # Points read from the Mandhane-Gregory-Aziz map (Int. J. Multiphase Flow 1, 1974,
+    # Fig. 8; superficial velocities in ft/s; from memory, well inside each region).
+    (0.02, 1.0, "stratified"), (0.05, 40.0, "wave"), (1.0, 10.0, "slug"), (0.3, 200.0, "annular mist"),
+    (1.0, 0.5, "elongated bubble"), (20.0, 1.0, "dispersed bubble"),
+])
+def test_mandhane_map_points(v_ls, v_gs, pattern):
+    from fluids.two_phase import Mandhane_Gregory_Aziz_regime
+
+    rho_l, rho_g, d = 1000.0, 1.2, 0.05
+    area = math.pi * d ** 2 / 4
+    gas, liquid = v_gs * FT * rho_g * area, v_ls * FT * rho_l * area
+    got = Mandhane_Gregory_Aziz_regime(m=gas + liquid, x=gas / (gas + liquid), rhol=rho_l, rhog=rho_g, mul=1e-3,
+                                       mug=1.8e-5, sigma=0.072, D=d)
+    assert got[0] == pattern
+
+
+def _unit(extra: str, lift: str = "0 ft", arrangement: str = "trap"):
+    text = BASE_UNIT.replace('lift = "0 ft"', f'lift = "{lift}"').replace('arrangement = "trap"',
+                                                                          f'arrangement = "{arrangement}"')
+    return unitfile.parse(text + extra, "hammer.toml")
+
+
+def test_a_pump_trap_discharge_surge_by_hand():
+    # 2,000 lb/h through 1 in (25.4 mm) of Schedule 40 steel (wall 0.133 in), 10 ft of
+    # lift: v = w/(ρ·A), a by Korteweg with K = ρc² of the condensate, Δp = ρ·a·v.
+    u = _unit('motive_pressure = "60 psig"\npump_rate = "2000 lb/h"\nreturn_line = "1 in"\n',
+              lift="10 ft", arrangement="pump-trap")
+    r = analysis.analyse(u)
+    sh = r.surge
+    p = r.back_pressure
+    water = IAPWS97(P=p / 1e6, x=0)
+    v = 2000 * 0.45359237 / 3600 / (water.rho * math.pi * 0.0254 ** 2 / 4)
+    a = math.sqrt(water.rho * water.w ** 2 / water.rho / (1 + water.rho * water.w ** 2 * 0.0254
+                                                          / (200e9 * 0.133 * 0.0254)))
+    assert sh.basis == "pump-trap" and sh.velocity == pytest.approx(v, rel=1e-5)
+    assert sh.wave_speed == pytest.approx(a, rel=1e-5)
+    assert sh.surge == pytest.approx(water.rho * a * v, rel=1e-5)
+    assert sh.peak == pytest.approx(p + sh.surge, rel=1e-12)
+
+
+def test_the_closing_time_printed_holds_the_surge_when_applied():
+    # Advice that survives being followed: the slower closure printed, put in the unit
+    # file, takes the peak below 80 % of the rating, and the finding goes.
+    extra = ('motive_pressure = "60 psig"\npump_rate = "3000 lb/h"\nreturn_line = "1 in"\nreturn_length = "100 ft"\n'
+             'return_rating = "50 psig"\n')
+    r = analysis.analyse(_unit(extra, lift="10 ft", arrangement="pump-trap"))
+    shock = next(f for f in r.findings if f.code == "hydraulic-shock")
+    text = words.finding(shock, r, "us")
+    assert shock.severity == "danger" and "non-slam" in text
+    seconds = text.split("close it over at least ")[1].split(" s")[0]
+    again = analysis.analyse(_unit(extra + f'check_closing_time = "{seconds} s"\n', lift="10 ft",
+                                   arrangement="pump-trap"))
+    assert again.surge.peak < 0.8 * again.surge.rating
+    assert "hydraulic-shock" not in {f.code for f in again.findings}
+
+
+def test_a_lift_after_a_plain_trap_can_fall_back():
+    r = analysis.analyse(_unit('return_line = "1 in"\n', lift="10 ft"))
+    assert r.surge.basis == "falling-column"
+    assert r.surge.velocity == pytest.approx(math.sqrt(2 * 9.80665 * 10 * FT), rel=1e-12)
+    shock = next(f for f in r.findings if f.code == "hydraulic-shock")
+    assert shock.severity == "info" and "drain.return_rating" in words.finding(shock, r, "us")
+
+
+@pytest.mark.parametrize("pitch, severity", [("-1 %", "warning"), ("0.1 %", "info"), ("1 %", None)])
+def test_the_line_s_pitch(pitch, severity):
+    # Common practice (from memory): a return falls at least 1 in in 40 ft with the flow.
+    r = analysis.analyse(_unit(f'return_line = "1 in"\nreturn_pitch = "{pitch}"\n'))
+    found = [f.severity for f in r.findings if f.code == "return-line-pitch"]
+    assert found == ([severity] if severity else [])
+
+
+def test_the_bore_printed_for_slug_flow_keeps_the_line_stratified_when_applied():
+    from test_diagnosis import LOW_PRESSURE_HEATER
+
+    u = unitfile.parse(LOW_PRESSURE_HEATER + 'return_line = "25 mm"\nreturn_pitch = "1 %"\n', "heater.toml")
+    r = analysis.analyse(u)
+    slug = next(f for f in r.findings if f.code == "return-line-slug-flow")
+    text = words.finding(slug, r, "si")
+    bore = text.split("line (")[1].split(" bore")[0]
+    assert r.return_line.points[0].taitel_dukler == "intermittent"
+    again = analysis.analyse(unitfile.parse(LOW_PRESSURE_HEATER + f'return_line = "{bore}"\nreturn_pitch = "1 %"\n',
+                                            "heater.toml"))
+    assert not again.return_line.slugging
+    assert all(p.taitel_dukler in hammer.STRATIFIED for p in again.return_line.points)
