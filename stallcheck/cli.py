@@ -135,7 +135,8 @@ def chart(unit: Path = UNIT_ARG, units: Optional[Units] = UNITS_OPT,
     from stallcheck.render import page
 
     columns = page.width_for(sys.stdout, width)
-    page.emit([terminal.chart_block(result, result.system, width=columns - 2, x_axis=axis)], columns)
+    page.emit([terminal.chart_block(result, result.system, width=columns - 2, x_axis=axis),
+               *terminal.line_summary(result)], columns)
     if csv is not None:
         from stallcheck.files import atomic
         from stallcheck.render import chart as chartmod

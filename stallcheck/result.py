@@ -349,6 +349,11 @@ class FlashFigures:
     return_saturation_temperature: float
 
 
+#: Flow patterns in the line from the trap, worst first: slugs hammer; annular flow tears
+#: condensate along at speed; the rest run quietly (``liquid only``: no flash).
+PATTERNS = ("intermittent", "annular", "bubbly", "stratified wavy", "stratified smooth", "liquid only")
+
+
 @dataclass(frozen=True)
 class LinePoint:
     """The flow in the line from the trap at one load.
@@ -402,6 +407,11 @@ class ReturnLineFigures:
     slugging: bool
     stratified_bore: float | None
     stratified_size: str | None
+
+    @property
+    def worst(self) -> LinePoint:
+        """The point with the worst flow pattern (:data:`PATTERNS`)."""
+        return min(self.points, key=lambda p: PATTERNS.index(p.taitel_dukler))
 
 
 @dataclass(frozen=True)

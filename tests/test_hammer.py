@@ -171,3 +171,17 @@ def test_the_bore_printed_for_slug_flow_keeps_the_line_stratified_when_applied()
                                             "heater.toml"))
     assert not again.return_line.slugging
     assert all(p.taitel_dukler in hammer.STRATIFIED for p in again.return_line.points)
+
+
+def test_the_chart_and_the_survey_show_the_worst_pattern(tmp_path):
+    from test_diagnosis import LOW_PRESSURE_HEATER
+    from typer.testing import CliRunner
+
+    from stallcheck.cli import app
+
+    unit = tmp_path / "heater.toml"
+    unit.write_text(LOW_PRESSURE_HEATER + 'return_line = "25 mm"\nreturn_pitch = "1 %"\n', encoding="utf-8")
+    chart = CliRunner().invoke(app, ["chart", str(unit)], env={"NO_COLOR": "1"}).stdout
+    assert "return line from the trap, at worst: intermittent (full load)" in chart
+    survey = CliRunner().invoke(app, ["survey", str(tmp_path)], env={"NO_COLOR": "1"}).stdout
+    assert "return line intermittent" in " ".join(survey.split())

@@ -82,15 +82,8 @@ class Summary:
         return (-self.exit_status, -severity, self.adequate, -(self.stall_fraction or 0.0), self.source)
 
 
-#: Flow patterns in the line from the trap, worst first (slugs hammer; annular flow
-#: tears condensate along at speed; the rest run quietly).
-PATTERNS = ("intermittent", "annular", "bubbly", "stratified wavy", "stratified smooth", "liquid only")
-
-
 def _worst_pattern(r: Result) -> str | None:
-    if r.return_line is None:
-        return None
-    return min((p.taitel_dukler for p in r.return_line.points), key=PATTERNS.index)
+    return None if r.return_line is None else r.return_line.worst.taitel_dukler
 
 
 @dataclass(frozen=True)

@@ -147,7 +147,7 @@ def report(result: Result, system: str, width: int = 80) -> list:
     parts.append(BLANK)
 
     parts += _remedies(r, system)
-    parts += [_heading("Stall chart"), chart_block(r, system, width=width - 2), BLANK]
+    parts += [_heading("Stall chart"), chart_block(r, system, width=width - 2), *line_summary(r), BLANK]
 
     parts += [_heading("Assumptions"), *bullets(r.assumptions, style="dim"), BLANK]
     if r.warnings:
@@ -257,6 +257,17 @@ def _devices(r: Result, system: str) -> list:
                                f"{q.show_about(VELOCITY_LIMIT, 'velocity', system)})"))
         parts.append(BLANK)
     return parts
+
+
+def line_summary(r: Result) -> list:
+    """Under the chart: the worst flow pattern in the line from the trap, where the line
+    is described (the return line section has the detail)."""
+    line = r.return_line
+    if line is None:
+        return []
+    worst = line.worst
+    return [Para(runs("return line from the trap, at worst: ",
+                      (worst.taitel_dukler, "bold red" if worst.slugging else None), f" ({worst.where})"), 2)]
 
 
 def hammer_sections(r: Result, system: str) -> list:
