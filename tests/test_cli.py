@@ -227,3 +227,13 @@ def test_every_text_command_takes_a_width(command, monkeypatch):
     assert narrow.exit_code in (0, 1) and wide.exit_code == narrow.exit_code, narrow.output
     assert max(map(len, narrow.stdout.splitlines())) <= 60
     assert max(map(len, wide.stdout.splitlines())) > 60
+
+
+def test_a_check_of_shipped_spellings_does_not_read_the_cache_file():
+    # The user's cache file (and hashlib, to name it) only where a spelling is missing.
+    code = ("import sys, io, contextlib\nfrom stallcheck.cli import main\n"
+            f"sys.argv = ['stallcheck', 'check', {str(SAMPLES[0])!r}]\n"
+            "try:\n    with contextlib.redirect_stdout(io.StringIO()):\n        main()\nexcept SystemExit:\n    pass\n"
+            "from stallcheck.files import quantities as q\nprint(q._answers.data is None, 'hashlib' in sys.modules)")
+    out = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True, check=True)
+    assert out.stdout.split()[0] == "True"

@@ -185,3 +185,25 @@ def test_the_chart_and_the_survey_show_the_worst_pattern(tmp_path):
     assert "return line from the trap, at worst: intermittent (full load)" in chart
     survey = CliRunner().invoke(app, ["survey", str(tmp_path)], env={"NO_COLOR": "1"}).stdout
     assert "return line intermittent" in " ".join(survey.split())
+
+
+@pytest.mark.parametrize("v_ls, v_gs, pattern", [
+    # The corners of Taitel & Dukler's horizontal map (AIChE J. 22(1), 1976, Fig. 4, as
+    # redrawn for air and water at 1 atm in a 50 mm pipe; from memory, well inside each
+    # region): slow flows lie stratified, fast gas runs annular, a fast liquid with some
+    # gas slugs, a fast liquid with little gas carries it as dispersed bubbles.
+    (0.01, 0.5, "stratified smooth"), (0.01, 30.0, "annular"), (1.0, 2.0, "intermittent"), (5.0, 0.1, "bubbly"),
+])
+def test_taitel_dukler_map_corners(v_ls, v_gs, pattern):
+    d = 0.05
+    area = math.pi * d ** 2 / 4
+    liquid, gas = v_ls * 998 * area, v_gs * 1.2 * area
+    assert hammer.flow_pattern_td(liquid + gas, gas / (liquid + gas), d, 0.0, rhol=998.0, rhog=1.2, mul=1e-3,
+                                  mug=1.8e-5) == pattern
+
+
+def test_every_new_finding_shows_in_a_sample():
+    from conftest import SAMPLES
+
+    codes = {f.code for s in SAMPLES for f in analysis.analyse(unitfile.load(s)).findings}
+    assert {"return-line-slug-flow", "return-line-pitch", "hydraulic-shock"} <= codes

@@ -86,3 +86,17 @@ def test_a_changed_value_keeps_the_file_s_own_unit_and_shown_precision():
     assert 'return_pressure = "0.5 psig"' in edited
     assert 'fill_head = "30 in"   # to the trap inlet' in edited
     assert 'elevation = "850 ft"   # the plant' in edited and "atmospheric_pressure" not in edited
+
+
+@pytest.mark.parametrize("system", ["us", "si"])
+def test_the_return_line_keys_round_trip(system):
+    from conftest import BASE_UNIT
+
+    text = BASE_UNIT.replace('arrangement = "trap"', 'arrangement = "pump-trap"') + (
+        'return_line = "1 in"\nreturn_length = "100 ft"\nreturn_pitch = "-0.5 %"\nreturn_material = "copper"\n'
+        'return_wall = "0.065 in"\nreturn_rating = "125 psig"\npump_rate = "2500 lb/h"\ncheck_closing_time = "0.4 s"\n')
+    unit = unitfile.parse(text, "line.toml")
+    again = unitfile.parse(unitwriter.dumps(unit, system), "written.toml")
+    a, b = asdict(unit)["drain"], asdict(again)["drain"]
+    _close(a, b)
+    assert b["return_material"] == "copper" and b["check_closing_time"] == pytest.approx(0.4)

@@ -159,7 +159,8 @@ class _Answers:
         """pint's answer for ``key``: shipped, or from the cache file, where it is there
         and of the shape ``valid`` accepts (a file damaged or written by something else is
         not trusted), else computed and kept."""
-        for data in (self._load_shipped(), self._load()):
+        for load in (self._load_shipped, self._load):  # the user's file only on a miss
+            data = load()
             if key in data and valid(data[key]):
                 value = data[key]
                 return tuple(value) if isinstance(value, list) else value

@@ -99,8 +99,16 @@ def dumps(unit: Unit, system: str | None = None) -> str:
                 ("pump_fill_head", dr.pump_fill_head, "length"), ("pump_capacity", dr.pump_capacity, "mass_flow"),
                 ("purge_orifice", dr.purge_orifice, "diameter"), ("purge_rate", dr.purge_rate, "mass_flow"),
                 ("return_line", dr.return_line, "diameter"),
-                ("return_temperature", dr.return_temperature, "temperature")]
+                ("return_temperature", dr.return_temperature, "temperature"),
+                ("return_length", dr.return_length, "length"), ("return_wall", dr.return_wall, "diameter"),
+                ("return_rating", dr.return_rating, "pressure"), ("pump_rate", dr.pump_rate, "mass_flow")]
     out += [f"{key} = {val(value, kind)}" for key, value, kind in optional if value is not None]
+    if dr.return_pitch is not None:
+        out.append(f'return_pitch = "{_g(dr.return_pitch * 100.0)} %"')
+    if dr.return_material != "steel":
+        out.append(f"return_material = {text(dr.return_material)}")
+    if dr.check_closing_time:
+        out.append(f'check_closing_time = "{_g(dr.check_closing_time)} s"')
     for back, flow in dr.pump_table:
         out += ["[[drain.pump_capacity]]", f"back_pressure = {val(back, 'pressure')}",
                 f"flow = {val(flow, 'mass_flow')}"]
