@@ -396,9 +396,9 @@ class ReturnLineFigures:
     slugging : bool
         Intermittent (slug) flow at any of them (Taitel & Dukler).
     stratified_bore, stratified_size : float or None, str or None
-        The smallest Schedule 40 bore, not below the present one, that keeps the flow
-        stratified at every one of those loads, and its nominal size; None where none
-        up to 6 in does.
+        Where it slugs: the smallest Schedule 40 bore, not below the present one, that
+        keeps the flow stratified at every one of those loads, and its nominal size;
+        None where it does not slug, or no line up to 6 in does.
     """
 
     bore: float

@@ -169,19 +169,21 @@ def _return_line(r: Result) -> list[Finding]:
         elif line.pitch is not None and line.pitch < LEAST_PITCH:
             out.append(Finding("return-line-pitch", "info", ("flat",), {"pitch": line.pitch, "least": LEAST_PITCH}))
     sh = r.surge
-    if sh is not None:
-        facts = {"surge": sh.surge, "velocity": sh.velocity, "speed": sh.wave_speed, "peak": sh.peak,
-                 "rating": sh.rating, "slow": sh.slow_closing_time, "share": RATING_SHARE}
-        cause, fix = ("pump", "fix-pump") if sh.basis == "pump-trap" else ("column", "fix-column")
-        if sh.rating is None:
-            out.append(Finding("hydraulic-shock", "info", (cause, "unrated", fix), facts))
-        elif sh.peak >= sh.rating:
-            out.append(Finding("hydraulic-shock", "danger", (cause, "over", fix), facts))
-        elif sh.peak >= RATING_SHARE * sh.rating:
-            out.append(Finding("hydraulic-shock", "warning", (cause, "near", fix), facts))
-        if out and out[-1].code == "hydraulic-shock":
-            slow = ("slow",) if sh.slow_closing_time is not None else ()
-            out[-1] = Finding(out[-1].code, out[-1].severity, out[-1].parts + slow + ("end",), facts)
+    if sh is None:
+        return out
+    if sh.rating is None:
+        severity, level = "info", "unrated"
+    elif sh.peak >= sh.rating:
+        severity, level = "danger", "over"
+    elif sh.peak >= RATING_SHARE * sh.rating:
+        severity, level = "warning", "near"
+    else:
+        return out
+    cause, fix = ("pump", "fix-pump") if sh.basis == "pump-trap" else ("column", "fix-column")
+    slow = ("slow",) if sh.slow_closing_time is not None else ()
+    out.append(Finding("hydraulic-shock", severity, (cause, level, fix, *slow, "end"),
+                       {"surge": sh.surge, "velocity": sh.velocity, "speed": sh.wave_speed, "peak": sh.peak,
+                        "rating": sh.rating, "slow": sh.slow_closing_time, "share": RATING_SHARE}))
     return out
 
 

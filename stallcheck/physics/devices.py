@@ -343,8 +343,8 @@ def _line_points(u: Unit, bore: float, angle: float, states) -> tuple[list[LineP
 def return_line_figures(u: Unit, design_flow: float, design_pressure: float, stall: StallPoint,
                         minimum_flow: float, minimum_pressure: float) -> ReturnLineFigures | None:
     """The flow pattern in the line from the trap at full load, at the stall point and
-    at the minimum load, where its bore is given, and the smallest standard bore that
-    keeps it stratified at all of them.
+    at the minimum load, where its bore is given, and, where it slugs, the smallest
+    standard bore that keeps it stratified at all of them.
 
     Parameters
     ----------
@@ -366,7 +366,7 @@ def return_line_figures(u: Unit, design_flow: float, design_pressure: float, sta
     angle = -math.degrees(math.atan(dr.return_pitch)) if dr.return_pitch is not None else 0.0
     points, slugging = _line_points(u, dr.return_line, angle, states)
     bore = size = None
-    for name, inside, _ in hammer.SCHEDULE_40:
+    for name, inside, _ in hammer.SCHEDULE_40 if slugging else ():
         if inside + 1e-9 < dr.return_line:
             continue
         # judged at a bore 0.5 % smaller: the bore is printed to three figures, and a

@@ -18,6 +18,7 @@ from __future__ import annotations
 
 import math
 from dataclasses import dataclass
+from functools import lru_cache
 
 from stallcheck.physics import properties
 from stallcheck.physics.constants import GRAVITY
@@ -118,6 +119,7 @@ def flow_pattern(condensate: float, fraction: float, pressure: float, bore: floa
     return Pattern(td, mga, m * x / (rho_g * area), m * (1.0 - x) / (rho_l * area))
 
 
+@lru_cache(maxsize=1)
 def _maps():
     """The two maps from ``fluids.two_phase``. Taitel & Dukler's curves are B-splines
     that ``fluids`` evaluates with SciPy's ``splev`` on CPython, whose import costs

@@ -150,8 +150,11 @@ def width_for(stream: TextIO, width: int | None = None) -> int:
     at most :data:`MAX_WIDTH`."""
     if width is not None:
         return width
-    columns = shutil.get_terminal_size((80, 24)).columns if _is_terminal(stream) else \
-        int(os.environ.get("COLUMNS", "80") or 80) if os.environ.get("COLUMNS", "").isdigit() else 80
+    if _is_terminal(stream):
+        columns = shutil.get_terminal_size((80, 24)).columns
+    else:
+        given = os.environ.get("COLUMNS", "")
+        columns = int(given) if given.isdigit() else 80
     return min(columns, MAX_WIDTH)
 
 
