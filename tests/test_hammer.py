@@ -264,3 +264,32 @@ def test_any_return_line_analyses_and_holds_its_invariants(d, line):
         assert sh.peak == pytest.approx(sh.working + sh.surge, rel=1e-12)
     for f in r.findings:
         assert words.finding(f, r, "si") and words.finding(f, r, "us")
+
+
+def test_the_standard_wall_is_that_of_the_nearest_schedule_40_bore():
+    # ASME B36.10M Schedule 40 (from memory): 2 in, bore 2.067 in, wall 0.154 in;
+    # 1/2 in, bore 0.622 in, wall 0.109 in.
+    assert hammer.standard_wall(2.0 * 0.0254) == pytest.approx(0.154 * 0.0254)
+    assert hammer.standard_wall(0.6 * 0.0254) == pytest.approx(0.109 * 0.0254)
+
+
+def test_a_short_fall_and_no_fall():
+    # √(2 g h) for half a metre (hand); a negative height is no fall at all.
+    assert hammer.falling_velocity(0.5) == pytest.approx(math.sqrt(2 * 9.80665 * 0.5), rel=1e-12)
+    assert hammer.falling_velocity(-1.0) == 0.0
+
+
+def test_the_line_s_pattern_is_both_maps_with_saturated_properties():
+    # flow_pattern feeds the maps saturated water and steam at the line's pressure
+    # (IF97 via iapws for the densities) and reports what each map says.
+    from fluids.two_phase import Mandhane_Gregory_Aziz_regime
+
+    p = 101325.0
+    liquid, steam = IAPWS97(P=p / 1e6, x=0), IAPWS97(P=p / 1e6, x=1)
+    got = hammer.flow_pattern(0.25, 0.007, p, 0.025, 0.0)
+    assert got.taitel_dukler == hammer.flow_pattern_td(0.25, 0.007, 0.025, 0.0, rhol=liquid.rho, rhog=steam.rho,
+                                                       mul=liquid.mu, mug=steam.mu)
+    assert got.mandhane == Mandhane_Gregory_Aziz_regime(m=0.25, x=0.007, rhol=liquid.rho, rhog=steam.rho,
+                                                        mul=liquid.mu, mug=steam.mu, sigma=0.0589, D=0.025)[0]
+    assert got.slugging is (got.taitel_dukler == "intermittent")
+    assert hammer.flow_pattern(0.25, 0.0, p, 0.025, 0.0).taitel_dukler == hammer.LIQUID

@@ -56,19 +56,15 @@ class Pattern:
     Attributes
     ----------
     taitel_dukler : str
-        ``annular``, ``bubbly``, ``intermittent``, ``stratified wavy`` or
-        ``stratified smooth``.
+        ``annular``, ``bubbly``, ``intermittent``, ``stratified wavy``,
+        ``stratified smooth``, or :data:`LIQUID` where nothing flashes.
     mandhane : str
         ``elongated bubble``, ``stratified``, ``annular mist``, ``slug``,
-        ``dispersed bubble`` or ``wave``.
-    gas_velocity, liquid_velocity : float
-        Superficial velocities of the flash steam and the condensate. [m/s]
+        ``dispersed bubble``, ``wave``, or :data:`LIQUID`.
     """
 
     taitel_dukler: str
     mandhane: str
-    gas_velocity: float
-    liquid_velocity: float
 
     @property
     def slugging(self) -> bool:
@@ -104,19 +100,18 @@ def flow_pattern(condensate: float, fraction: float, pressure: float, bore: floa
        gas-liquid flow in horizontal pipes. Int. J. Multiphase Flow 1, 537-553.
     .. [3] Bell, C. and contributors, ``fluids``: ``fluids.two_phase``.
     """
-    Mandhane_Gregory_Aziz_regime, Taitel_Dukler_regime = _maps()
-    area = math.pi * bore ** 2 / 4.0
     if fraction <= NO_FLASH or condensate <= 0:
-        rho = float(properties.liquid_density(pressure))
-        return Pattern(LIQUID, LIQUID, 0.0, max(condensate, 0.0) / (rho * area))
+        return Pattern(LIQUID, LIQUID)
+    Mandhane_Gregory_Aziz_regime, Taitel_Dukler_regime = _maps()
     x = min(fraction, 1.0 - 1e-6)
-    m = condensate
     rho_l, rho_g = float(properties.liquid_density(pressure)), float(properties.vapour_density(pressure))
     mu_l, mu_g = float(properties.liquid_viscosity(pressure)), float(properties.vapour_viscosity(pressure))
     sigma = float(properties.surface_tension(pressure))
-    td = Taitel_Dukler_regime(m=m, x=x, rhol=rho_l, rhog=rho_g, mul=mu_l, mug=mu_g, D=bore, angle=angle)[0]
-    mga = Mandhane_Gregory_Aziz_regime(m=m, x=x, rhol=rho_l, rhog=rho_g, mul=mu_l, mug=mu_g, sigma=sigma, D=bore)[0]
-    return Pattern(td, mga, m * x / (rho_g * area), m * (1.0 - x) / (rho_l * area))
+    td = Taitel_Dukler_regime(m=condensate, x=x, rhol=rho_l, rhog=rho_g, mul=mu_l, mug=mu_g, D=bore,
+                              angle=angle)[0]
+    mga = Mandhane_Gregory_Aziz_regime(m=condensate, x=x, rhol=rho_l, rhog=rho_g, mul=mu_l, mug=mu_g,
+                                       sigma=sigma, D=bore)[0]
+    return Pattern(td, mga)
 
 
 @lru_cache(maxsize=1)
@@ -189,8 +184,10 @@ def surge(density: float, speed: float, velocity_change: float, length: float, c
        Systems, 2nd ed., section 2.3.
     """
     sudden = joukowsky(density, speed, velocity_change)
-    if closing_time <= 2.0 * length / speed:
+    if closing_time <= 0.0:
         return sudden
+    # Michaud's figure reaches Joukowsky's at t_c = 2L/a and exceeds it below: the
+    # smaller of the two is the rise either side of the round trip
     return min(sudden, 2.0 * density * length * velocity_change / closing_time)
 
 
