@@ -292,4 +292,7 @@ def test_the_line_s_pattern_is_both_maps_with_saturated_properties():
     assert got.mandhane == Mandhane_Gregory_Aziz_regime(m=0.25, x=0.007, rhol=liquid.rho, rhog=steam.rho,
                                                         mul=liquid.mu, mug=steam.mu, sigma=0.0589, D=0.025)[0]
     assert got.slugging is (got.taitel_dukler == "intermittent")
-    assert hammer.flow_pattern(0.25, 0.0, p, 0.025, 0.0).taitel_dukler == hammer.LIQUID
+    # no flash, or no flow: the line runs liquid (or empty) by both accounts
+    for condensate, fraction in ((0.25, 0.0), (0.0, 0.05)):
+        none = hammer.flow_pattern(condensate, fraction, p, 0.025, 0.0)
+        assert (none.taitel_dukler, none.mandhane, none.slugging) == (hammer.LIQUID, hammer.LIQUID, False)
