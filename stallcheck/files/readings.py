@@ -11,7 +11,7 @@ from dataclasses import dataclass
 
 from stallcheck.errors import InputError
 from stallcheck.files import quantities as q
-from stallcheck.files.unitfile import COLDEST_AIR, check_pressure_range
+from stallcheck.files.ranges import COLDEST_AIR, check_pressure_range
 from stallcheck.inputs import Unit
 
 #: When the noise happens.

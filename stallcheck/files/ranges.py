@@ -1,0 +1,40 @@
+"""The physical ranges every reader of what people type holds values to: pressures of
+steam and condensate between the triple point and 90 % of the critical pressure,
+entering air no colder than any outdoor air, and quantities that must be positive.
+Shared by unit files, CSV tables and gauge readings."""
+
+from __future__ import annotations
+
+from stallcheck.errors import InputError
+
+#: Critical pressure of water [Pa] (IAPWS-IF97): no saturated steam above it.
+CRITICAL_PRESSURE = 22.064e6
+
+
+#: Lowest absolute pressure of any steam or condensate state [Pa]: the triple point of
+#: water, 611.657 Pa (IAPWS-IF97).
+TRIPLE_POINT_PRESSURE = 611.657
+#: Coldest entering air taken [K]: -70 °C, below the coldest outdoor air where plant is
+#: built (from memory: about -68 °C on record in inhabited places).
+COLDEST_AIR = 203.15
+
+
+def check_pressure_range(key: str, value: float, text) -> None:
+    """A pressure of steam or condensate: above absolute zero, at or above the triple
+    point of water, and below 90 % of its critical pressure (IAPWS-IF97)."""
+    if value <= 0:
+        raise InputError(key, f"\"{text}\" is at or below absolute zero pressure; "
+                              "check the gauge/absolute spelling and the sign.")
+    if value < TRIPLE_POINT_PRESSURE:
+        raise InputError(key, f"\"{text}\" is below the triple point of water (0.61 kPa(abs), 0.089 psia): no "
+                              f"steam or condensate exists there. Check the gauge/absolute spelling and the sign.")
+    if value > 0.9 * CRITICAL_PRESSURE:
+        raise InputError(key, f"\"{text}\" is near or above the critical pressure of water (22.06 MPa, "
+                              f"IAPWS-IF97); accepted: below 19.9 MPa. Check the units.")
+
+
+def require_positive(key: str, value: float, text: str = "") -> float:
+    """``value``, where it is above zero; else the error naming ``key``."""
+    if value <= 0:
+        raise InputError(key, f"must be greater than zero{text}.")
+    return value
