@@ -191,10 +191,10 @@ FINDINGS: dict[str, dict[str, str]] = {
     "hydraulic-shock": {
         "pump": "When the pump-trap's discharge ({velocity:velocity}) is stopped by its check valve, the column "
                 "raises the pressure by {surge:~differential} (Joukowsky, with a wave speed of "
-                "{speed:velocity}), to {peak:pressure}",
+                "{speed:~velocity}), to {peak:pressure}",
         "column": "When the trap shuts, the column in the lift after it can fall back at up to "
                   "{velocity:velocity} (free fall, an upper bound) and stop on the trap, raising the pressure "
-                  "by up to {surge:~differential} (Joukowsky, wave speed {speed:velocity}), to {peak:pressure}",
+                  "by up to {surge:~differential} (Joukowsky, wave speed {speed:~velocity}), to {peak:pressure}",
         "unrated": "; give drain.return_rating to compare it with the line's rating. ",
         "over": ", above the line's rating of {rating:pressure}. ",
         "near": ", above {share:.0%} of the line's rating of {rating:pressure}. ",
