@@ -217,7 +217,8 @@ def _examples(default: int) -> int:
 
 from hypothesis import given, settings  # noqa: E402
 from hypothesis import strategies as st  # noqa: E402
-from test_properties_of_units import si_text, units as generated_units  # noqa: E402
+from test_properties_of_units import si_text  # noqa: E402
+from test_properties_of_units import units as generated_units
 
 LINES = st.fixed_dictionaries({
     "bore": st.floats(5, 200), "length": st.floats(1, 500), "pitch": st.floats(-5, 5),

@@ -91,6 +91,10 @@ def test_the_folders_keep_the_pipeline_in_one_direction():
         bad = {m for m in _stallcheck_imports(path)
                if m.startswith("stallcheck.physics") and not m.startswith("stallcheck.physics.constants")}
         assert not bad, (path.name, bad)
+    # the analysis decides and measures; no word of it comes from a presenter
+    for path in (PACKAGE / "analysis").glob("*.py"):
+        bad = {m for m in _stallcheck_imports(path) if m.startswith("stallcheck.render")}
+        assert not bad, (path.name, bad)
     # the command line computes nothing itself
     bad = {m for m in _stallcheck_imports(PACKAGE / "cli.py") if m.startswith("stallcheck.physics")}
     assert not bad

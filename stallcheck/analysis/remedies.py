@@ -88,6 +88,10 @@ def solve(b, p_min, adequate, rounders: list[Rounder]) -> list[tuple[Remedy, ...
     dp = target + b.fill - b.back
     fill = np.maximum((b.back + b.trap_min - target) / (rho * GRAVITY), 0.0)
     design_t = _design_temperatures(b)
+    # With a vacuum breaker that drains the coil by gravity (with the margin), the coil's
+    # own pressure no longer matters: any design pressure does.
+    arrangement = np.array([u.drain.arrangement for u in b.units])
+    breaker_drains = (arrangement == "trap-vacuum-breaker") & (b.threshold <= b.atm - drainage.GRAVITY_MARGIN - MARGIN)
     out = []
     for i, u in enumerate(b.units):
         if u.drain.arrangement == "pump-trap":
@@ -96,7 +100,7 @@ def solve(b, p_min, adequate, rounders: list[Rounder]) -> list[tuple[Remedy, ...
         rule = _Limits(u, rounders[i], bool(adequate[i]))
         out.append((rule.lift(float(lift[i])), rule.return_pressure(float(r[i])),
                     rule.trap(float(dp[i]), float(b.back[i] - b.fill[i])), rule.fill(float(fill[i])),
-                    rule.design(design_t[i], float(b.threshold[i]), float(target[i]) + MARGIN > p_min[i])))
+                    rule.design(design_t[i], float(b.threshold[i]), bool(breaker_drains[i]))))
     return out
 
 
@@ -187,11 +191,11 @@ class _Limits:
         return Remedy(key, "length", dr.fill_head, value, "change", "change", True,
                       {"more": value - dr.fill_head})
 
-    def design(self, design, threshold: float, breaker_decides: bool) -> Remedy:
+    def design(self, design, threshold: float, breaker_drains: bool) -> Remedy:
         unit = self.unit
         current = unit.design.steam_pressure
         key = "design.steam_pressure"
-        if breaker_decides and self.adequate:
+        if breaker_drains and self.adequate:
             return Remedy(key, "pressure", current, None, "breaker", "any", False)
         if design == "any":
             return Remedy(key, "pressure", current, None, "any", "any", False, {"threshold": threshold})
