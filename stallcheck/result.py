@@ -455,6 +455,12 @@ class SurgeFigures:
     rating: float | None
     slow_closing_time: float | None
 
+    @property
+    def slowed(self) -> bool:
+        """True where the closure outlasts the wave's round trip, so the rise is below
+        Joukowsky's ρ·a·v."""
+        return self.surge < self.density * self.wave_speed * self.velocity * (1 - 1e-12)
+
 
 @dataclass(frozen=True)
 class Remedy:

@@ -139,6 +139,7 @@ def test_the_closing_time_printed_holds_the_surge_when_applied():
     again = analysis.analyse(_unit(extra + f'check_closing_time = "{seconds} s"\n', lift="10 ft",
                                    arrangement="pump-trap"))
     assert again.surge.peak < 0.8 * again.surge.rating
+    assert again.surge.slowed and not r.surge.slowed  # Michaud's rise, below Joukowsky's
     assert "hydraulic-shock" not in {f.code for f in again.findings}
 
 
