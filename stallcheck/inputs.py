@@ -7,7 +7,7 @@ temperatures [K], lengths [m], mass flows [kg/s], volume flows [m³/s].
 
 from __future__ import annotations
 
-from dataclasses import dataclass, field, replace
+from dataclasses import field, replace
 
 MEDIA = ("air", "water", "ethylene-glycol", "propylene-glycol")
 METHODS = ("ntu", "mean-temperature")
@@ -16,8 +16,10 @@ ARRANGEMENTS = ("trap", "trap-vacuum-breaker", "pump-trap", "constant-purge")
 TRAPS = ("float-thermostatic", "inverted-bucket", "thermodynamic", "thermostatic", "bimetallic")
 CHARACTERISTICS = ("equal-percentage", "linear")
 
+from stallcheck.record import record
 
-@dataclass(frozen=True)
+
+@record
 class Site:
     """Where the unit is.
 
@@ -45,7 +47,7 @@ class Site:
     currency: str = ""
 
 
-@dataclass(frozen=True)
+@record
 class Design:
     """The selection point: full load.
 
@@ -82,7 +84,7 @@ class Design:
     method: str
 
 
-@dataclass(frozen=True)
+@record
 class Valve:
     """The modulating steam control valve.
 
@@ -104,7 +106,7 @@ class Valve:
     xt: float
 
 
-@dataclass(frozen=True)
+@record
 class LoadBin:
     """Operating hours at one entering temperature [K] or one load fraction [-]."""
 
@@ -113,7 +115,7 @@ class LoadBin:
     load: float | None = None
 
 
-@dataclass(frozen=True)
+@record
 class Load:
     """How the load moves.
 
@@ -131,7 +133,7 @@ class Load:
     bins: tuple[LoadBin, ...] = ()
 
 
-@dataclass(frozen=True)
+@record
 class CapacityPoint:
     """One row of a drain device's rated capacity: differential [Pa], flow [kg/s]."""
 
@@ -139,7 +141,7 @@ class CapacityPoint:
     flow: float
 
 
-@dataclass(frozen=True)
+@record
 class Drain:
     """What drains the coil.
 
@@ -224,7 +226,7 @@ class Drain:
     check_closing_time: float = 0.0
 
 
-@dataclass(frozen=True)
+@record
 class Geometry:
     """Coil and piping layout; None where the file does not say."""
 
@@ -238,7 +240,7 @@ class Geometry:
     drip_before_valve: bool | None = None
 
 
-@dataclass(frozen=True)
+@record
 class Unit:
     """One steam-heated unit, validated.
 

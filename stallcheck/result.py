@@ -7,7 +7,7 @@ prints or formats.
 
 from __future__ import annotations
 
-from dataclasses import dataclass, field
+from dataclasses import field
 from typing import Any, Mapping
 
 import numpy as np
@@ -21,8 +21,10 @@ CAUTIONS = (
     "(water-hammering) system safe - isolate, drain and cool it - before studying it.",
 )
 
+from stallcheck.record import record
 
-@dataclass(frozen=True)
+
+@record
 class Finding:
     """One thing the user should know, as facts: the words (what, why, and what to
     do) are made from them by :func:`stallcheck.render.words.finding`.
@@ -46,7 +48,7 @@ class Finding:
     facts: Mapping[str, Any] = field(default_factory=dict)
 
 
-@dataclass(frozen=True)
+@record
 class DesignPoint:
     """Full load.
 
@@ -68,7 +70,7 @@ class DesignPoint:
     medium_cp: float
 
 
-@dataclass(frozen=True)
+@record
 class StallPoint:
     """Where the trap stops discharging.
 
@@ -99,7 +101,7 @@ class StallPoint:
     in_range: bool = False
 
 
-@dataclass(frozen=True)
+@record
 class Points:
     """The unit across its load range, as arrays of equal length.
 
@@ -127,7 +129,7 @@ class Points:
     valve_opening: np.ndarray | None = None
 
 
-@dataclass(frozen=True)
+@record
 class Drainage:
     """Installed against required arrangement, and why (as codes and SI facts; the
     words are made by :func:`stallcheck.render.words.drainage_reasons`).
@@ -156,7 +158,7 @@ class Drainage:
     facts: Mapping[str, Any] = field(default_factory=dict)
 
 
-@dataclass(frozen=True)
+@record
 class ValveResult:
     """Control valve figures.
 
@@ -190,7 +192,7 @@ class ValveResult:
     characteristic: str
 
 
-@dataclass(frozen=True)
+@record
 class TrapFigures:
     """What the trap must pass, what it can, and where it falls short.
 
@@ -250,7 +252,7 @@ class TrapFigures:
         return self.installed_capacity >= self.required_capacity * (1 - 1e-9)
 
 
-@dataclass(frozen=True)
+@record
 class PumpTrapFigures:
     """A pump-trap's duty, where one is installed or required.
 
@@ -292,7 +294,7 @@ class PumpTrapFigures:
     capacity_basis: str = ""
 
 
-@dataclass(frozen=True)
+@record
 class PurgeFigures:
     """A constant purge's steam and cost.
 
@@ -325,7 +327,7 @@ class PurgeFigures:
     currency: str
 
 
-@dataclass(frozen=True)
+@record
 class FlashFigures:
     """Flash steam at the trap outlet at full load.
 
@@ -354,7 +356,7 @@ class FlashFigures:
 PATTERNS = ("intermittent", "annular", "bubbly", "stratified wavy", "stratified smooth", "liquid only")
 
 
-@dataclass(frozen=True)
+@record
 class LinePoint:
     """The flow in the line from the trap at one load.
 
@@ -381,7 +383,7 @@ class LinePoint:
     slugging: bool
 
 
-@dataclass(frozen=True)
+@record
 class ReturnLineFigures:
     """The two-phase flow in the line from the trap, where its bore is given.
 
@@ -414,7 +416,7 @@ class ReturnLineFigures:
         return min(self.points, key=lambda p: PATTERNS.index(p.taitel_dukler))
 
 
-@dataclass(frozen=True)
+@record
 class SurgeFigures:
     """Hydraulic shock where a moving column of condensate is stopped.
 
@@ -462,7 +464,7 @@ class SurgeFigures:
         return self.surge < self.density * self.wave_speed * self.velocity * (1 - 1e-12)
 
 
-@dataclass(frozen=True)
+@record
 class Remedy:
     """One single change that lets the installed drainage drain the unit, or, where it
     already does, how far one value can go before it stops doing so.
@@ -505,7 +507,7 @@ class Remedy:
     facts: Mapping[str, Any] = field(default_factory=dict)
 
 
-@dataclass(frozen=True)
+@record
 class Result:
     """Everything ``check`` reports about one unit.
 

@@ -11,15 +11,16 @@ a supply above the coil pressure) as it is given.
 from __future__ import annotations
 
 import re
-from dataclasses import dataclass, field
+from dataclasses import field
 from typing import Callable
 
 from stallcheck.errors import InputError
 from stallcheck.files import quantities as q
 from stallcheck.inputs import ARRANGEMENTS, CHARACTERISTICS, MEDIA, TRAPS
+from stallcheck.record import record
 
 
-@dataclass(frozen=True)
+@record
 class Question:
     """One value the unit needs.
 

@@ -3,6 +3,8 @@ Korteweg's wave speed, and the flow-pattern maps, checked against hand arithmeti
 IAPWS-95 (the `iapws` package) and the maps as `fluids` publishes them."""
 
 import math
+import subprocess
+import sys
 
 import pytest
 from conftest import BASE_UNIT
@@ -83,6 +85,22 @@ def test_taitel_dukler_evaluated_without_scipy_agrees_with_fluids_own():
     without = [hammer.flow_pattern_td(m, x, d, a, **kwargs) for m, x, d, a in cases]
     assert with_scipy == without
     assert len(set(without)) >= 4
+
+
+def test_the_maps_load_without_the_whole_fluids_package_and_leave_it_importable():
+    # In a fresh interpreter: the maps' modules only, no `fluids` package left half
+    # made, and a later `import fluids` gives the package whole, with the same maps.
+    code = ("import sys\nfrom stallcheck.physics import hammer\nmga, td = hammer._maps()\n"
+            "print('fluids' in sys.modules, 'fluids.pump' in sys.modules)\n"
+            "import fluids\nprint(fluids.two_phase.Taitel_Dukler_regime is td, callable(fluids.friction_factor), "
+            "'fluids.pump' in sys.modules)\n"
+            "print(hammer.flow_pattern_td(0.2, 0.05, 0.025, 0.0, 958.0, 0.6, 2.8e-4, 1.2e-5))")
+    out = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True, check=True).stdout.split("\n")
+    assert out[:2] == ["False False", "True True True"]
+    from fluids.two_phase import Taitel_Dukler_regime
+
+    assert out[2] == Taitel_Dukler_regime(m=0.2, x=0.05, D=0.025, angle=0.0, rhol=958.0, rhog=0.6, mul=2.8e-4,
+                                          mug=1.2e-5)[0]
 
 
 @pytest.mark.parametrize("v_ls, v_gs, pattern", [

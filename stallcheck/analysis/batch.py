@@ -13,8 +13,6 @@ gathered unit by unit; no words are built here (:mod:`stallcheck.render.words`).
 
 from __future__ import annotations
 
-from dataclasses import dataclass
-
 import numpy as np
 
 from stallcheck.analysis import findings, remedies
@@ -25,6 +23,7 @@ from stallcheck.physics import coil as coilmod
 from stallcheck.physics import devices, drainage, properties
 from stallcheck.physics import valve as valvemod
 from stallcheck.physics.solve import illinois
+from stallcheck.record import record
 from stallcheck.result import DesignPoint, Drainage, Points, Result, StallPoint, ValveResult
 
 #: Specific heat of air [J/(kg·K)] (the unit-file conventions).
@@ -167,7 +166,7 @@ def _freezing(design) -> float:
 # --- the batch ------------------------------------------------------------------------
 
 
-@dataclass
+@record(frozen=False)
 class Batch:
     """Units as columns: one array element per unit, SI. Built by :func:`columns`."""
 

@@ -12,8 +12,6 @@ symptoms on a different unit rank differently.
 
 from __future__ import annotations
 
-from dataclasses import dataclass
-
 import numpy as np
 
 from stallcheck import analysis
@@ -27,6 +25,7 @@ from stallcheck.physics import coil as coilmod
 from stallcheck.physics import properties
 from stallcheck.physics.constants import GRAVITY
 from stallcheck.physics.devices import MOTIVE_MARGIN, TrapCapacity
+from stallcheck.record import record
 from stallcheck.result import Result
 
 #: Gauge and model agree within the larger of this [Pa] (about 1.5 psi) ...
@@ -35,7 +34,7 @@ AGREE_ABSOLUTE = 10e3
 AGREE_RELATIVE = 0.10
 #: An outlet this far below the set point is "not made" [K].
 OUTLET_SHORTFALL = 3.0
-@dataclass(frozen=True)
+@record
 class Cause:
     """One likely cause and its weight on each fact."""
 
@@ -109,7 +108,7 @@ BREAKER_VACUUM = 3386.389
 
 
 
-@dataclass(frozen=True)
+@record
 class RankedCause:
     """A cause with its score and the facts for and against it (the codes of
     ``Diagnosis.facts``, in the order of the cause's weights)."""
@@ -120,7 +119,7 @@ class RankedCause:
     against: tuple[str, ...]
 
 
-@dataclass(frozen=True)
+@record
 class Diagnosis:
     """The operating point the readings imply, and the ranked causes.
 

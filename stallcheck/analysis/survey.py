@@ -9,13 +9,13 @@ memory held does not grow with the number of units beyond the summaries.
 from __future__ import annotations
 
 import os
-from dataclasses import dataclass
 from pathlib import Path
 from typing import Callable, Iterable, Iterator
 
 from stallcheck import analysis
 from stallcheck.errors import InputError, StallcheckError
 from stallcheck.files import csvunits, unitfile
+from stallcheck.record import record
 from stallcheck.result import SEVERITIES, Result
 
 #: Units analysed together: enough to spread the steam-table calls, few enough to keep
@@ -23,7 +23,7 @@ from stallcheck.result import SEVERITIES, Result
 BATCH = 500
 
 
-@dataclass(frozen=True)
+@record
 class Summary:
     """One unit's line in the survey table (SI units, as in the result).
 
@@ -86,7 +86,7 @@ def _worst_pattern(r: Result) -> str | None:
     return None if r.return_line is None else r.return_line.worst.taitel_dukler
 
 
-@dataclass(frozen=True)
+@record
 class Failure:
     """A unit that could not be read or analysed, with the message naming its key."""
 

@@ -22,12 +22,12 @@ import json
 import math
 import os
 import re
-from dataclasses import dataclass
 from functools import lru_cache
 from pathlib import Path
 
 from stallcheck.errors import InputError
 from stallcheck.physics.constants import GRAVITY, STANDARD_AIR_DENSITY, STANDARD_ATMOSPHERE  # noqa: F401 (re-exported)
+from stallcheck.record import record
 
 # Pressure spellings. Gauge and absolute are separate units in the registry so the
 # parsed unit tells which was written.
@@ -190,7 +190,7 @@ class _Answers:
 _answers = _Answers()
 
 
-@dataclass(frozen=True)
+@record
 class Pressure:
     """A pressure as written: its value in Pa and whether it was gauge.
 
@@ -481,7 +481,7 @@ def fraction(key: str, text) -> float:
     return _magnitude(key, text, q, "dimensionless")
 
 
-@dataclass(frozen=True)
+@record
 class Flow:
     """A flow as written: mass [kg/s] or volume [m³/s]."""
 

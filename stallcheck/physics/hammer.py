@@ -17,11 +17,11 @@ SI throughout: pressures [Pa], lengths [m], velocities [m/s], flows [kg/s].
 from __future__ import annotations
 
 import math
-from dataclasses import dataclass
 from functools import lru_cache
 
 from stallcheck.physics import properties
 from stallcheck.physics.constants import GRAVITY
+from stallcheck.record import record
 
 #: Young's modulus of pipe materials [Pa]: carbon steel 200 GPa, copper 117 GPa
 #: (Wylie & Streeter, *Fluid Transients in Systems*, 1993, Table 2.1; from memory).
@@ -49,7 +49,7 @@ def standard_wall(bore: float) -> float:
     return min(SCHEDULE_40, key=lambda row: abs(row[1] - bore))[2]
 
 
-@dataclass(frozen=True)
+@record
 class Pattern:
     """The two-phase flow pattern in a line at one load.
 
@@ -120,11 +120,26 @@ def _maps():
     that ``fluids`` evaluates with SciPy's ``splev`` on CPython, whose import costs
     about 0.4 s, more than a whole check; ``fluids`` ships the same evaluation in pure
     Python (``fluids.numerics.py_splev``, what it uses on PyPy), taken here instead.
-    ``tests/test_hammer.py`` holds the two to the same patterns over the maps."""
-    from fluids import two_phase
-    from fluids.numerics import py_splev
+    ``tests/test_hammer.py`` holds the two to the same patterns over the maps.
 
-    two_phase.splev = py_splev
+    ``fluids``'s package ``__init__`` imports every one of its modules (about 17 ms
+    more than the five the maps need), so the maps' modules are loaded under a package
+    shell that is not executed, and the shell is then dropped from ``sys.modules``: a
+    later ``import fluids`` runs the package as usual and finds these modules loaded.
+    """
+    import importlib
+    import importlib.util
+    import sys
+
+    if "fluids" in sys.modules:
+        two_phase = importlib.import_module("fluids.two_phase")
+    else:
+        sys.modules["fluids"] = importlib.util.module_from_spec(importlib.util.find_spec("fluids"))
+        try:
+            two_phase = importlib.import_module("fluids.two_phase")
+        finally:
+            del sys.modules["fluids"]
+    two_phase.splev = sys.modules["fluids.numerics"].py_splev
     return two_phase.Mandhane_Gregory_Aziz_regime, two_phase.Taitel_Dukler_regime
 
 

@@ -4,10 +4,10 @@
 from __future__ import annotations
 
 import json
-from dataclasses import dataclass
 
 from stallcheck.analysis.diagnosis import Diagnosis
 from stallcheck.files import quantities as q
+from stallcheck.record import record
 from stallcheck.render import json as json_out
 from stallcheck.render.page import BLANK, Para, bullets, runs
 from stallcheck.render.page import heading as _heading
@@ -205,7 +205,7 @@ def drain_context(r: Result) -> dict:
     return {"drain_advice": drain, "freeze_advice": freeze, "required_words": required}
 
 
-@dataclass(frozen=True)
+@record
 class Said:
     """A ranked cause in words."""
 

@@ -21,7 +21,6 @@ import os
 import re
 import shutil
 import sys
-from dataclasses import dataclass
 from typing import Iterable, TextIO
 
 #: A run of text and its style (a rich style string, or None for none).
@@ -32,8 +31,10 @@ MAX_WIDTH = 100
 
 _WORD = re.compile(r"\s*\S+\s*")
 
+from stallcheck.record import record
 
-@dataclass(frozen=True)
+
+@record
 class Para:
     """Text wrapped with every line indented ``indent`` columns; the first line starts
     with ``prefix`` instead of the indent where one is given (a bullet, a number, a
@@ -44,7 +45,7 @@ class Para:
     prefix: tuple[Run, ...] = ()
 
 
-@dataclass(frozen=True)
+@record
 class Pre:
     """Lines printed as they are (each a sequence of runs), never wrapped."""
 

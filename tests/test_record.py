@@ -1,0 +1,82 @@
+"""``stallcheck.record.record`` against the standard library's ``dataclasses.dataclass``
+(the reference): the same class body decorated by each must behave the same."""
+
+from __future__ import annotations
+
+import dataclasses
+
+import pytest
+
+from stallcheck import inputs, result
+from stallcheck.record import record
+
+
+def _body():
+    class Point:
+        name: str
+        x: float
+        y: float = 0.0
+        note: str = dataclasses.field(default="", compare=False)
+        secret: int = dataclasses.field(default=0, repr=False)
+        tags: tuple = dataclasses.field(default_factory=tuple)
+
+    return Point
+
+
+def _pair(**options):
+    ours = record(_body(), **options)
+    theirs = dataclasses.dataclass(_body(), frozen=options.get("frozen", True))
+    return ours, theirs
+
+
+@pytest.mark.parametrize("frozen", [True, False])
+def test_repr_equality_and_hash_as_the_standard_library_makes_them(frozen):
+    ours, theirs = _pair(frozen=frozen)
+    cases = [("a", 1.0), ("a", 1.0, 2.0, "n"), ("b", 1.0, 0.0, "m", 7, ("t",))]
+    for args in cases:
+        a, b = ours(*args), theirs(*args)
+        assert repr(a) == repr(b)
+        assert ours(*args) == a and theirs(*args) == b
+        if frozen:
+            assert hash(a) == hash(b) == hash(ours(*args))
+        else:
+            with pytest.raises(TypeError):
+                hash(a)
+            with pytest.raises(TypeError):
+                hash(b)
+    # a field left out of the comparison, and one that takes part
+    assert ours("a", 1.0, note="x") == ours("a", 1.0, note="y")
+    assert theirs("a", 1.0, note="x") == theirs("a", 1.0, note="y")
+    assert ours("a", 1.0) != ours("a", 2.0)
+    # another class with the same fields is not equal (as the standard library has it)
+    assert ours("a", 1.0) != theirs("a", 1.0)
+    assert ours("a", 1.0).__eq__(theirs("a", 1.0)) is NotImplemented
+
+
+def test_frozen_instances_refuse_changes_and_the_dataclass_functions_work():
+    ours, _ = _pair()
+    a = ours("a", 1.0)
+    with pytest.raises(dataclasses.FrozenInstanceError):
+        a.x = 2.0
+    with pytest.raises(dataclasses.FrozenInstanceError):
+        del a.x
+    assert dataclasses.is_dataclass(a)
+    assert [f.name for f in dataclasses.fields(a)] == ["name", "x", "y", "note", "secret", "tags"]
+    assert dataclasses.replace(a, y=3.0) == ours("a", 1.0, 3.0)
+    assert dataclasses.asdict(a) == {"name": "a", "x": 1.0, "y": 0.0, "note": "", "secret": 0, "tags": ()}
+    mutable, _ = _pair(frozen=False)
+    m = mutable("a", 1.0)
+    m.x = 2.0
+    assert m == mutable("a", 2.0)
+
+
+def test_the_project_classes_are_records():
+    # The inputs and the result compare and print by value as before.
+    site = inputs.Site(atmospheric_pressure=101325.0, basis="standard")
+    assert site == inputs.Site(atmospheric_pressure=101325.0, basis="standard")
+    assert site != inputs.Site(atmospheric_pressure=100000.0, basis="standard")
+    assert hash(site) == hash(inputs.Site(atmospheric_pressure=101325.0, basis="standard"))
+    assert repr(site).startswith("Site(atmospheric_pressure=101325.0, basis='standard'")
+    finding = result.Finding("x", "info", ("what",), {"y": 1.0})
+    assert finding == result.Finding("x", "info", ("what",), {"y": 1.0})
+    assert finding != result.Finding("x", "warning", ("what",), {"y": 1.0})
