@@ -70,6 +70,46 @@ def test_frozen_instances_refuse_changes_and_the_dataclass_functions_work():
     assert m == mutable("a", 2.0)
 
 
+def test_the_constructor_is_the_standard_library_s():
+    import inspect
+
+    ours, theirs = _pair()
+    assert str(inspect.signature(ours)) == str(inspect.signature(theirs))
+    for bad in [(), ("a",), ("a", 1.0, 2.0, "n", 0, (), "extra")]:
+        with pytest.raises(TypeError):
+            theirs(*bad)
+        with pytest.raises(TypeError):
+            ours(*bad)
+    with pytest.raises(TypeError):
+        ours("a", 1.0, colour="red")
+    # a factory default is made anew for each object
+    assert ours("a", 1.0, tags=[]).tags is not ours("a", 1.0, tags=[]).tags
+
+    def body():
+        class Later:
+            a: float
+            b: list = dataclasses.field(init=False, default_factory=list)
+            c: int = dataclasses.field(init=False, default=3)
+
+            def __post_init__(self):
+                object.__setattr__(self, "c", self.c + 1)
+
+        return Later
+
+    mine, std = record(body()), dataclasses.dataclass(body(), frozen=True)
+    assert repr(mine(1.0)) == repr(std(1.0))
+    assert repr(mine(1.0)).endswith("Later(a=1.0, b=[], c=4)")
+    assert str(inspect.signature(mine)) == str(inspect.signature(std))
+
+
+def test_keyword_only_fields_are_refused():
+    class Keyed:
+        a: float = dataclasses.field(kw_only=True)
+
+    with pytest.raises(TypeError, match="keyword-only"):
+        record(Keyed)
+
+
 def test_the_project_classes_are_records():
     # The inputs and the result compare and print by value as before.
     site = inputs.Site(atmospheric_pressure=101325.0, basis="standard")
