@@ -7,10 +7,6 @@ import io
 import json
 import textwrap
 
-from rich.console import Group
-from rich.padding import Padding
-from rich.text import Text
-
 from stallcheck.analysis.survey import Failure, Summary
 from stallcheck.files import quantities as q
 from stallcheck.render import json as json_out
@@ -45,67 +41,82 @@ def _cell(text: str, width: int, right: bool) -> str:
 
 
 def _rows(summaries: list[Summary], system: str | None, width: int = 80):
-    """Each unit's two lines: the figures, then the details (name, what is installed
-    where it differs, the worst finding)."""
+    """Each unit's two lines, as runs of (text, style): the figures, then the details
+    (name, what is installed where it differs, the worst finding)."""
     columns = _columns(width)
-    yield Text(" ".join(_cell(h, w, r) for h, w, r in columns), style="bold"), None
+    yield [(" ".join(_cell(h, w, r) for h, w, r in columns), "bold")], None
     # one column, one unit: the units most of the files are written in, unless --units
     systems = [s.system for s in summaries]
     sys_ = system or max(("us", "si"), key=systems.count)
+    (_, unit_w, unit_r), (_, stall_w, stall_r), (_, inlet_w, inlet_r), (_, needs_w, needs_r), \
+        (_, ok_w, ok_r), (_, hours_w, hours_r) = columns
     for s in summaries:
         stall = "never" if s.stall_fraction is None else (
             "all loads" if s.stall_fraction >= 1.0 else f"<{s.stall_fraction:.0%}")
         inlet = "" if s.stall_inlet_temperature is None else q.show(s.stall_inlet_temperature, "temperature", sys_)
         hours = "" if s.stalled_hours is None else f"{s.stalled_hours:,.0f} h"
-        cells = [s.tag or s.name, stall, inlet, s.required, "yes" if s.adequate else "NO", hours]
-        line = Text()
-        for (heading, room, right), value in zip(columns, cells):
-            style = ("green" if s.adequate else "bold red") if heading == "ok" else None
-            line.append(_cell(value, room, right) + " ", style=style)
-        detail = Text()
-        detail.append(s.name if s.tag else s.source, style="dim")
+        line = [(" ".join((_cell(s.tag or s.name, unit_w, unit_r), _cell(stall, stall_w, stall_r),
+                           _cell(inlet, inlet_w, inlet_r), _cell(s.required, needs_w, needs_r))) + " ", None),
+                (_cell("yes" if s.adequate else "NO", ok_w, ok_r) + " ", "green" if s.adequate else "bold red"),
+                (_cell(hours, hours_w, hours_r) + " ", None)]
+        detail = [(s.name if s.tag else s.source, "dim")]
         if s.required != s.installed:
-            detail.append(f"; has {s.installed}", style="dim")
+            detail.append((f"; has {s.installed}", "dim"))
         if s.return_pattern:
-            detail.append(f"; return line {s.return_pattern}",
-                          style="yellow" if s.return_pattern == "intermittent" else "dim")
+            detail.append((f"; return line {s.return_pattern}",
+                           "yellow" if s.return_pattern == "intermittent" else "dim"))
         if s.top_code:
-            detail.append("; ")
-            detail.append(s.top_code, style=SEVERITY_STYLE.get(s.top_severity))
-            detail.append(f" ({s.top_severity})", style="dim")
+            detail += [("; ", None), (s.top_code, SEVERITY_STYLE.get(s.top_severity)),
+                       (f" ({s.top_severity})", "dim")]
         yield line, detail
 
 
-def _count(summaries: list[Summary], failures: list[Failure]) -> list[Text]:
+def _count(summaries: list[Summary], failures: list[Failure]) -> list[tuple[str, str]]:
     inadequate = sum(1 for s in summaries if not s.adequate)
     flagged = sum(1 for s in summaries if s.exit_status)
-    out = [Text(f"{len(summaries) + len(failures):,} units: {len(summaries) - flagged:,} fine, "
-                f"{flagged:,} to look at ({inadequate:,} with drainage not adequate)", style="bold")]
+    out = [(f"{len(summaries) + len(failures):,} units: {len(summaries) - flagged:,} fine, "
+            f"{flagged:,} to look at ({inadequate:,} with drainage not adequate)", "bold")]
     if failures:
-        out.append(Text(f"{len(failures):,} could not be read: see the messages on stderr", style="bold red"))
+        out.append((f"{len(failures):,} could not be read: see the messages on stderr", "bold red"))
     return out
 
 
-def table(summaries: list[Summary], failures: list[Failure], system: str | None, width: int = 80) -> Group:
-    """The survey, worst first, two lines a unit, and a count (for a terminal)."""
+def table(summaries: list[Summary], failures: list[Failure], system: str | None, width: int = 80):
+    """The survey, worst first, two lines a unit, and a count (for a terminal: rich)."""
+    from rich.console import Group
+    from rich.padding import Padding
+    from rich.text import Text
+
     parts: list = []
     for line, detail in _rows(summaries, system, width):
-        parts.append(line)
+        parts.append(Text.assemble(*line))
         if detail is not None:
-            parts.append(Padding(detail, (0, 0, 0, 4)))
-    return Group(*parts, Text(""), *_count(summaries, failures))
+            parts.append(Padding(Text.assemble(*detail), (0, 0, 0, 4)))
+    return Group(*parts, Text(""), *(Text(text, style=style) for text, style in _count(summaries, failures)))
+
+
+#: Whitespace that :func:`textwrap.fill` would change.
+_ODD_SPACE = frozenset("\t\n\x0b\x0c\r")
+
+
+def _indented(text: str, width: int) -> str:
+    """``textwrap.fill(text, width, initial_indent="    ", subsequent_indent="    ")``,
+    without textwrap where the text fits on one line as it is."""
+    if len(text) + 4 <= width and text.strip() == text and _ODD_SPACE.isdisjoint(text):
+        return "    " + text
+    return textwrap.fill(text, width, initial_indent="    ", subsequent_indent="    ")
 
 
 def plain(summaries: list[Summary], failures: list[Failure], system: str | None, width: int = 80) -> str:
     """:func:`table` as plain text, for pipes and files: the same lines, written
-    directly (a survey of thousands prints far faster this way)."""
+    directly (a survey of thousands prints far faster this way), without rich."""
     out = []
     for line, detail in _rows(summaries, system, width):
-        out.append(line.plain.rstrip())
+        out.append("".join(text for text, _ in line).rstrip())
         if detail is not None:
-            out.append(textwrap.fill(detail.plain, width, initial_indent="    ", subsequent_indent="    "))
+            out.append(_indented("".join(text for text, _ in detail), width))
     out.append("")
-    out.extend(textwrap.fill(t.plain, width) for t in _count(summaries, failures))
+    out.extend(textwrap.fill(text, width) for text, _ in _count(summaries, failures))
     return "\n".join(out) + "\n"
 
 
