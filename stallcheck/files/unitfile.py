@@ -14,9 +14,10 @@ import math
 import os
 import re
 import stat
-import tomllib
 from dataclasses import replace
 from pathlib import Path
+
+import tomli
 
 from stallcheck.errors import InputError
 from stallcheck.files import drainkeys
@@ -72,7 +73,7 @@ _SI_DEFAULTS = {
     'drain.trap_min_differential = "0 psi" (not given)': 'drain.trap_min_differential = "0 kPa" (not given)',
 }
 
-#: tomllib's messages, in plainer words where they puzzle.
+#: The TOML parser's messages, in plainer words where they puzzle.
 _TOML_WORDS = {
     "Cannot overwrite a value": "a key or table is given twice",
     "Illegal character '\\n'": "a line ends inside a quoted string (a closing quote is missing)",
@@ -142,11 +143,11 @@ def load(path: str | Path) -> Unit:
 def parse(text: str, source: str = "unit file") -> Unit:
     """Validate the text of a unit file (see :func:`load`)."""
     try:
-        data = tomllib.loads(text)
+        data = tomli.loads(text)
     except RecursionError:
         raise InputError("", "is not valid TOML here: its arrays or tables are nested too deeply to read "
                              "(a unit file nests two levels at most).", file=source) from None
-    except tomllib.TOMLDecodeError as exc:
+    except tomli.TOMLDecodeError as exc:
         msg = str(exc)
         match = re.search(r"line (\d+)", msg)
         detail = re.sub(r"\s*\(at line \d+, column \d+\)", "", msg)
