@@ -346,7 +346,10 @@ def survey(paths: list[Path] = typer.Argument(..., help="Unit files, folders of 
            csv: Optional[Path] = typer.Option(None, "--csv", help="Also write the survey table to this CSV file.",
                                               metavar="OUT.csv"),
            force: bool = typer.Option(False, "--force", help="Let --csv replace an existing file."),
-           width: Optional[int] = WIDTH_OPT) -> None:
+           width: Optional[int] = WIDTH_OPT,
+           jobs: Optional[int] = typer.Option(None, "--jobs", min=1, max=64,
+                                              help="Processes to survey in (1 to 64). Default: one per processor "
+                                                   "from 2,000 units up (--json: 1).")) -> None:
     """Survey many units: one line each, worst first.
 
     Exit status 2 where any unit could not be read, else 1 where any is not adequate or
@@ -370,21 +373,29 @@ def survey(paths: list[Path] = typer.Argument(..., help="Unit files, folders of 
         from stallcheck.render.survey import JsonStream
 
         stream = JsonStream(sys.stdout)
+    total = surveymod.count(found)
     progress = None
-    if sys.stderr.isatty():
-        total = surveymod.count(found)
-        if total > PROGRESS_FROM:
-            from rich.progress import Progress
+    if sys.stderr.isatty() and total > PROGRESS_FROM:
+        from rich.progress import Progress
 
-            from stallcheck.render import terminal
+        from stallcheck.render import terminal
 
-            progress = Progress(console=terminal.console(stderr=True), transient=True)
-            task = progress.add_task("surveying", total=total)
-            progress.start()
+        # Redrawn as each batch is done, not by a thread of its own: the survey's
+        # worker processes are forked from this one, which is safe without threads.
+        progress = Progress(console=terminal.console(stderr=True), transient=True, auto_refresh=False)
+        task = progress.add_task("surveying", total=total)
+        progress.start()
+
+    def advance(k: int) -> None:
+        progress.advance(task, k)
+        progress.refresh()
+
     try:
         summaries, failures = surveymod.run(
-            found, system=system, method=method_, each=stream,
-            advance=(lambda k: progress.advance(task, k)) if progress else None)
+            found, system=system, method=method_, each=stream, advance=advance if progress else None,
+            jobs=1 if json else surveymod.jobs_for(total, jobs), searched=True)
+    except StallcheckError as exc:
+        _fail(str(exc))
     finally:
         if progress is not None:
             progress.stop()

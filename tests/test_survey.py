@@ -13,7 +13,7 @@ from typer.testing import CliRunner
 from stallcheck import analysis
 from stallcheck.analysis import survey
 from stallcheck.cli import app
-from stallcheck.errors import InputError
+from stallcheck.errors import InputError, StallcheckError
 from stallcheck.files import atomic, csvunits, unitfile
 from stallcheck.render import json as json_out
 
@@ -219,3 +219,73 @@ def test_csv_rows_that_would_take_defaults_silently_are_refused(tmp_path):
     unclosed.write_text("\n".join([header, '"' + first, second, second]) + "\n", encoding="utf-8")
     result = runner.invoke(app, ["survey", str(unclosed)])
     assert result.exit_code == 2 and "line 2" in result.stderr and "not closed" in result.stderr
+
+
+def _many_folder(tmp_path):
+    """Every sample, bad unit files, and a CSV table whose rows are good and bad, mixed."""
+    folder = _mixed_folder(tmp_path)
+    for sample in SAMPLES:
+        shutil.copy(sample, folder / f"copy_{sample.name}")
+    for bad in sorted((ROOT / "tests" / "bad_units").glob("*.toml"))[:12]:
+        shutil.copy(bad, folder / bad.name)
+    lines = CELL_UNITS.splitlines()
+    rows = [lines[0]] + [lines[1].replace("5 psig", f"{3 + k % 7} psig") if k % 5 else
+                         lines[1].replace("5 psig", "5 psi") for k in range(40)]
+    (folder / "many.csv").write_text("\n".join(rows) + "\n", encoding="utf-8")
+    return folder
+
+
+def test_a_survey_shared_among_processes_gives_what_one_process_gives(tmp_path, monkeypatch):
+    # Small chunks, so that many are in flight at once and come back out of turn.
+    folder = _many_folder(tmp_path)
+    monkeypatch.setattr(survey, "BATCH", 3)
+    alone = survey.run([folder], jobs=1)
+    shared = survey.run([folder], jobs=2)
+    assert len(alone[0]) > 40 and len(alone[1]) > 12
+    assert shared == alone
+    # and the failures keep the order of the files and rows
+    files = [str(f) for f in survey.sources([folder])]
+    order = [(files.index(f.source.rsplit(":", 1)[0] if f.source not in files else f.source),
+              int(f.source.rsplit(":", 1)[1]) if f.source not in files else 0) for f in alone[1]]
+    assert order == sorted(order)
+
+
+def test_the_command_gives_the_same_table_in_one_process_or_two(tmp_path):
+    folder = _many_folder(tmp_path)
+    env = {"NO_COLOR": "1", "COLUMNS": "80"}
+    one = runner.invoke(app, ["survey", str(folder), "--jobs", "1"], env=env)
+    two = runner.invoke(app, ["survey", str(folder), "--jobs", "2"], env=env)
+    assert one.exit_code == two.exit_code == 2
+    assert one.stdout == two.stdout and one.stderr == two.stderr
+    assert runner.invoke(app, ["survey", str(folder), "--jobs", "0"]).exit_code == 2
+
+
+def test_processes_are_used_from_a_size_and_as_asked():
+    assert survey.jobs_for(survey.PARALLEL_FROM - 1) == 1
+    assert survey.jobs_for(10, jobs=3) == 3
+    assert 1 <= survey.jobs_for(10**6) <= survey.MAX_JOBS
+
+
+def _dies(*args):
+    os._exit(3)
+
+
+def test_a_worker_that_dies_stops_the_survey_with_a_message(tmp_path, monkeypatch):
+    folder = _many_folder(tmp_path)
+    monkeypatch.setattr(survey, "_work", _dies)
+    with pytest.raises(StallcheckError, match="--jobs 1"):
+        survey.run([folder], jobs=2)
+
+
+def test_sources_are_each_file_once_in_path_order(tmp_path):
+    # Sorted part by part, as paths (pathlib's order), not as strings: "a/b.toml" comes
+    # before "a-b/c.toml" though "-" sorts before "/".
+    for name in ("a/b.toml", "a-b/c.toml", "a/b/c.csv", "a/B.toml", "a/notes.txt"):
+        (tmp_path / name).parent.mkdir(parents=True, exist_ok=True)
+        (tmp_path / name).write_text("format = 1\n", encoding="utf-8")
+    (tmp_path / "a" / "link.toml").symlink_to(tmp_path / "a" / "b.toml")
+    found = survey.sources([tmp_path, tmp_path / "a" / "b.toml", tmp_path / "a"])
+    assert [p.relative_to(tmp_path).as_posix() for p in found] == ["a/B.toml", "a/b/c.csv", "a/b.toml",
+                                                                   "a-b/c.toml"]
+    # a path that does not exist is kept (reading it names it)
+    assert survey.sources([tmp_path / "missing.toml"]) == [tmp_path / "missing.toml"]

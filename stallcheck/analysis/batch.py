@@ -340,7 +340,7 @@ def _analyse(units: list[Unit], systems: list[str], tabulate: bool = True) -> li
                             drain_differential=differential[i], stalled=stalled[i],
                             valve_opening=None if opening is None or valves[i] is None else opening[i])
         s = stall[i]
-        bins_load, bins_hours = _bin_loads(u, b.coil.take(i))
+        bins_load, bins_hours = _bin_loads(u, b.coil, i)
         stalled_hours, total_hours = _hours(u, s.load_fraction or 0.0, bins_load, bins_hours)
         pump = devices.pump_trap_figures(u, drains[i].required, s, float(b.back[i]), float(b.supply[i]))
         line = devices.return_line_figures(u, float(b.steam_design[i]), float(b.design_pressure[i]), s,
@@ -473,14 +473,15 @@ def _valves(b: Batch, coil_p, steam_flow):
     return results, opening
 
 
-def _bin_loads(unit: Unit, coil) -> tuple[np.ndarray | None, np.ndarray | None]:
-    """Load fraction [-] and hours [h] of each load bin (None without bins)."""
+def _bin_loads(unit: Unit, coils, i: int) -> tuple[np.ndarray | None, np.ndarray | None]:
+    """Load fraction [-] and hours [h] of each load bin of the unit whose coil is
+    ``coils``'s ``i``-th (None without bins)."""
     bins = unit.load.bins
     if not bins:
         return None, None
     hours = np.array([b.hours for b in bins])
     if unit.load.varies == "inlet-temperature":
-        load = coilmod.load_at_inlet_temperature(coil, np.array([b.inlet_temperature for b in bins]))
+        load = coilmod.load_at_inlet_temperature(coils.take(i), np.array([b.inlet_temperature for b in bins]))
     else:
         load = np.array([b.load for b in bins])
     return load, hours

@@ -9,6 +9,7 @@ memory held does not grow with the number of units beyond the summaries.
 from __future__ import annotations
 
 import os
+import sys
 from pathlib import Path
 from typing import Callable, Iterable, Iterator
 
@@ -21,6 +22,11 @@ from stallcheck.result import SEVERITIES, Result
 #: Units analysed together: enough to spread the steam-table calls, few enough to keep
 #: memory flat and the progress bar moving.
 BATCH = 500
+#: A survey of this many units or more is shared among processes, one per processor
+#: (below it, starting them costs more than they save).
+PARALLEL_FROM = 2000
+#: At most this many worker processes.
+MAX_JOBS = 8
 
 
 @record
@@ -102,28 +108,39 @@ def sources(paths: Iterable[str | Path]) -> list[Path]:
     seen = set()
     for p in paths:
         path = Path(p)
-        found = _search(path) if path.is_dir() else [path]
-        for f in found:
-            try:
-                key = str(f.resolve()) if f.exists() else str(f)
-            except OSError:
-                key = str(f)
+        found = _search(str(path)) if path.is_dir() else [(str(path), _real(str(path)))]
+        for name, key in found:
             if key not in seen:
                 seen.add(key)
-                out.append(f)
+                out.append(Path(name))
     return out
 
 
-def _search(folder: Path) -> list[Path]:
-    found: list[Path] = []
+def _real(name: str) -> str:
+    """The file a path names, for telling the same file given twice."""
+    try:
+        return os.path.realpath(name) if os.path.exists(name) else name
+    except OSError:
+        return name
+
+
+def _search(folder: str) -> list[tuple[str, str]]:
+    """The unit files and CSV tables under a folder, sorted as paths (part by part),
+    each with the file it names (resolved once a folder, not once a file)."""
+    found: list[tuple[str, str]] = []
 
     def unreadable(error: OSError) -> None:
-        found.append(Path(error.filename))
+        found.append((error.filename, error.filename))
 
     for root, folders, files in os.walk(folder, onerror=unreadable):
         folders.sort()
-        found += [Path(root) / f for f in files if f.lower().endswith((".toml", ".csv"))]
-    return sorted(found)
+        real_root = _real(root)
+        for name in files:
+            if name.lower().endswith((".toml", ".csv")):
+                full = os.path.join(root, name)
+                found.append((full, _real(full) if os.path.islink(full) else os.path.join(real_root, name)))
+    found.sort(key=lambda entry: os.path.normcase(entry[0]).split(os.sep))
+    return found
 
 
 def count(files: list[Path]) -> int:
@@ -142,29 +159,91 @@ def count(files: list[Path]) -> int:
 
 def units(files: list[Path]) -> Iterator:
     """Each unit read from the files, as a Unit or, where it cannot be read, a Failure."""
+    for item in _items(files):
+        yield _unit(item)
+
+
+def _items(files: list[Path]) -> Iterator:
+    """What each unit is read from, in order, without validating it: a unit file's
+    path, a CSV row as ``(file, line, tables)``, or the Failure of a file or row that
+    cannot be read at all. Cheap to send to another process."""
     for f in files:
         if f.suffix.lower() == ".csv":
             try:
                 for line, data in csvunits.rows(f):
-                    if isinstance(data, InputError):
-                        yield Failure(f"{f}:{line}", str(data))
-                        continue
-                    try:
-                        yield unitfile.from_data(data, str(f), line)
-                    except InputError as exc:
-                        yield Failure(f"{f}:{line}", str(exc))
+                    yield Failure(f"{f}:{line}", str(data)) if isinstance(data, InputError) else (str(f), line, data)
             except InputError as exc:
                 yield Failure(str(f), str(exc))
         else:
-            try:
-                yield unitfile.load(f)
-            except InputError as exc:
-                yield Failure(str(f), str(exc))
+            yield f
+
+
+def _unit(item):
+    """The Unit an item of :func:`_items` holds, or its Failure."""
+    if isinstance(item, Failure):
+        return item
+    if isinstance(item, tuple):
+        source, line, data = item
+        try:
+            return unitfile.from_data(data, source, line)
+        except InputError as exc:
+            return Failure(f"{source}:{line}", str(exc))
+    try:
+        return unitfile.load(item)
+    except InputError as exc:
+        return Failure(str(item), str(exc))
+
+
+def _chunks(items: Iterator, size: int) -> Iterator[list]:
+    chunk: list = []
+    for item in items:
+        chunk.append(item)
+        if len(chunk) >= size:
+            yield chunk
+            chunk = []
+    if chunk:
+        yield chunk
+
+
+def _work(chunk: list, system: str | None, method: str | None, keep: bool, points: bool) -> list:
+    """Read and analyse a chunk of items: for each, in order, its Failure, or its
+    Summary and (where ``keep``) its full Result. Runs in a worker process too."""
+    read = [_unit(item) for item in chunk]
+    batch = [u for u in read if not isinstance(u, Failure)]
+    done = iter(_analyse(batch, system, method, points) if batch else [])
+    out: list = []
+    for unit in read:
+        if isinstance(unit, Failure):
+            out.append(unit)
+            continue
+        result = next(done)
+        if isinstance(result, StallcheckError):
+            out.append(Failure(unit.source, str(result if not isinstance(result, InputError) or result.file
+                                                 else result.in_file(unit.source))))
+        else:
+            out.append((Summary.of(result), result if keep else None))
+    return out
+
+
+def jobs_for(units: int, jobs: int | None = None) -> int:
+    """Worker processes for a survey of ``units``: ``jobs`` where given (1: none, all in
+    this process), else one per processor this process may use, for a survey of at
+    least :data:`PARALLEL_FROM` units."""
+    if jobs is not None:
+        return max(1, jobs)
+    if units < PARALLEL_FROM:
+        return 1
+    try:
+        cores = len(os.sched_getaffinity(0))
+    except AttributeError:  # not on Linux
+        cores = os.cpu_count() or 1
+    return max(1, min(cores, MAX_JOBS))
 
 
 def run(paths: Iterable[str | Path], system: str | None = None, method: str | None = None,
         each: Callable[[Result], None] | None = None,
-        advance: Callable[[int], None] | None = None) -> tuple[list[Summary], list[Failure]]:
+        advance: Callable[[int], None] | None = None, jobs: int | None = None,
+        searched: bool = False) -> tuple[list[Summary], list[Failure]]:
     """Survey every unit the paths hold.
 
     Parameters
@@ -175,48 +254,82 @@ def run(paths: Iterable[str | Path], system: str | None = None, method: str | No
         Display units and heat-transfer method, as for ``check``.
     each : callable, optional
         Called with every full result as its batch is done; where given, the results
-        are tabulated across the load range (``Result.points``), as ``check`` does.
+        are tabulated across the load range (``Result.points``), as ``check`` does,
+        and the survey runs in this process.
     advance : callable, optional
         Called with the number of units done in each batch (a progress bar).
+    jobs : int, optional
+        Processes to read and analyse in (see :func:`jobs_for`); the summaries are the
+        same whatever the number.
+    searched : bool
+        The paths are already the files :func:`sources` found for the survey.
 
     Returns
     -------
     summaries : list of Summary
         Worst first.
     failures : list of Failure
-        Units that could not be read or analysed, in the order met.
+        Units that could not be read or analysed, in the order of the files and rows.
     """
+    files = list(paths) if searched else sources(paths)
     summaries: list[Summary] = []
     failures: list[Failure] = []
-    batch: list = []
+    workers = 1 if each is not None else jobs_for(count(files) if jobs is None else 0, jobs)
 
-    def flush():
-        if not batch:
-            return
-        for unit, out in zip(batch, _analyse(batch, system, method, points=each is not None)):
-            if isinstance(out, StallcheckError):
-                failures.append(Failure(unit.source, str(out if not isinstance(out, InputError) or out.file
-                                                         else out.in_file(unit.source))))
+    def take(out: list) -> None:
+        for entry in out:
+            if isinstance(entry, Failure):
+                failures.append(entry)
             else:
-                summaries.append(Summary.of(out))
+                summaries.append(entry[0])
                 if each is not None:
-                    each(out)
+                    each(entry[1])
         if advance is not None:
-            advance(len(batch))
-        batch.clear()
+            advance(len(out))
 
-    for item in units(sources(paths)):
-        if isinstance(item, Failure):
-            failures.append(item)
-            if advance is not None:
-                advance(1)
-            continue
-        batch.append(item)
-        if len(batch) >= BATCH:
-            flush()
-    flush()
+    chunks = _chunks(_items(files), BATCH)
+    if workers == 1:
+        for chunk in chunks:
+            take(_work(chunk, system, method, each is not None, each is not None))
+    else:
+        _in_parallel(chunks, workers, system, method, take)
     summaries.sort(key=Summary.badness)
     return summaries, failures
+
+
+def _in_parallel(chunks: Iterator[list], workers: int, system: str | None, method: str | None,
+                 take: Callable[[list], None]) -> None:
+    """:func:`_work` on every chunk in ``workers`` processes, each chunk's output taken
+    in order, with a few chunks in flight so memory stays flat."""
+    import multiprocessing
+    from collections import deque
+    from concurrent.futures import ProcessPoolExecutor
+    from concurrent.futures.process import BrokenProcessPool
+
+    # fork starts a worker with the modules already imported; elsewhere (macOS,
+    # Windows) a worker imports them itself.
+    context = multiprocessing.get_context("fork" if sys.platform.startswith("linux") else "spawn")
+    pool = ProcessPoolExecutor(workers, mp_context=context, initializer=_worker_start)
+    pending: deque = deque()
+    try:
+        for chunk in chunks:
+            pending.append(pool.submit(_work, chunk, system, method, False, False))
+            if len(pending) >= 2 * workers:
+                take(pending.popleft().result())
+        while pending:
+            take(pending.popleft().result())
+    except BrokenProcessPool:
+        raise StallcheckError("a survey process stopped before its units were done (short of memory?); "
+                              "survey again with --jobs 1.") from None
+    finally:
+        pool.shutdown(wait=not pending, cancel_futures=True)
+
+
+def _worker_start() -> None:
+    """A worker leaves Ctrl-C to the survey that started it, which stops it."""
+    import signal
+
+    signal.signal(signal.SIGINT, signal.SIG_IGN)
 
 
 def _analyse(batch: list, system: str | None, method: str | None, points: bool) -> list:

@@ -326,7 +326,7 @@ def _quantity(key: str, text, dimension: str, example: str, accepted: str, also:
     if info is None:
         raise InputError(key, f"unknown unit '{unit_text}' in '{text}'; accepted: {accepted}.")
     unit, dim = info
-    if dim not in [_dimension(d) for d in (dimension, also) if d]:
+    if dim != _dimension(dimension) and not (also and dim == _dimension(also)):
         what = _DIMENSION_WORDS[dimension] + (f" or {_DIMENSION_WORDS[also]}" if also else "")
         raise InputError(key, f"'{text}' is not a {what}; accepted: {accepted}.")
     return _Parsed(value, unit, dim), unit
@@ -506,13 +506,10 @@ def mass_flow(key: str, text) -> float:
 
 def is_us(text) -> bool:
     """True where a quantity string is written in US customary units."""
-    if not isinstance(text, str):
+    if not isinstance(text, str) or len(text) > MAX_QUANTITY_TEXT:
         return False
-    try:
-        _, unit = _split("", text, "")
-    except InputError:
-        return False
-    return unit in _US_UNITS
+    read = _read(text)  # what _split reads, without building the errors it would raise
+    return isinstance(read, tuple) and read[1] in _US_UNITS
 
 
 def atmosphere_at(elevation: float) -> float:

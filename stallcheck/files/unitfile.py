@@ -369,7 +369,7 @@ def _build(data: dict, source: str) -> Unit:
 def _site(r: _Reader) -> Site:
     site = r.table("site", required=False)
     where = _where(r, site)
-    return replace(where, **_costs(r, site or {}))
+    return Site(where.atmospheric_pressure, where.basis, **_costs(r, site or {}))
 
 
 def _costs(r: _Reader, site: dict) -> dict:
