@@ -8,6 +8,10 @@ import shutil
 
 import pytest
 from conftest import BASE_UNIT, ROOT, SAMPLES
+from hypothesis import given, settings
+from hypothesis import strategies as st
+from test_properties_of_units import si_text
+from test_properties_of_units import units as generated_units
 from typer.testing import CliRunner
 
 from stallcheck import analysis
@@ -289,3 +293,30 @@ def test_sources_are_each_file_once_in_path_order(tmp_path):
                                                                    "a-b/c.toml"]
     # a path that does not exist is kept (reading it names it)
     assert survey.sources([tmp_path / "missing.toml"]) == [tmp_path / "missing.toml"]
+
+
+@settings(max_examples=int(os.environ.get("STALLCHECK_EXAMPLES", "40")), deadline=None)
+@given(st.lists(generated_units, min_size=1, max_size=6))
+def test_a_table_s_summaries_are_those_of_the_full_results(ds):
+    # The table is made from results that are not complete; every line of it must be
+    # what the full result (check, --json) says.
+    units = [unitfile.parse(si_text(d), f"u{k}.toml") for k, d in enumerate(ds)]
+    full = survey._analyse(units, None, None, points=False)
+    table = survey._analyse(units, None, None, points=False, complete=False)
+    for a, b in zip(full, table):
+        assert type(a) is type(b)
+        if isinstance(a, StallcheckError):
+            assert str(a) == str(b)
+        else:
+            assert survey.Summary.of(a) == survey.Summary.of(b)
+            assert a.findings == b.findings and a.exit_status == b.exit_status
+
+
+def test_the_samples_summaries_are_those_of_their_full_results():
+    units = [unitfile.load(sample) for sample in SAMPLES]
+    full = survey._analyse(units, None, None, points=False)
+    table = survey._analyse(units, None, None, points=False, complete=False)
+    assert {r.trap.basis for r in full} >= {"selected", "table"}
+    for a, b in zip(full, table):
+        assert survey.Summary.of(a) == survey.Summary.of(b)
+        assert a.findings == b.findings

@@ -66,7 +66,7 @@ def analyse(unit: Unit, system: str | None = None, method: str | None = None) ->
 
 
 def analyse_many(units: list[Unit], system: str | None = None, method: str | None = None,
-                 points: bool = True) -> list[Result | StallcheckError]:
+                 points: bool = True, complete: bool = True) -> list[Result | StallcheckError]:
     """Analyse many units together.
 
     Parameters
@@ -80,6 +80,12 @@ def analyse_many(units: list[Unit], system: str | None = None, method: str | Non
         Tabulate each unit across the load range (``Result.points``, for the chart and
         the JSON contract). A survey table needs none of it and skips the cost (about
         half of each unit's steam-table calls); every other figure is the same.
+    complete : bool
+        The whole result. Without it a result holds the verdict, the findings and the
+        figures they rest on, and no more: no remedies or assumptions (empty), and no
+        drainage limit for a trap selected by the usual rule (a figure shown, never
+        judged). That is what a survey table shows; the survey makes such results for
+        it and gives none of them out.
 
     Returns
     -------
@@ -100,7 +106,7 @@ def analyse_many(units: list[Unit], system: str | None = None, method: str | Non
             out[i] = error
     if good:
         batch = [units[i] for i in good]
-        for i, result in zip(good, _analyse(batch, [system or u.system for u in batch], points)):
+        for i, result in zip(good, _analyse(batch, [system or u.system for u in batch], points, complete)):
             out[i] = result
     return out
 
@@ -293,7 +299,7 @@ def _steam_at(coil, load, load_design):
 # --- the physics on the batch ---------------------------------------------------------
 
 
-def _analyse(units: list[Unit], systems: list[str], tabulate: bool = True) -> list[Result]:
+def _analyse(units: list[Unit], systems: list[str], tabulate: bool = True, complete: bool = True) -> list[Result]:
     b = columns(units)
     n = len(units)
     _, p_min, w_min = b.state(b.minimum)
@@ -321,11 +327,14 @@ def _analyse(units: list[Unit], systems: list[str], tabulate: bool = True) -> li
         drains.append(Drainage(u.drain.arrangement, need.required, ok, need.reason, why, need.facts))
         effective.append(u.drain.arrangement if ok else need.required)
 
-    traps = devices.trap_figures(b, effective, stall, p_min, w_min)
+    traps = devices.trap_figures(b, effective, stall, p_min, w_min, selected_limits=complete)
     flashes = devices.flash_figures(b)
-    rounders = [lambda value, kind, up, system=systems[i], atm=float(b.atm[i]): q.rounded(value, kind, system, atm, up=up)
-                for i in range(n)]
-    fixes = remedies.solve(b, p_min, [d.adequate for d in drains], rounders)
+    if complete:
+        rounders = [lambda value, kind, up, system=systems[i], atm=float(b.atm[i]):
+                    q.rounded(value, kind, system, atm, up=up) for i in range(n)]
+        fixes = remedies.solve(b, p_min, [d.adequate for d in drains], rounders)
+    else:
+        fixes = [()] * n
 
     results = []
     for i, u in enumerate(units):
@@ -356,7 +365,7 @@ def _analyse(units: list[Unit], systems: list[str], tabulate: bool = True) -> li
             trap_min_differential=float(b.trap_min[i]), lift=float(b.lift[i]), fill_head=float(b.fill_height[i]),
             supply_pressure=float(b.supply[i]), design=d, stall=s, points=points, stalled_hours=stalled_hours,
             total_hours=total_hours, drainage=drains[i], valve=valves[i], findings=(),
-            assumptions=_assumptions(u, bool(clipped[i]), traps[i]), trap=traps[i], pump_trap=pump, purge=purge,
+            assumptions=_assumptions(u, bool(clipped[i]), traps[i]) if complete else (), trap=traps[i], pump_trap=pump, purge=purge,
             flash=flashes[i], remedies=fixes[i], warnings=u.warnings, return_line=line, surge=shock,
             set_point_floor_load=float(floor_load[i]))
         # The rules read the finished result; their findings complete it before anyone

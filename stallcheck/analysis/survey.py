@@ -164,16 +164,18 @@ def units(files: list[Path]) -> Iterator:
 
 
 def _items(files: list[Path]) -> Iterator:
-    """What each unit is read from, in order, without validating it: a unit file's
-    path, a CSV row as ``(file, line, tables)``, or the Failure of a file or row that
+    """What each unit is read from, in order, without reading it: a unit file's path, a
+    CSV row as ``(file, line, columns, cells)``, or the Failure of a file or row that
     cannot be read at all. Cheap to send to another process."""
     for f in files:
         if f.suffix.lower() == ".csv":
+            source = str(f)
             try:
-                for line, data in csvunits.rows(f):
-                    yield Failure(f"{f}:{line}", str(data)) if isinstance(data, InputError) else (str(f), line, data)
+                for line, columns, cells in csvunits.records(f):
+                    yield (Failure(f"{source}:{line}", str(cells)) if isinstance(cells, InputError)
+                           else (source, line, columns, cells))
             except InputError as exc:
-                yield Failure(str(f), str(exc))
+                yield Failure(source, str(exc))
         else:
             yield f
 
@@ -183,8 +185,11 @@ def _unit(item):
     if isinstance(item, Failure):
         return item
     if isinstance(item, tuple):
-        source, line, data = item
+        source, line, columns, cells = item
+        data = csvunits.tables(columns, cells, source, line)
         try:
+            if isinstance(data, InputError):
+                raise data
             return unitfile.from_data(data, source, line)
         except InputError as exc:
             return Failure(f"{source}:{line}", str(exc))
@@ -210,7 +215,8 @@ def _work(chunk: list, system: str | None, method: str | None, keep: bool, point
     Summary and (where ``keep``) its full Result. Runs in a worker process too."""
     read = [_unit(item) for item in chunk]
     batch = [u for u in read if not isinstance(u, Failure)]
-    done = iter(_analyse(batch, system, method, points) if batch else [])
+    # Results that are not kept only make summaries: they need not be complete.
+    done = iter(_analyse(batch, system, method, points, complete=keep) if batch else [])
     out: list = []
     for unit in read:
         if isinstance(unit, Failure):
@@ -332,17 +338,18 @@ def _worker_start() -> None:
     signal.signal(signal.SIGINT, signal.SIG_IGN)
 
 
-def _analyse(batch: list, system: str | None, method: str | None, points: bool) -> list:
+def _analyse(batch: list, system: str | None, method: str | None, points: bool, complete: bool = True) -> list:
     """A batch's results (tabulated across the load range only where ``points``); where
     the batch as a whole fails (a property call out of range that screening did not
     foresee), each unit again on its own, so one bad unit cannot sink the others."""
     try:
-        return analysis.analyse_many(batch, system=system, method=method, points=points)
+        return analysis.analyse_many(batch, system=system, method=method, points=points, complete=complete)
     except StallcheckError:
         out = []
         for unit in batch:
             try:
-                out.extend(analysis.analyse_many([unit], system=system, method=method, points=points))
+                out.extend(analysis.analyse_many([unit], system=system, method=method, points=points,
+                                                    complete=complete))
             except StallcheckError as exc:
                 out.append(exc)
         return out

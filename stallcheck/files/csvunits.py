@@ -113,6 +113,21 @@ def rows(path: str | Path) -> Iterator[tuple[int, dict | InputError]]:
         which names their key.
     """
     source = str(path)
+    for line, columns, cells in records(path):
+        yield line, cells if isinstance(cells, InputError) else tables(columns, cells, source, line)
+
+
+def records(path: str | Path) -> Iterator[tuple[int, list, list[str] | InputError]]:
+    """The rows of a CSV file as their cells, not yet read: the line each starts on,
+    the columns (from the header) and the cells, or the InputError of a row whose cells
+    cannot be told apart. :func:`tables` reads the cells (see :func:`rows`).
+
+    Raises
+    ------
+    InputError
+        As :func:`rows`.
+    """
+    source = str(path)
     text = _read(Path(path))
     reader = csv.reader(io.StringIO(text))
     try:
@@ -125,36 +140,44 @@ def rows(path: str | Path) -> Iterator[tuple[int, dict | InputError]]:
     for record in reader:
         line = end + 1  # where the record starts, not where it ends
         end = reader.line_num
-        if not any(cell.strip() for cell in record):
+        joined = "".join(record)
+        if not joined.strip():
             continue
         units += 1
-        if end > line or any("\n" in cell or "\r" in cell for cell in record):
+        if end > line or "\n" in joined or "\r" in joined:
             what = ("a quoted cell is not closed: every later line was read into it" if _unclosed(text)
                     else "a cell runs over more than one line")
-            yield line, InputError("", f"{what}; close each quoted cell on its own line.", file=source, line=line)
+            yield line, columns, InputError("", f"{what}; close each quoted cell on its own line.", file=source,
+                                            line=line)
             continue
         if len(record) != len(columns):
-            yield line, InputError("", f"has {len(record)} cells but the header names {len(columns)} columns; a "
-                                       f"missing cell would silently take its default. Leave a cell empty with "
-                                       f"an empty field between commas.", file=source, line=line)
+            yield line, columns, InputError(
+                "", f"has {len(record)} cells but the header names {len(columns)} columns; a missing cell would "
+                    f"silently take its default. Leave a cell empty with an empty field between commas.",
+                file=source, line=line)
             continue
-        data: dict = {"format": 1}
-        try:
-            for column, cell in zip(columns, record):
-                cell = cell.strip()
-                if not cell:
-                    continue
-                value = column.value(cell, source, line)
-                if column.section:
-                    data.setdefault(column.section, {})[column.name] = value
-                else:
-                    data[column.name] = value
-        except InputError as exc:
-            yield line, exc
-            continue
-        yield line, data
+        yield line, columns, record
     if units == 0:
         raise InputError("", "has a header but no units; give one unit per row below the header.", file=source)
+
+
+def tables(columns: list, cells: list[str], source: str, line: int) -> dict | InputError:
+    """One row's cells (from :func:`records`) as unit-file tables, or the InputError of
+    a cell the header's unit cannot go with."""
+    data: dict = {"format": 1}
+    try:
+        for column, cell in zip(columns, cells):
+            cell = cell.strip()
+            if not cell:
+                continue
+            value = column.value(cell, source, line)
+            if column.section:
+                data.setdefault(column.section, {})[column.name] = value
+            else:
+                data[column.name] = value
+    except InputError as exc:
+        return exc
+    return data
 
 
 def _unclosed(text: str) -> bool:

@@ -141,7 +141,7 @@ def working_points(b, effective, stall, p_min, w_min):
     return load, flow, dp
 
 
-def trap_figures(b, effective, stall, p_min, w_min):
+def trap_figures(b, effective, stall, p_min, w_min, selected_limits: bool = True):
     """Trap selection figures and the drainage limit for every unit of a batch.
 
     Parameters
@@ -153,6 +153,9 @@ def trap_figures(b, effective, stall, p_min, w_min):
     stall : list of StallPoint
     p_min, w_min : ndarray
         Coil pressure [Pa] and condensate [kg/s] at each unit's minimum load.
+    selected_limits : bool
+        Find the drainage limit of a trap selected by the usual rule too (shown with
+        the figures; no rule judges it). Without, its ``limit_load`` is None.
 
     Returns
     -------
@@ -177,7 +180,7 @@ def trap_figures(b, effective, stall, p_min, w_min):
     capacity = Capacities(drains, b.back, bores)
     installed = capacity(sizing, b.back + sizing)
 
-    limit = _limits(b, capacity, stall)
+    limit = _limits(b, capacity, stall, None if selected_limits else basis != "selected")
     has = np.isfinite(limit)
     at = np.where(has, limit, 0.0)
     _, p_l, w_l = b.state(at)
@@ -201,9 +204,10 @@ def trap_figures(b, effective, stall, p_min, w_min):
     return out
 
 
-def _limits(b, capacity, stall):
+def _limits(b, capacity, stall, only=None):
     """Drainage limit of each unit [-]: the load below which the trap passes less than
-    the condensate; NaN where it keeps up at every load above zero.
+    the condensate; NaN where it keeps up at every load above zero, and for the units
+    ``only`` (a boolean mask, where given) leaves out.
 
     The shortfall (condensate less capacity) is positive at the stall point, where the
     trap has no working differential, and falls as load and differential rise; its
@@ -216,20 +220,23 @@ def _limits(b, capacity, stall):
         return w - capacity(inlet - b.back[index], inlet, index)
 
     n = len(b.units)
-    everywhere = np.arange(n)
-    low = np.array([s.load_fraction if s.occurs else LOWEST_LOAD for s in stall])
-    occurs = np.array([s.occurs for s in stall])
-    full = gap(np.ones(n), everywhere) > 0
-    start = gap(low, everywhere) > 0
-    limit = np.where(full, 1.0, np.nan)
+    limit = np.full(n, np.nan)
+    units = np.arange(n) if only is None else np.flatnonzero(only)
+    if not units.size:
+        return limit
+    low = np.array([s.load_fraction if s.occurs else LOWEST_LOAD for s in stall])[units]
+    occurs = np.array([s.occurs for s in stall])[units]
+    full = gap(np.ones(units.size), units) > 0
+    start = gap(low, units) > 0
     # At the stall point itself the trap cannot discharge, whatever the last bit of the
     # differential says: where the shortfall there already reads zero, the limit is the
     # stall point.
-    limit = np.where(occurs & ~start & ~full, low, limit)
+    found = np.where(full, 1.0, np.where(occurs & ~start, low, np.nan))
     solve = np.flatnonzero(start & ~full & (low < 1.0))
     if solve.size:
-        limit[solve] = illinois(lambda load, where: gap(load, solve[where]), low[solve], np.ones(solve.size),
-                                LIMIT_TOLERANCE)
+        found[solve] = illinois(lambda load, where: gap(load, units[solve[where]]), low[solve],
+                                np.ones(solve.size), LIMIT_TOLERANCE)
+    limit[units] = found
     return limit
 
 
