@@ -84,10 +84,11 @@ def to_dict(result: Result) -> dict:
 
 
 def survey_rows(paths: str | Path | Iterable[str | Path], units: str | None = None,
-           method: str | None = None) -> list[dict]:
+                method: str | None = None, jobs: int = 1) -> list[dict]:
     """Survey unit files, folders of them and CSV tables: one row per unit, worst first
     (the columns of ``stallcheck survey --csv``), then a row per unit that could not be
-    read, with its message under ``error``."""
+    read, with its message under ``error``. ``jobs`` processes share the work (default
+    1: all in this process; more are forked from it, or spawned where fork is not used)."""
     import importlib
 
     from stallcheck.render import survey as table
@@ -96,11 +97,11 @@ def survey_rows(paths: str | Path | Iterable[str | Path], units: str | None = No
 
     if isinstance(paths, (str, Path)):
         paths = [paths]
-    return table.records(*surveymod.run(list(paths), system=units, method=method))
+    return table.records(*surveymod.run(list(paths), system=units, method=method, jobs=jobs))
 
 
 def survey_frame(paths: str | Path | Iterable[str | Path], units: str | None = None,
-                 method: str | None = None):
+                 method: str | None = None, jobs: int = 1):
     """:func:`survey_rows` as a pandas DataFrame (pandas is not a dependency: install it to
     use this)."""
     try:
@@ -108,4 +109,4 @@ def survey_frame(paths: str | Path | Iterable[str | Path], units: str | None = N
     except ImportError:
         raise ImportError("survey_frame needs pandas (pip install pandas); survey_rows() gives the same rows "
                           "as a list of dicts") from None
-    return pandas.DataFrame(survey_rows(paths, units=units, method=method))
+    return pandas.DataFrame(survey_rows(paths, units=units, method=method, jobs=jobs))

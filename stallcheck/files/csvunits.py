@@ -41,7 +41,7 @@ _HEADER = re.compile(r"^\s*([A-Za-z_]+(?:\.[A-Za-z_]+)?)\s*(?:\[\s*(.+?)\s*\])?\
 class _Column:
     """One column: its key, the unit its header gives, and how to read its cells."""
 
-    __slots__ = ("section", "name", "key", "unit", "kind")
+    __slots__ = ("section", "name", "key", "unit", "kind", "as_written")
 
     def __init__(self, key: str, unit: str | None):
         self.key = key
@@ -49,6 +49,8 @@ class _Column:
         self.unit = unit
         self.kind = ("number" if key in NUMBERS else "whole" if key in WHOLE else "flag" if key in FLAGS
                      else "words" if key in WORDS else "quantity")
+        #: A cell of this column is the value as written (words, or a quantity with its unit).
+        self.as_written = self.kind == "words" or (self.kind == "quantity" and unit is None)
 
     def value(self, cell: str, source: str, line: int):
         if self.kind == "words":
@@ -170,9 +172,13 @@ def tables(columns: list, cells: list[str], source: str, line: int) -> dict | In
             cell = cell.strip()
             if not cell:
                 continue
-            value = column.value(cell, source, line)
-            if column.section:
-                data.setdefault(column.section, {})[column.name] = value
+            value = cell if column.as_written else column.value(cell, source, line)
+            section = column.section
+            if section:
+                table = data.get(section)
+                if table is None:
+                    table = data[section] = {}
+                table[column.name] = value
             else:
                 data[column.name] = value
     except InputError as exc:

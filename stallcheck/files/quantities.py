@@ -321,7 +321,9 @@ def _line(unit: str, si: str) -> tuple[float, float]:
 
 
 def _quantity(key: str, text, dimension: str, example: str, accepted: str, also: str | None = None):
-    value, unit_text = _split(key, text, example)
+    read = _read(text) if type(text) is str and len(text) <= MAX_QUANTITY_TEXT else None
+    # a string read at once; anything else through _split, which says what is wrong
+    value, unit_text = read if type(read) is tuple else _split(key, text, example)
     info = _unit_info(unit_text)
     if info is None:
         raise InputError(key, f"unknown unit '{unit_text}' in '{text}'; accepted: {accepted}.")
