@@ -327,10 +327,10 @@ def explore(unit: Path = UNIT_ARG, units: Optional[Units] = UNITS_OPT) -> None:
     if not (sys.stdin.isatty() and sys.stdout.isatty()):
         _fail("explore needs an interactive terminal (its keys are read from one); for a file or a pipe "
               "use `stallcheck check` or `stallcheck chart`.")
-    unit_obj, _ = _load(unit, units, None)
+    unit_obj, result = _load(unit, units, None)
     from stallcheck import tui
 
-    tui.Explorer(unit_obj, units.value if units else None).run()
+    tui.Explorer(unit_obj, units.value if units else None, result).run()
 
 
 #: Show a progress bar on stderr above this many units.

@@ -198,12 +198,13 @@ class Explorer(App):
     ] + [Binding("question_mark", "keys", "keys"), Binding("d", "diff", "changes"),
          Binding("s", "save", "save as"), Binding("q", "quit", "quit")]
 
-    def __init__(self, unit: Unit, system: str | None = None):
+    def __init__(self, unit: Unit, system: str | None = None, result=None):
+        """``result``: the unit's result in ``system``, where the caller has it already."""
         super().__init__()
         self.original = unit
         self.unit = unit
         self.system = system or unit.system
-        self.result = analysis.analyse(unit, system=self.system)
+        self.result = result if result is not None else analysis.analyse(unit, system=self.system)
         self.baseline = self.result
         self.message = "lower-case keys lower a value, capitals raise it; ? lists the keys"
         self.saved: Path | None = None
