@@ -53,6 +53,22 @@ def test_below_triple_point_is_refused():
         properties.saturation_temperature(500.0)
 
 
+@pytest.mark.parametrize("bad", [float("nan"), float("inf"), -float("inf"), 0.0, 611.0, 22.1e6])
+def test_every_value_off_the_saturation_line_is_refused_alone_or_in_an_array(bad):
+    # IF97's region 4 runs from the triple point (611.657 Pa, 273.16 K) to the critical
+    # point (22.064 MPa, 647.096 K) (IAPWS R7-97, section 8); nothing outside it, nor a
+    # NaN or an infinity, is ever passed on, whether alone or among good values.
+    for value in (bad, [101325.0, bad, 2e5]):
+        with pytest.raises(PropertyRangeError, match="outside IAPWS-IF97"):
+            properties.saturation_temperature(value)
+        with pytest.raises(PropertyRangeError, match="outside IAPWS-IF97"):
+            properties.latent_heat(value)
+    t_bad = {0.0: 273.0, 611.0: 273.15, 22.1e6: 648.0}.get(bad, bad)
+    for value in (t_bad, [373.15, t_bad]):
+        with pytest.raises(PropertyRangeError, match="outside IAPWS-IF97"):
+            properties.saturation_pressure(value)
+
+
 # Independent: CoolProp's own IF97 backend, over the whole saturation line from the
 # triple point to just below the critical point, to 1e-9 relative.
 def test_whole_saturation_line_against_coolprop_if97():

@@ -50,8 +50,9 @@ def _sat(function, value, quality: float, code: int):
 
 def _check_p(p):
     p = np.asarray(p, dtype=float)
-    if np.any(~np.isfinite(p)) or np.any(p < P_MIN) or np.any(p > P_CRIT):
-        bad = p[~((p >= P_MIN) & (p <= P_CRIT))]
+    inside = (p >= P_MIN) & (p <= P_CRIT)  # false for NaN and the infinities too
+    if not inside.all():
+        bad = p[~inside]
         raise PropertyRangeError(
             f"saturation pressure {bad.flat[0] / 1000:.3g} kPa(abs) is outside IAPWS-IF97's "
             f"saturation line ({P_MIN / 1000:.4g} kPa to {P_CRIT / 1e6:.4g} MPa)")
@@ -60,7 +61,7 @@ def _check_p(p):
 
 def _check_t(t):
     t = np.asarray(t, dtype=float)
-    if np.any(~np.isfinite(t)) or np.any(t < T_MIN) or np.any(t > T_CRIT):
+    if not ((t >= T_MIN) & (t <= T_CRIT)).all():  # false for NaN and the infinities too
         raise PropertyRangeError(f"temperature outside IAPWS-IF97's saturation line ({T_MIN} K to {T_CRIT} K)")
     return t
 
