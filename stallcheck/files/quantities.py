@@ -239,15 +239,18 @@ def _read(text: str) -> tuple[float, str] | str:
     """The number and the unit (in the unit file's spelling) of a quantity string, or
     why it cannot be read: ``"form"``, ``"comma"`` (a decimal comma) or ``"finite"``.
     Cached: a file is read once to choose its units and once for its values."""
-    fraction = _FRACTION.match(text)
-    if fraction and int(fraction.group(3)) > 0:
-        whole, top, bottom, unit_text = fraction.groups()
-        unit = typed_unit(unit_text)
-        return int(whole or 0) + int(top) / int(bottom), _SPELLINGS.get(unit, unit)
     match = _NUMBER_UNIT.match(text)
+    unit_text = match.group(2) if match else ""
+    # A fraction ("3/4 in", "1-1/4 in", "1 1/4 in") reads as a number and a unit
+    # starting with "/", "-" or a digit, or not at all: only then is it looked for.
+    if not match or unit_text[:1] in "/-" or unit_text[:1].isdigit():
+        fraction = _FRACTION.match(text)
+        if fraction and int(fraction.group(3)) > 0:
+            whole, top, bottom, fraction_unit = fraction.groups()
+            unit = typed_unit(fraction_unit)
+            return int(whole or 0) + int(top) / int(bottom), _SPELLINGS.get(unit, unit)
     if not match:
         return "form"
-    unit_text = match.group(2)
     if unit_text[:1] == "," and unit_text[1:2].isdigit():
         return "comma"
     value = float(match.group(1).replace(",", ""))
