@@ -36,7 +36,8 @@ def _eq(self, other) -> bool:
 
 
 def _hash(self) -> int:
-    return hash(_compared(self))
+    # the fields the dataclass decorator hashes: those that compare, unless told
+    return hash(tuple(getattr(self, f.name) for f in fields(self) if (f.compare if f.hash is None else f.hash)))
 
 
 def _refuse_set(self, name, value):

@@ -17,6 +17,7 @@ def _body():
         x: float
         y: float = 0.0
         note: str = dataclasses.field(default="", compare=False)
+        weight: float = dataclasses.field(default=1.0, hash=False)
         secret: int = dataclasses.field(default=0, repr=False)
         tags: tuple = dataclasses.field(default_factory=tuple)
 
@@ -32,7 +33,7 @@ def _pair(**options):
 @pytest.mark.parametrize("frozen", [True, False])
 def test_repr_equality_and_hash_as_the_standard_library_makes_them(frozen):
     ours, theirs = _pair(frozen=frozen)
-    cases = [("a", 1.0), ("a", 1.0, 2.0, "n"), ("b", 1.0, 0.0, "m", 7, ("t",))]
+    cases = [("a", 1.0), ("a", 1.0, 2.0, "n"), ("b", 1.0, 0.0, "m", 2.5, 7, ("t",))]
     for args in cases:
         a, b = ours(*args), theirs(*args)
         assert repr(a) == repr(b)
@@ -61,9 +62,10 @@ def test_frozen_instances_refuse_changes_and_the_dataclass_functions_work():
     with pytest.raises(dataclasses.FrozenInstanceError):
         del a.x
     assert dataclasses.is_dataclass(a)
-    assert [f.name for f in dataclasses.fields(a)] == ["name", "x", "y", "note", "secret", "tags"]
+    assert [f.name for f in dataclasses.fields(a)] == ["name", "x", "y", "note", "weight", "secret", "tags"]
     assert dataclasses.replace(a, y=3.0) == ours("a", 1.0, 3.0)
-    assert dataclasses.asdict(a) == {"name": "a", "x": 1.0, "y": 0.0, "note": "", "secret": 0, "tags": ()}
+    assert dataclasses.asdict(a) == {"name": "a", "x": 1.0, "y": 0.0, "note": "", "weight": 1.0, "secret": 0,
+                                     "tags": ()}
     mutable, _ = _pair(frozen=False)
     m = mutable("a", 1.0)
     m.x = 2.0
@@ -75,7 +77,7 @@ def test_the_constructor_is_the_standard_library_s():
 
     ours, theirs = _pair()
     assert str(inspect.signature(ours)) == str(inspect.signature(theirs))
-    for bad in [(), ("a",), ("a", 1.0, 2.0, "n", 0, (), "extra")]:
+    for bad in [(), ("a",), ("a", 1.0, 2.0, "n", 1.0, 0, (), "extra")]:
         with pytest.raises(TypeError):
             theirs(*bad)
         with pytest.raises(TypeError):

@@ -365,8 +365,9 @@ def _analyse(units: list[Unit], systems: list[str], tabulate: bool = True, compl
             trap_min_differential=float(b.trap_min[i]), lift=float(b.lift[i]), fill_head=float(b.fill_height[i]),
             supply_pressure=float(b.supply[i]), design=d, stall=s, points=points, stalled_hours=stalled_hours,
             total_hours=total_hours, drainage=drains[i], valve=valves[i], findings=(),
-            assumptions=_assumptions(u, bool(clipped[i]), traps[i]) if complete else (), trap=traps[i], pump_trap=pump, purge=purge,
-            flash=flashes[i], remedies=fixes[i], warnings=u.warnings, return_line=line, surge=shock,
+            assumptions=_assumptions(u, bool(clipped[i]), traps[i]) if complete else (), trap=traps[i],
+            pump_trap=pump, purge=purge, flash=flashes[i], remedies=fixes[i], warnings=u.warnings, return_line=line,
+            surge=shock,
             set_point_floor_load=float(floor_load[i]))
         # The rules read the finished result; their findings complete it before anyone
         # else sees it (set in place: a copy of every result costs a survey 10 % more).
