@@ -13,7 +13,9 @@ Prints medians of ``--repeat`` runs (default 3), interleaved with their floors:
   floor; and one what-if (a key's analysis and redraw), timed inside the app;
 * ``stallcheck survey`` of ``--units`` invented units (default 10,000 and 100,000), from
   a folder of TOML files and from one CSV table: the marginal cost per unit,
-  (t(N) − t(1)) / (N − 1), and the peak resident memory of the survey process.
+  (t(N) − t(1)) / (N − 1), and the peak resident memory of the survey process (and its
+  workers); at the smallest size also the CSV survey in one process (``--jobs 1``), the
+  work a unit costs whatever the processors.
 
 The invented units are generated here with a fixed seed (air preheat coils and
 steam-to-water heaters across plausible ranges), written to a temporary folder, and
@@ -222,19 +224,23 @@ def surveys(sizes: list[int], repeat: int) -> None:
             for k, u in enumerate(units[:n]):
                 (many / f"unit{k:06d}.toml").write_text(to_toml(u), encoding="utf-8")
             (work / f"many{n}.csv").write_text(to_csv(units[:n]), encoding="utf-8")
-            cases = [("TOML", many, one), ("CSV", work / f"many{n}.csv", work / "one.csv")]
-            for name, big, small in cases:
+            cases = [("TOML", many, one, []), ("CSV", work / f"many{n}.csv", work / "one.csv", [])]
+            if n == min(sizes):  # the work a unit costs, for comparison: one process, no target
+                cases.append(("CSV", work / f"many{n}.csv", work / "one.csv", ["--jobs", "1"]))
+            for name, big, small, options in cases:
                 t_big, t_small, memory = [], [], []
                 for _ in range(repeat if n <= 20_000 else 1):
-                    t, m = run([py, "-m", "stallcheck", "survey", str(big)])
+                    t, m = run([py, "-m", "stallcheck", "survey", str(big), *options])
                     t_big.append(t)
                     memory.append(m)
                     t_small.append(run([py, "-m", "stallcheck", "survey", str(small)])[0])
                 big_t, small_t = statistics.median(t_big), statistics.median(t_small)
                 marginal = (big_t - small_t) / (n - 1) * 1000.0
                 mem = "" if n < max(sizes) else f"  {verdict(max(memory), TARGETS['memory'])} MB"
+                target = (f"{verdict(marginal, TARGETS['survey ' + name])}" if not options
+                          else "one process, no target")
                 print(f"survey {name:4s} {n:>7,} units {big_t:6.1f} s: {marginal:5.3f} ms/unit  "
-                      f"{verdict(marginal, TARGETS['survey ' + name])}; peak {max(memory):3.0f} MB{mem}")
+                      f"{target}; peak {max(memory):3.0f} MB{mem}")
             shutil.rmtree(many, ignore_errors=True)
     finally:
         shutil.rmtree(work, ignore_errors=True)
