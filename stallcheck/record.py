@@ -6,8 +6,10 @@ source: six for a frozen class (``__init__``, ``__repr__``, ``__eq__``, ``__hash
 ``__setattr__``, ``__delattr__``), about 0.2 ms each here. With some forty classes
 between the inputs, the result and the presenters that was 40-50 ms of every command's
 start, a fifth of a check. :func:`record` compiles only ``__init__`` (the one method
-whose speed matters, as a survey makes a million objects) and gives every class the same
-plain functions for the rest, which read the fields at call time. The classes behave as
+whose speed matters, as a survey makes a million objects), and that only once a class has
+made :data:`COMPILE_AFTER` objects through a shared constructor (a check makes a few of
+each, a survey many); every class has the same plain functions for the rest, which read
+the fields at call time. The classes behave as
 the dataclass decorator makes them: same constructor, repr, equality and hash (from the
 fields that compare, in order), a frozen one refuses assignment with
 :class:`dataclasses.FrozenInstanceError`, and :func:`dataclasses.fields`,
@@ -91,17 +93,85 @@ def _init(cls, frozen: bool):
     return init
 
 
+#: Objects a class makes through the shared constructor before its own is compiled.
+COMPILE_AFTER = 32
+
+
+class _Signature:
+    """A class's ``__signature__``, asked for by :func:`inspect.signature`: it compiles
+    the class's own constructor, whose signature inspect then reads (it reads this
+    attribute first, and goes on to ``__init__`` where it is None)."""
+
+    def __get__(self, instance, owner):
+        if owner is not None and "__record_frozen__" in vars(owner):
+            _compile(owner)
+        return None
+
+
+def _compile(cls):
+    """Give ``cls`` its own compiled constructor (once) and return it."""
+    if vars(cls).get("__init__") is vars(cls).get("__record_shared__"):
+        cls.__init__ = _init(cls, cls.__record_frozen__)
+    return cls.__init__
+
+
+def _shared_init(cls, frozen: bool):
+    """A constructor for ``cls`` that compiles nothing: it binds the arguments from the
+    fields' list, and after :data:`COMPILE_AFTER` objects (a survey makes a million)
+    gives the class the compiled one. Any call it does not bind plainly (a missing,
+    extra or repeated argument) goes to the compiled constructor, which raises exactly
+    as the dataclass decorator's does."""
+    plan = [(f.name, f.init, f.default, f.default_factory) for f in fields(cls)]
+    names = [name for name, init, _, _ in plan if init]
+    known = frozenset(names)
+    set_field = object.__setattr__
+    post_init = hasattr(cls, "__post_init__")
+    made = 0
+
+    def __init__(self, *args, **kwargs):
+        nonlocal made
+        made += 1
+        if made > COMPILE_AFTER or len(args) > len(names) or not known.issuperset(kwargs):
+            return _compile(cls)(self, *args, **kwargs)
+        given = dict(zip(names, args))
+        for name in kwargs:
+            if name in given:
+                return _compile(cls)(self, *args, **kwargs)
+        given.update(kwargs)
+        for name, init, default, factory in plan:
+            if init and name in given:
+                value = given[name]
+            elif default is not MISSING:
+                value = default
+            elif factory is not MISSING:
+                value = factory()
+            elif init:  # a required argument not given
+                return _compile(cls)(self, *args, **kwargs)
+            else:
+                continue
+            set_field(self, name, value)
+        if post_init:
+            self.__post_init__()
+
+    __init__.__qualname__ = f"{cls.__qualname__}.__init__"
+    __init__.__module__ = cls.__module__
+    return __init__
+
+
 def record(cls=None, /, *, frozen: bool = True):
     """Make ``cls`` a dataclass (frozen unless ``frozen=False``) with value equality, a
     field repr and, when frozen, a hash from its fields: as ``@dataclass(frozen=True)``
-    makes it, compiling one method instead of six. Keyword-only fields and ``InitVar``
+    makes it, compiling one method instead of six, and that only when the class is much
+    used (see :func:`_shared_init`). Keyword-only fields and ``InitVar``
     pseudo-fields are not taken (none of the project's classes has them)."""
 
     def wrap(c):
         made = dataclass(c, init=False, repr=False, eq=False)
         if any(f.kw_only is True for f in fields(made)):
             raise TypeError(f"{c.__qualname__}: record takes no keyword-only fields; use dataclasses.dataclass")
-        made.__init__ = _init(made, frozen)
+        made.__record_frozen__ = frozen
+        made.__record_shared__ = made.__init__ = _shared_init(made, frozen)
+        made.__signature__ = _Signature()
         if frozen:
             made.__setattr__ = _refuse_set
             made.__delattr__ = _refuse_delete

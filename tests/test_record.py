@@ -122,3 +122,30 @@ def test_the_project_classes_are_records():
     finding = result.Finding("x", "info", ("what",), {"y": 1.0})
     assert finding == result.Finding("x", "info", ("what",), {"y": 1.0})
     assert finding != result.Finding("x", "warning", ("what",), {"y": 1.0})
+
+
+def test_objects_made_before_and_after_the_constructor_is_compiled_are_the_same():
+    # The first objects of a class are made by a shared constructor (nothing compiled at
+    # import); from COMPILE_AFTER on by the class's own. Both must make what the
+    # standard library's makes, and refuse what it refuses with its very words.
+    from stallcheck import record as module
+
+    ours, theirs = _pair()
+    calls = [("a", 1.0), ("a", 1.0, 2.0), (), ("b",)]
+    kwargs = [{}, {"tags": ("t",)}, {"name": "c", "x": 3.0, "weight": 2.0}, {"colour": "red"}, {"name": "d"}]
+    assert vars(ours)["__init__"] is ours.__record_shared__
+    for k in range(module.COMPILE_AFTER + 8):
+        args, kw = calls[k % len(calls)], kwargs[k % len(kwargs)]
+        try:
+            expected = theirs(*args, **kw)
+        except TypeError as exc:
+            with pytest.raises(TypeError) as got:
+                ours(*args, **kw)
+            assert str(got.value).replace(ours.__qualname__, "") == str(exc).replace(theirs.__qualname__, "")
+        else:
+            assert repr(ours(*args, **kw)) == repr(expected)
+    assert vars(ours)["__init__"] is not ours.__record_shared__  # compiled by now
+    assert repr(ours("a", 1.0)) == repr(theirs("a", 1.0))
+    # a factory default is made anew for each object, in both phases
+    fresh, _ = _pair()
+    assert fresh("a", 1.0).tags == () and fresh("a", 1.0, tags=[]).tags is not fresh("a", 1.0, tags=[]).tags
