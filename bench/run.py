@@ -209,21 +209,30 @@ def ratios(repeat: int) -> None:
     shutil.rmtree(home, ignore_errors=True)
 
 
+def write_units(n: int, folder: Path, csv_file: Path) -> None:
+    """The first ``n`` invented units as a folder of unit files and as one CSV table."""
+    units = invented(n)
+    folder.mkdir()
+    for k, u in enumerate(units):
+        (folder / f"unit{k:06d}.toml").write_text(to_toml(u), encoding="utf-8")
+    csv_file.write_text(to_csv(units), encoding="utf-8")
+
+
 def surveys(sizes: list[int], repeat: int) -> None:
     py = sys.executable
-    units = invented(max(sizes))
     work = Path(tempfile.mkdtemp(prefix="stallcheck-bench-"))
+
+    def make(n: int, folder: Path, csv_file: Path) -> None:
+        # In a process of its own: a child's peak memory as the kernel reports it is at
+        # least its parent's at the fork, so this process must never hold the units.
+        subprocess.run([py, __file__, "--write", str(n), str(folder), str(csv_file)], check=True)
+
     try:
+        make(1, work / "one", work / "one.csv")
         one = work / "one"
-        one.mkdir()
-        (one / "unit00000.toml").write_text(to_toml(units[0]), encoding="utf-8")
-        (work / "one.csv").write_text(to_csv(units[:1]), encoding="utf-8")
         for n in sizes:
             many = work / f"many{n}"
-            many.mkdir()
-            for k, u in enumerate(units[:n]):
-                (many / f"unit{k:06d}.toml").write_text(to_toml(u), encoding="utf-8")
-            (work / f"many{n}.csv").write_text(to_csv(units[:n]), encoding="utf-8")
+            make(n, many, work / f"many{n}.csv")
             cases = [("TOML", many, one, []), ("CSV", work / f"many{n}.csv", work / "one.csv", [])]
             if n == min(sizes):  # the work a unit costs, for comparison: one process, no target
                 cases.append(("CSV", work / f"many{n}.csv", work / "one.csv", ["--jobs", "1"]))
@@ -251,7 +260,11 @@ def main() -> None:
     parser.add_argument("--repeat", type=int, default=3)
     parser.add_argument("--units", default="10000,100000",
                         help="survey sizes, comma-separated (default 10000,100000)")
+    parser.add_argument("--write", nargs=3, metavar=("N", "FOLDER", "CSV"), help=argparse.SUPPRESS)
     args = parser.parse_args()
+    if args.write:
+        write_units(int(args.write[0]), Path(args.write[1]), Path(args.write[2]))
+        return
     print(f"{time.strftime('%Y-%m-%d')}, {os.cpu_count()} cores, median of {args.repeat} runs "
           f"(one run above 20,000 units); floor: python -c 'import numpy, typer, rich'")
     ratios(args.repeat)

@@ -10,6 +10,7 @@ from __future__ import annotations
 
 import os
 import sys
+from dataclasses import fields
 from pathlib import Path
 from typing import Callable, Iterable, Iterator
 
@@ -319,16 +320,38 @@ def _in_parallel(chunks: Iterator[list], workers: int, system: str | None, metho
     pending: deque = deque()
     try:
         for chunk in chunks:
-            pending.append(pool.submit(_work, chunk, system, method, False, False))
+            pending.append(pool.submit(_shipped, chunk, system, method))
             if len(pending) >= 2 * workers:
-                take(pending.popleft().result())
+                take(_received(pending.popleft().result()))
         while pending:
-            take(pending.popleft().result())
+            take(_received(pending.popleft().result()))
     except BrokenProcessPool:
         raise StallcheckError("a survey process stopped before its units were done (short of memory?); "
                               "survey again with --jobs 1.") from None
     finally:
         pool.shutdown(wait=not pending, cancel_futures=True)
+
+
+#: A summary's fields, in order; those whose words repeat from unit to unit.
+_FIELDS = tuple(f.name for f in fields(Summary))
+_REPEATED = frozenset({"system", "required", "installed", "top_code", "top_severity", "return_pattern"})
+_SHARED = tuple(name in _REPEATED for name in _FIELDS)
+
+
+def _shipped(chunk: list, system: str | None, method: str | None) -> list:
+    """:func:`_work` in a worker process, each summary sent as the tuple of its fields
+    (smaller to send than the object; :func:`_received` makes it a Summary again)."""
+    return [entry if isinstance(entry, Failure) else tuple(getattr(entry[0], name) for name in _FIELDS)
+            for entry in _work(chunk, system, method, False, False)]
+
+
+def _received(out: list) -> list:
+    """A worker's output as :func:`_work` gives it, each summary rebuilt with its
+    repeated words held once: at 100,000 units the summaries are most of a survey's
+    memory."""
+    return [entry if isinstance(entry, Failure) else
+            (Summary(*(sys.intern(v) if shared and isinstance(v, str) else v for v, shared in zip(entry, _SHARED))),
+             None) for entry in out]
 
 
 def _worker_start() -> None:
