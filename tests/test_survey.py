@@ -320,3 +320,21 @@ def test_the_samples_summaries_are_those_of_their_full_results():
     for a, b in zip(full, table):
         assert survey.Summary.of(a) == survey.Summary.of(b)
         assert a.findings == b.findings
+
+
+@settings(max_examples=300, deadline=None)
+@given(st.text(alphabet=st.sampled_from(list('ab,"\n\r \u2028\x0c\x1c\u0085')), max_size=40))
+def test_csv_lines_are_the_standard_library_s(text):
+    # A table's text is cut into lines as io.StringIO (the reference) cuts it: at "\n"
+    # alone, each line keeping its newline; csv then reads "\r\n" and quotes itself.
+    import csv
+    import io
+
+    def rows(lines):
+        try:
+            return list(csv.reader(lines))
+        except csv.Error as exc:
+            return str(exc)
+
+    assert list(csvunits._lines(text)) == list(io.StringIO(text))
+    assert rows(csvunits._lines(text)) == rows(io.StringIO(text))
