@@ -29,13 +29,8 @@ def read(r, atm: float) -> Drain:
     dpmin = r.quantity(d, "drain", "trap_min_differential", q.differential, default="0 psi")
     if dpmin < 0:
         raise InputError("drain.trap_min_differential", "cannot be negative.")
-    rows = d.get("capacity", [])
-    if not isinstance(rows, list) or not all(isinstance(b, dict) for b in rows):
-        raise InputError("drain.capacity", "must be an array of tables: [[drain.capacity]] blocks.")
     capacity = []
-    for i, row in enumerate(rows, start=1):
-        section = f"drain.capacity[{i}]"
-        r.unknown(row, "drain.capacity")
+    for section, row in r.rows(d, "drain", "capacity"):
         dp = r.quantity(row, section, "differential", q.differential)
         w = r.quantity(row, section, "flow", q.mass_flow)
         require_positive(f"{section}.differential", dp)
@@ -64,7 +59,7 @@ def _drain_devices(r, d: dict, atm: float) -> dict:
                 raise InputError(f"drain.{key}", f"\"{d[key]}\" is over 1 m; check the units.")
             out[key] = value
     if isinstance(d.get("pump_capacity"), list):
-        out["pump_table"] = _pump_table(r, d["pump_capacity"], atm)
+        out["pump_table"] = _pump_table(r, d, atm)
     for key in ("purge_rate",) if "pump_table" in out else ("pump_capacity", "purge_rate"):
         value = r.optional(d, "drain", key, q.mass_flow)
         if value is not None:
@@ -78,10 +73,9 @@ def _drain_devices(r, d: dict, atm: float) -> dict:
             raise InputError("drain.pump_fill_head", f"\"{d['pump_fill_head']}\" is out of range; "
                                                      "accepted: 0 to 10 m.")
         out["pump_fill_head"] = fill
-    motive = r.optional(d, "drain", "motive_pressure", q.pressure)
+    motive = _absolute(r, d, "motive_pressure", atm)
     if motive is not None:
-        out["motive_pressure"] = motive.absolute(atm)
-        check_pressure_range("drain.motive_pressure", out["motive_pressure"], d["motive_pressure"])
+        out["motive_pressure"] = motive
     t = r.optional(d, "drain", "return_temperature", q.temperature)
     if t is not None:
         if not 273.15 <= t <= 473.15:
@@ -90,6 +84,17 @@ def _drain_devices(r, d: dict, atm: float) -> dict:
         out["return_temperature"] = t
     out.update(_return_line(r, d, atm))
     return out
+
+
+def _absolute(r, d: dict, key: str, atm: float) -> float | None:
+    """An optional pressure of the ``[drain]`` table, absolute [Pa] and on the steam
+    tables' range; None where the file leaves it out."""
+    pressure = r.optional(d, "drain", key, q.pressure)
+    if pressure is None:
+        return None
+    value = pressure.absolute(atm)
+    check_pressure_range(f"drain.{key}", value, d[key])
+    return value
 
 
 def _return_line(r, d: dict, atm: float) -> dict:
@@ -116,10 +121,9 @@ def _return_line(r, d: dict, atm: float) -> dict:
         if wall > 0.05:
             raise InputError("drain.return_wall", f"\"{d['return_wall']}\" is over 50 mm; check the units.")
         out["return_wall"] = wall
-    rating = r.optional(d, "drain", "return_rating", q.pressure)
+    rating = _absolute(r, d, "return_rating", atm)
     if rating is not None:
-        out["return_rating"] = rating.absolute(atm)
-        check_pressure_range("drain.return_rating", out["return_rating"], d["return_rating"])
+        out["return_rating"] = rating
     rate = r.optional(d, "drain", "pump_rate", q.mass_flow)
     if rate is not None:
         require_positive("drain.pump_rate", rate, f", got \"{d['pump_rate']}\"")
@@ -133,15 +137,11 @@ def _return_line(r, d: dict, atm: float) -> dict:
     return out
 
 
-def _pump_table(r, rows, atm: float) -> tuple:
+def _pump_table(r, d: dict, atm: float) -> tuple:
     """``[[drain.pump_capacity]]``: the maker's pumping capacity against back pressure."""
-    if not all(isinstance(row, dict) for row in rows):
-        raise InputError("drain.pump_capacity", "takes a mass flow, or [[drain.pump_capacity]] rows of "
-                                                "back_pressure and flow.")
     table = []
-    for i, row in enumerate(rows, start=1):
-        section = f"drain.pump_capacity[{i}]"
-        r.unknown(row, "drain.pump_capacity")
+    for section, row in r.rows(d, "drain", "pump_capacity", refused="takes a mass flow, or "
+                               "[[drain.pump_capacity]] rows of back_pressure and flow."):
         back = r.quantity(row, section, "back_pressure", q.pressure).absolute(atm)
         check_pressure_range(f"{section}.back_pressure", back, row.get("back_pressure"))
         flow = r.quantity(row, section, "flow", q.mass_flow)

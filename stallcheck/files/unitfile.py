@@ -246,6 +246,19 @@ class _Reader:
             if key not in _KNOWN[name]:
                 raise unknown_key(name, key)
 
+    def rows(self, table: dict, section: str, key: str, refused: str | None = None):
+        """The rows of the array of tables ``[[section.key]]`` (none where absent), each
+        as its name for messages (``"load.bins[2]"``) and its table, whose keys are
+        checked as it is reached. ``refused``: what to say where the value is not an
+        array of tables (default: that it must be one)."""
+        name = f"{section}.{key}"
+        rows = table.get(key, [])
+        if not isinstance(rows, list) or not all(isinstance(row, dict) for row in rows):
+            raise InputError(name, refused or f"must be an array of tables: [[{name}]] blocks.")
+        for i, row in enumerate(rows, start=1):
+            self.unknown(row, name)
+            yield f"{name}[{i}]", row
+
     def vote(self, text) -> None:
         if q.is_us(text):
             self.us_votes += 1
@@ -482,13 +495,8 @@ def _load(r: _Reader, design: Design) -> Load:
     else:
         varies = r.choice(table, "load", "varies", VARIES)
     minimum = r.number(table, "load", "minimum", 0.0, 1.0, default=0.0, high_open=True)
-    bins_raw = table.get("bins", [])
-    if not isinstance(bins_raw, list) or not all(isinstance(b, dict) for b in bins_raw):
-        raise InputError("load.bins", "must be an array of tables: [[load.bins]] blocks.")
     bins = []
-    for i, b in enumerate(bins_raw, start=1):
-        section = f"load.bins[{i}]"
-        r.unknown(b, "load.bins")
+    for section, b in r.rows(table, "load", "bins"):
         hours = r.number(b, section, "hours", 0.0, 8784.0)
         if varies == "inlet-temperature":
             if "inlet_temperature" not in b:
