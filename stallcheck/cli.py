@@ -373,7 +373,8 @@ def survey(paths: list[Path] = typer.Argument(..., help="Unit files, folders of 
         from stallcheck.render.survey import JsonStream
 
         stream = JsonStream(sys.stdout)
-    total = surveymod.count(found)
+    # the number of units sizes the progress bar and decides the processes
+    total = surveymod.count(found) if sys.stderr.isatty() or (jobs is None and not json) else 0
     progress = None
     if sys.stderr.isatty() and total > PROGRESS_FROM:
         from rich.progress import Progress

@@ -158,12 +158,6 @@ def count(files: list[Path]) -> int:
     return total
 
 
-def units(files: list[Path]) -> Iterator:
-    """Each unit read from the files, as a Unit or, where it cannot be read, a Failure."""
-    for item in _items(files):
-        yield _unit(item)
-
-
 def _items(files: list[Path]) -> Iterator:
     """What each unit is read from, in order, without reading it: a unit file's path, a
     CSV row as ``(file, line, columns, cells)``, or the Failure of a file or row that
