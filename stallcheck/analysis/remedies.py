@@ -197,6 +197,10 @@ class _Limits:
         key = "design.steam_pressure"
         if breaker_drains and self.adequate:
             return Remedy(key, "pressure", current, None, "breaker", "any", False)
+        if self.adequate and design in ("none", "too-high"):
+            # it drains now (its vacuum breaker acts, with less than the margin), and no
+            # design pressure would give the margin through the coil: no change, no margin
+            return self.tight(key, "pressure", current)
         if design == "any":
             return Remedy(key, "pressure", current, None, "any", "any", False, {"threshold": threshold})
         if design == "none":
