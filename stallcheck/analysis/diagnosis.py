@@ -15,7 +15,6 @@ from __future__ import annotations
 import numpy as np
 
 from stallcheck import analysis
-from stallcheck.analysis import layout
 from stallcheck.analysis.findings import POOR_AT_LOW_DIFFERENTIAL
 from stallcheck.errors import InputError
 from stallcheck.files import quantities as q
@@ -24,7 +23,7 @@ from stallcheck.inputs import Unit
 from stallcheck.physics import coil as coilmod
 from stallcheck.physics import properties
 from stallcheck.physics.constants import GRAVITY
-from stallcheck.physics.devices import MOTIVE_MARGIN, TrapCapacity
+from stallcheck.physics.devices import MOTIVE_MARGIN, RATING_SHARE, TrapCapacity
 from stallcheck.record import record
 from stallcheck.result import Result
 
@@ -223,7 +222,6 @@ def diagnose(unit: Unit, result: Result, readings: Readings) -> Diagnosis:
 
 def _facts(unit, r, readings, load, model_p, condensate, back, fill, stalled_model, stalled_gauges,
            agreement) -> dict:
-    g = unit.geometry
     dr = unit.drain
     s = r.stall
     noise = set(readings.noise)
@@ -243,6 +241,7 @@ def _facts(unit, r, readings, load, model_p, condensate, back, fill, stalled_mod
         and readings.outlet_temperature < unit.design.outlet_temperature - OUTLET_SHORTFALL))
     pt = r.pump_trap
     pump = installed == "pump-trap" and pt is not None
+    found = {f.code for f in r.findings}
     return {
         "breaker_holding_vacuum": bool(installed == "trap-vacuum-breaker" and coil_reading is not None
                                        and coil_reading < atm - BREAKER_VACUUM),
@@ -269,23 +268,21 @@ def _facts(unit, r, readings, load, model_p, condensate, back, fill, stalled_mod
         "reading_low": agreement == "low",
         "outlet_low": bool(readings.outlet_temperature is not None
                            and readings.outlet_temperature < unit.design.outlet_temperature - OUTLET_SHORTFALL),
-        "centre_fed": bool(g and g.supply_feed == "center" and not g.distributing_tubes),
-        "group_trapped": bool(g and g.coils_per_trap and g.coils_per_trap > 1),
-        "drop_unvented": bool(g and g.drop_vented is False and (
-            g.drop_to_trap if g.drop_to_trap is not None else dr.fill_head) >= layout.LONG_DROP),
-        "no_drip": bool(g and g.drip_before_valve is False),
-        "not_pitched": bool(g and g.tubes == "horizontal" and g.pitched_to_return is False),
+        # the check's own findings: one rule, one place
+        "centre_fed": "tube-fill-both-ends" in found,
+        "group_trapped": "group-trapping" in found,
+        "drop_unvented": "drop-not-vented" in found,
+        "no_drip": "valve-not-dripped" in found,
+        "not_pitched": "tubes-not-pitched" in found,
         "lift_after_trap": dr.lift > 0,
         "trap_short_now": trap_short,
         "trap_undersized": bool(r.trap is not None and r.trap.capacity_ok is False),
         "poor_trap_type": dr.trap in POOR_AT_LOW_DIFFERENTIAL,
         "valve_cycling": bool(v is not None and load is not None and load < v.min_controllable_load),
-        "valve_oversized": bool(v is not None and v.capacity_ok and v.opening_design < 0.5),
+        "valve_oversized": "valve-oversized" in found,
         "freezing_air": bool(r.medium == "air" and inlet_now is not None and inlet_now < 273.15),
-        "cool_return": bool(dr.return_temperature is not None and r.flash is not None
-                            and dr.return_temperature < r.flash.return_saturation_temperature - 5.0
-                            and r.flash.fraction > 0),
-        "return_slugging": bool(r.return_line is not None and r.return_line.slugging),
+        "cool_return": "flash-into-cool-return" in found,
+        "return_slugging": "return-line-slug-flow" in found,
         "surge_high": _surge_high(r),
     }
 
@@ -296,13 +293,14 @@ LARGE_SURGE = 1.0e6
 
 
 def _surge_high(r: Result) -> bool:
-    """True where the computed surge takes the line near or past its rating (80 %), or,
-    with no rating given, above :data:`LARGE_SURGE`."""
+    """True where the computed surge takes the line near or past its rating
+    (:data:`devices.RATING_SHARE` of it), or, with no rating given, above
+    :data:`LARGE_SURGE`."""
     sh = r.surge
     if sh is None:
         return False
     if sh.rating is not None:
-        return sh.peak >= 0.8 * sh.rating
+        return sh.peak >= RATING_SHARE * sh.rating
     return sh.surge >= LARGE_SURGE
 
 

@@ -10,7 +10,7 @@ from __future__ import annotations
 from stallcheck.analysis import layout
 from stallcheck.inputs import Unit
 from stallcheck.physics.constants import VELOCITY_LIMIT
-from stallcheck.physics.devices import MOTIVE_MARGIN
+from stallcheck.physics.devices import MOTIVE_MARGIN, RATING_SHARE
 from stallcheck.result import Finding, Result
 
 FREEZING = 273.15
@@ -25,8 +25,9 @@ POOR_AT_LOW_DIFFERENTIAL = frozenset({"thermodynamic", "thermostatic", "bimetall
 #: A return line pitched less than this in the direction of flow is flatter than common
 #: practice (1 in in 40 ft, about 0.2 %; from memory) [-].
 LEAST_PITCH = 1.0 / 480.0
-#: Share of the line's rating a surge peak is held to (see ``devices.RATING_SHARE``).
-RATING_SHARE = 0.8
+#: Flash meeting condensate more than this below its saturation temperature collapses
+#: (condensation-induced hammer) [K] (5 K; common practice, from memory).
+SUBCOOLING = 5.0
 
 #: A working differential below this is low for traps that need one to operate [Pa]
 #: (1 psi; common practice, from memory).
@@ -144,7 +145,7 @@ def _devices(unit: Unit, r: Result) -> list[Finding]:
                 {"fraction": fl.fraction, "velocity": fl.velocity, "bore": fl.line_diameter,
                  "limit": VELOCITY_LIMIT}))
         if (fl.return_temperature is not None and fl.fraction > 0
-                and fl.return_temperature < fl.return_saturation_temperature - 5.0):
+                and fl.return_temperature < fl.return_saturation_temperature - SUBCOOLING):
             out.append(Finding(
                 "flash-into-cool-return", "warning", ("",),
                 {"fraction": fl.fraction, "return_temperature": fl.return_temperature,

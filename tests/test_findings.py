@@ -1,0 +1,448 @@
+"""Every finding code, held by a scenario of its own (``analysis/findings.py`` and
+``analysis/layout.py``): the code appears with its severity and the facts its message
+quotes, and a case on the other side of its rule does not raise it. Removing any code
+from the analysis fails at least one test here.
+
+Each scenario is an invented air coil (5,000 cfm, 0 °F to 55 °F, 5 psig at full load,
+15 psig supply) changed in one table; the expected figures are worked by hand beside the
+check from outside values: IAPWS-IF97 through the independent ``iapws`` package, exact
+unit definitions (1 ft = 0.3048 m, 1 psi = 6,894.757 Pa), published formulas, and facts
+of the trade marked "common practice".
+"""
+
+from __future__ import annotations
+
+import copy
+import math
+
+import pytest
+from iapws import IAPWS97
+
+from stallcheck import analysis
+from stallcheck.files import unitfile
+
+PSI = 6894.757293168
+ATM = 101325.0
+FT = 0.3048
+INCH = 0.0254
+G = 9.80665
+
+BASE = {
+    "format": 1, "unit": {"name": "Wrenfield test coil"},
+    "design": {"medium": "air", "flow": "5000 cfm", "inlet_temperature": "0 degF",
+               "outlet_temperature": "55 degF", "steam_pressure": "5 psig"},
+    "steam": {"supply_pressure": "15 psig"},
+    "valve": {"cv": 12, "characteristic": "equal-percentage"},
+    "load": {"minimum": 0.2},
+    "drain": {"arrangement": "trap", "trap": "float-thermostatic", "fill_head": "18 in", "lift": "0 ft",
+              "return_pressure": "0 psig"},
+}
+
+#: A pump-trap lifting 8 ft on 50 psig motive steam.
+PUMP = {"lift": "8 ft", "arrangement": "pump-trap", "motive_pressure": "50 psig"}
+
+#: Every layout fault at once (``[geometry]``).
+BAD_LAYOUT = {"tubes": "horizontal", "supply_feed": "center", "distributing_tubes": False,
+              "pitched_to_return": False, "coils_per_trap": 2, "drop_to_trap": "4 ft",
+              "drop_vented": False, "drip_before_valve": False}
+
+
+def analyse(**tables):
+    """The base coil with each named table updated (``None`` removes the table)."""
+    data = copy.deepcopy(BASE)
+    for name, values in tables.items():
+        if values is None:
+            data.pop(name, None)
+        else:
+            data.setdefault(name, {}).update(values)
+    return analysis.analyse(unitfile.from_data(data, "wrenfield.toml"))
+
+
+def found(r, code):
+    """The one finding of ``code`` in a result, or None."""
+    hits = [f for f in r.findings if f.code == code]
+    assert len(hits) <= 1, hits
+    return hits[0] if hits else None
+
+
+def rho_liquid(p):
+    """Saturated liquid density [kg/m³] at ``p`` [Pa] (IAPWS-IF97, ``iapws``)."""
+    return IAPWS97(P=p / 1e6, x=0).rho
+
+
+def f_to_k(t):
+    return (t - 32.0) / 1.8 + 273.15
+
+
+# --- the stall and the verdict ---------------------------------------------------------
+
+def test_stall_at_full_load_where_the_return_is_above_the_design_coil_pressure():
+    # Common practice: a back pressure above the coil's full-load pressure floods the coil
+    # at every load. 8 psig return against a 5 psig coil; gauge + 14.696 psi = absolute.
+    r = analyse(drain={"return_pressure": "8 psig"})
+    f = found(r, "stall-at-full-load")
+    assert f is not None and f.severity == "danger"
+    assert f.facts["back"] == pytest.approx(ATM + 8 * PSI, rel=1e-9)
+    assert f.facts["design"] == pytest.approx(ATM + 5 * PSI, rel=1e-9)
+    inadequate = found(r, "drainage-inadequate")
+    assert inadequate is not None and inadequate.severity == "danger"
+    # 4 psig return, below the 5 psig coil: no full-load stall
+    assert found(analyse(drain={"return_pressure": "4 psig"}), "stall-at-full-load") is None
+
+
+def test_stall_in_operating_range_sits_where_coil_and_fill_head_meet_the_back_pressure():
+    # The stall rule (common practice): the trap discharges while
+    # p_coil + ρ·g·fill > p_return + ρ·g·lift. 8 ft of lift, 18 in of fill head, return
+    # open to atmosphere: the coil stalls at p = 101.325 kPa + ρ·g·(2.4384 − 0.4572) m,
+    # ρ of saturated water at the return pressure (IF97).
+    r = analyse(drain={"lift": "8 ft"})
+    f = found(r, "stall-in-operating-range")
+    assert f is not None and f.severity == "warning"
+    stall = ATM + rho_liquid(ATM) * G * (8 * FT - 18 * INCH)
+    assert f.facts["coil"] == pytest.approx(stall, rel=1e-6)
+    assert f.facts["installed"] == "trap" and f.facts["required"] == "pump-trap"
+    assert 0.2 < f.facts["load"] < 1.0
+    # condensate at the stall point: the load there over h_fg (IF97, iapws)
+    h_fg = (IAPWS97(P=stall / 1e6, x=1).h - IAPWS97(P=stall / 1e6, x=0).h) * 1e3
+    assert f.facts["condensate"] == pytest.approx(f.facts["load"] * r.design.load / h_fg, rel=1e-6)
+    # a pump-trap installed handles it: the same stall, told as information
+    handled = found(analyse(drain=PUMP), "stall-in-operating-range")
+    assert handled is not None and handled.severity == "info" and "handled" in handled.parts
+    # running only above the stall load: nothing in range
+    assert found(analyse(drain={"lift": "8 ft"}, load={"minimum": 0.99}), "stall-in-operating-range") is None
+
+
+def test_drainage_inadequate_where_a_plain_trap_serves_a_coil_that_stalls_in_range():
+    r = analyse(drain={"lift": "8 ft"})
+    f = found(r, "drainage-inadequate")
+    assert f is not None and f.severity == "warning"
+    assert f.facts == {"installed": "trap", "required": "pump-trap"}
+    # the pump-trap the rule asks for drains it
+    assert found(analyse(drain=PUMP), "drainage-inadequate") is None
+
+
+def test_freeze_risk_where_the_coil_stalls_with_air_below_freezing():
+    # Fixed air flow: the load fraction is (T_out − T_in)/(T_out − T_in,design), so the
+    # air entering at the stall load f is 55 °F − f·55 °F. Below 32 °F with a plain
+    # trap: a coil that floods with freezing air across it (common practice: freeze
+    # damage of preheat coils).
+    r = analyse(drain={"lift": "8 ft"})
+    f = found(r, "freeze-risk")
+    load = r.stall.load_fraction
+    assert f is not None and f.severity == "danger"
+    assert f.facts["inlet"] == pytest.approx(f_to_k(55.0 - load * 55.0), abs=1e-6)
+    assert f.facts["freezing"] == pytest.approx(273.15)
+    # drained by a pump-trap: information, not danger
+    drained = found(analyse(drain=PUMP), "freeze-risk")
+    assert drained is not None and drained.severity == "info"
+    # a reheat coil (50 °F to 90 °F): the air at the stall is well above freezing
+    warm = analyse(drain={"lift": "8 ft"}, design={"inlet_temperature": "50 degF", "outlet_temperature": "90 degF"})
+    assert warm.stall.in_range and found(warm, "freeze-risk") is None
+
+
+def test_lift_after_a_plain_trap_in_range_and_not_after_a_pump_trap():
+    r = analyse(drain={"lift": "8 ft"})
+    f = found(r, "lift-after-trap")
+    assert f is not None and f.severity == "warning"
+    assert f.facts["lift"] == pytest.approx(8 * FT, rel=1e-12)  # 1 ft = 0.3048 m exactly
+    assert found(analyse(drain=PUMP), "lift-after-trap") is None
+    assert found(analyse(drain={"lift": "0 ft"}), "lift-after-trap") is None
+
+
+def test_trap_type_poor_at_low_differential_on_a_modulating_coil():
+    # Common practice (VA HVAC Design Manual): float-and-thermostatic traps on modulating
+    # steam coils; thermodynamic traps need a differential to close and reopen.
+    f = found(analyse(drain={"lift": "8 ft", "trap": "thermodynamic"}), "trap-type-modulating")
+    assert f is not None and f.severity == "warning" and f.facts["trap"] == "thermodynamic"
+    assert found(analyse(drain={"lift": "8 ft"}), "trap-type-modulating") is None
+
+
+# --- the control valve -------------------------------------------------------------------
+
+def _required_cv(r):
+    return r.valve.required_cv_design
+
+
+def test_valve_too_small_where_the_open_valve_cannot_pass_the_design_steam():
+    r = analyse(valve={"cv": 2})
+    f = found(r, "valve-too-small")
+    assert f is not None and f.severity == "warning"
+    assert f.facts["cv"] == 2.0 and f.facts["required_cv"] > 2.0
+    assert 0.0 < f.facts["limited_load"] < 1.0
+    assert found(analyse(valve={"cv": 12}), "valve-too-small") is None
+
+
+def test_valve_oversized_where_it_runs_less_than_half_open_at_design():
+    # An equal-percentage valve (IEC 60534-1 inherent characteristic C/Cmax = R^(h−1),
+    # R = 50) is half open where Cmax = C_needed·√50 = 7.07·C_needed. Common practice: a
+    # valve well under half open at full load controls poorly at part load.
+    need = _required_cv(analyse())
+    over = analyse(valve={"cv": math.ceil(need * math.sqrt(50) * 1.05)})
+    f = found(over, "valve-oversized")
+    assert f is not None and f.severity == "info"
+    assert f.facts["opening"] == pytest.approx(1 + math.log(need / f.facts["cv"]) / math.log(50), rel=1e-6)
+    assert f.facts["opening"] < 0.5
+    assert found(analyse(valve={"cv": math.floor(need * math.sqrt(50) * 0.95)}), "valve-oversized") is None
+
+
+def test_valve_low_load_control_from_the_smallest_controllable_cv():
+    # Rangeability R: the smallest controllable flow coefficient is Cv/R (IEC 60534-1's
+    # definition of inherent rangeability). With R = 5 the valve cannot throttle to the
+    # 5 % minimum load.
+    r = analyse(valve={"cv": 12, "rangeability": 5}, load={"minimum": 0.05})
+    f = found(r, "valve-low-load-control")
+    assert f is not None and f.severity == "warning"
+    assert f.facts["smallest_cv"] == pytest.approx(12 / 5)
+    assert f.facts["load"] > 0.10
+    assert found(analyse(valve={"cv": 12, "rangeability": 50}, load={"minimum": 0.2}), "valve-low-load-control") is None
+
+
+def test_method_below_set_point_for_the_mean_temperature_method_with_flow_varying():
+    r = analyse(design={"medium": "water", "flow": "20 gpm", "inlet_temperature": "40 degF",
+                        "outlet_temperature": "140 degF", "method": "mean-temperature"},
+                load={"varies": "flow", "minimum": 0.0})
+    f = found(r, "method-below-set-point")
+    assert f is not None and f.severity == "info"
+    assert f.facts["set_point"] == pytest.approx(f_to_k(140.0))
+    assert 0.0 < f.facts["load"] < 1.0
+
+
+# --- the trap, pump-trap and purge ------------------------------------------------------------
+
+#: A rated table far too small for this coil (invented maker's data).
+SMALL_TABLE = [{"differential": "0.25 psi", "flow": "60 lb/h"}, {"differential": "1 psi", "flow": "120 lb/h"},
+               {"differential": "5 psi", "flow": "260 lb/h"}]
+
+
+def test_trap_undersized_and_capacity_short_from_a_rated_table():
+    # Common practice for modulating coils: select the trap for twice the full-load
+    # condensate at the differential it has when the coil pressure has fallen away.
+    r = analyse(drain={"arrangement": "trap-vacuum-breaker", "capacity": SMALL_TABLE})
+    under = found(r, "trap-undersized")
+    assert under is not None and under.severity == "warning"
+    assert under.facts["required"] == pytest.approx(2.0 * r.design.steam_flow, rel=1e-9)
+    # with a vacuum breaker the coil sits at atmospheric at the stall and the 18 in of
+    # fill head alone drives the trap: ρ·g·0.4572 m, ρ saturated at 1 atm (IF97)
+    assert under.facts["selection"] == pytest.approx(rho_liquid(ATM) * G * 18 * INCH, rel=1e-6)
+    # the table read between its rows on log-log axes (a seat's flow goes as a power of
+    # the differential; between 1/4 and 1 psi this table doubles: flow ∝ √Δp)
+    dp_psi = under.facts["selection"] / PSI
+    assert under.facts["installed"] == pytest.approx(60 * math.sqrt(dp_psi / 0.25) * 0.45359237 / 3600, rel=1e-6)
+    short = found(r, "trap-capacity-short")
+    assert short is not None and short.severity == "warning"
+    assert short.facts["load"] > r.stall.load_fraction + 0.02
+    big = [{"differential": "0.25 psi", "flow": "6000 lb/h"}, {"differential": "5 psi", "flow": "26000 lb/h"}]
+    fine = analyse(drain={"arrangement": "trap-vacuum-breaker", "capacity": big})
+    assert found(fine, "trap-undersized") is None and found(fine, "trap-capacity-short") is None
+
+
+def test_pump_trap_motive_low_against_the_back_pressure():
+    # 6 psig motive against 8 ft of lift to an open return: the margin is the motive's
+    # absolute pressure less 101.325 kPa + ρ·g·2.4384 m, well under the 15 psi wanted.
+    r = analyse(drain={**PUMP, "motive_pressure": "6 psig"})
+    f = found(r, "pump-trap-motive-low")
+    back = ATM + rho_liquid(ATM) * G * 8 * FT
+    assert f is not None and f.severity == "warning"
+    assert f.facts["back"] == pytest.approx(back, rel=1e-6)
+    assert f.facts["margin"] == pytest.approx(ATM + 6 * PSI - back, rel=1e-6)
+    # (a motive pressure at or below the back pressure is refused as bad input)
+    assert found(analyse(drain=PUMP), "pump-trap-motive-low") is None
+
+
+def test_pump_trap_fill_head_low_against_the_practice_of_about_a_foot():
+    # Common practice: a pump-trap wants about 12 in (0.3 m) of filling head.
+    f = found(analyse(drain={**PUMP, "fill_head": "6 in"}), "pump-trap-fill-head-low")
+    assert f is not None and f.severity == "warning"
+    assert f.facts["fill"] == pytest.approx(6 * INCH) and f.facts["required"] == pytest.approx(0.3)
+    assert found(analyse(drain={**PUMP, "fill_head": "14 in"}), "pump-trap-fill-head-low") is None
+
+
+def test_pump_trap_outside_its_table_and_undersized():
+    table = [{"back_pressure": "0 psig", "flow": "500 lb/h"}, {"back_pressure": "2 psig", "flow": "400 lb/h"}]
+    # 8 ft of lift is 3.4 psi of back pressure: beyond the table's 2 psig
+    f = found(analyse(drain={**PUMP, "pump_capacity": table}), "pump-trap-outside-table")
+    assert f is not None and f.severity == "warning"
+    assert f.facts["back"] > ATM + 2 * PSI
+    covered = [{"back_pressure": "0 psig", "flow": "500 lb/h"}, {"back_pressure": "10 psig", "flow": "400 lb/h"}]
+    assert found(analyse(drain={**PUMP, "pump_capacity": covered}), "pump-trap-outside-table") is None
+    small = found(analyse(drain={**PUMP, "pump_capacity": "50 lb/h"}), "pump-trap-undersized")
+    assert small is not None and small.severity == "warning"
+    assert small.facts["capacity"] == pytest.approx(50 * 0.45359237 / 3600, rel=1e-9)
+    assert small.facts["capacity"] < small.facts["condensate"]
+    assert found(analyse(drain={**PUMP, "pump_capacity": "2000 lb/h"}), "pump-trap-undersized") is None
+
+
+def test_purge_size_unknown_and_purge_that_cannot_hold_the_differential():
+    unknown = found(analyse(drain={"arrangement": "constant-purge"}), "purge-size-unknown")
+    assert unknown is not None and unknown.severity == "info"
+    # a 0.5 mm bore bleeds a few pounds an hour: far less than the stall-point condensate
+    r = analyse(drain={"arrangement": "constant-purge", "purge_orifice": "0.5 mm", "lift": "8 ft"})
+    f = found(r, "purge-cannot-hold")
+    assert f is not None and f.severity == "warning"
+    assert f.facts["back"] == pytest.approx(ATM + rho_liquid(ATM) * G * 8 * FT, rel=1e-6)
+    assert found(analyse(drain={"arrangement": "constant-purge", "purge_orifice": "0.5 mm"}), "purge-size-unknown") is None
+
+
+# --- the return line -------------------------------------------------------------------------
+
+def test_return_velocity_high_from_the_flash_steam_in_a_small_line():
+    # Flash at the trap outlet (no lift, so at the return pressure): x = (h_f(p_coil) −
+    # h_f(p_ret)) / h_fg(p_ret) (IF97, iapws).
+    # Common practice keeps condensate-return velocities with flash to about 15 m/s.
+    tables = dict(drain={"return_line": "0.75 in"}, steam={"supply_pressure": "60 psig"},
+                  design={"steam_pressure": "50 psig", "flow": "10000 cfm"}, valve={"cv": 30})
+    r = analyse(**tables)
+    f = found(r, "return-velocity-high")
+    assert f is not None and f.severity == "warning"
+    coil, ret = IAPWS97(P=(ATM + 50 * PSI) / 1e6, x=0), (IAPWS97(P=ATM / 1e6, x=0), IAPWS97(P=ATM / 1e6, x=1))
+    x = (coil.h - ret[0].h) / (ret[1].h - ret[0].h)
+    # homogeneous flow: both phases' volume over the bore, W·(x/ρ_g + (1 − x)/ρ_f)/(π d²/4)
+    volume = r.design.steam_flow * (x / ret[1].rho + (1 - x) / ret[0].rho)
+    velocity = volume / (math.pi / 4 * (0.75 * INCH) ** 2)
+    assert f.facts["fraction"] == pytest.approx(x, rel=1e-6)
+    assert f.facts["velocity"] == pytest.approx(velocity, rel=1e-6)
+    assert f.facts["limit"] == 15.0
+    tables["drain"] = {"return_line": "4 in"}
+    assert found(analyse(**tables), "return-velocity-high") is None
+
+
+def test_flash_into_a_cool_return():
+    # Flash steam meeting condensate well below its saturation temperature collapses
+    # (condensation-induced hammer; common practice). 120 °F against 212 °F.
+    f = found(analyse(drain={"return_line": "1 in", "return_temperature": "120 degF"}), "flash-into-cool-return")
+    assert f is not None and f.severity == "warning"
+    assert f.facts["return_temperature"] == pytest.approx(f_to_k(120.0))
+    assert f.facts["saturation"] == pytest.approx(IAPWS97(P=ATM / 1e6, x=0).T, abs=1e-6)
+    assert found(analyse(drain={"return_line": "1 in", "return_temperature": "210 degF"}),
+                 "flash-into-cool-return") is None
+
+
+def test_return_line_pitch_against_the_flow_and_flatter_than_practice():
+    against = found(analyse(drain={"return_line": "1 in", "return_pitch": "-1 %"}), "return-line-pitch")
+    assert against is not None and against.severity == "warning" and against.facts["pitch"] == pytest.approx(0.01)
+    # Common practice (from memory): at least 1 in in 40 ft, 1/480 = 0.21 %
+    flat = found(analyse(drain={"return_line": "1 in", "return_pitch": "0.1 %"}), "return-line-pitch")
+    assert flat is not None and flat.severity == "info" and flat.facts["pitch"] == pytest.approx(0.001)
+    assert found(analyse(drain={"return_line": "1 in", "return_pitch": "0.5 %"}), "return-line-pitch") is None
+
+
+def test_return_line_slug_flow_in_a_small_pumped_line():
+    r = analyse(drain={**PUMP, "pump_capacity": "2000 lb/h", "return_line": "0.5 in", "return_length": "100 ft"})
+    f = found(r, "return-line-slug-flow")
+    assert f is not None and f.severity == "warning"
+    assert f.facts["bore"] == pytest.approx(0.5 * INCH)
+    assert f.facts["stratified"] > f.facts["bore"]
+
+
+def test_hydraulic_shock_of_a_pump_trap_discharge_by_joukowsky():
+    # Joukowsky: Δp = ρ·a·v, v the pump-trap's delivery (2,000 lb/h through a 1/2 in
+    # bore) and a the line's wave speed; danger where the peak passes the rating.
+    tables = {**PUMP, "pump_capacity": "2000 lb/h", "return_line": "0.5 in", "return_length": "100 ft"}
+    r = analyse(drain={**tables, "return_rating": "50 psig"})
+    f = found(r, "hydraulic-shock")
+    assert f is not None and f.severity == "danger" and "pump" in f.parts
+    rho = f.facts["surge"] / (f.facts["speed"] * f.facts["velocity"])
+    assert 940.0 < rho < 1000.0  # liquid water near 100 °C (common practice)
+    area = math.pi / 4 * (0.5 * INCH) ** 2
+    assert f.facts["velocity"] == pytest.approx(2000 * 0.45359237 / 3600 / (rho * area), rel=1e-6)
+    assert f.facts["rating"] == pytest.approx(ATM + 50 * PSI)
+    # no rating given: told as information, with no rating cited
+    unrated = found(analyse(drain=tables), "hydraulic-shock")
+    assert unrated is not None and unrated.severity == "info" and unrated.facts["rating"] is None
+    # a rating well above the peak: nothing to say
+    assert found(analyse(drain={**tables, "return_rating": "600 psig"}), "hydraulic-shock") is None
+
+
+# --- layout ----------------------------------------------------------------------------------
+
+LAYOUT = ["tube-fill-both-ends", "group-trapping", "drop-not-vented", "valve-not-dripped", "tubes-not-pitched"]
+
+
+def test_every_layout_fault_is_found_and_none_on_a_good_layout():
+    # Common practice: feed steam at one end (or through distributing tubes), one trap
+    # a coil, a long drop to the trap vented back, a drip before the valve, tubes pitched
+    # to the return.
+    r = analyse(geometry=BAD_LAYOUT)
+    assert r.stall.in_range
+    severities = {code: found(r, code).severity for code in LAYOUT}
+    # a coil that runs near its stall point makes the steam-pocket faults live
+    assert severities == {"tube-fill-both-ends": "danger", "group-trapping": "danger", "drop-not-vented": "warning",
+                          "valve-not-dripped": "warning", "tubes-not-pitched": "danger"}
+    assert found(r, "group-trapping").facts["coils"] == 2
+    assert found(r, "drop-not-vented").facts["drop"] == pytest.approx(4 * FT)
+    good = {"tubes": "horizontal", "supply_feed": "end", "distributing_tubes": False, "pitched_to_return": True,
+            "coils_per_trap": 1, "drop_to_trap": "4 ft", "drop_vented": True, "drip_before_valve": True}
+    assert not {f.code for f in analyse(geometry=good).findings} & set(LAYOUT)
+
+
+def test_layout_faults_are_milder_on_a_coil_that_runs_well_above_its_stall():
+    # "near the stall" is within 10 points of load above it: a coil whose stall (76 %
+    # here, on a vacuum return) lies more than that below the least load it runs at
+    # keeps its differential, and the steam-pocket faults are warnings
+    r = analyse(geometry=BAD_LAYOUT, drain={"fill_head": "36 in", "return_pressure": "-5 psig"},
+                load={"minimum": 0.9})
+    assert r.stall.load_fraction + 0.10 < 0.9
+    assert {code: found(r, code).severity for code in LAYOUT} == {
+        "tube-fill-both-ends": "warning", "group-trapping": "warning", "drop-not-vented": "info",
+        "valve-not-dripped": "warning", "tubes-not-pitched": "warning"}
+    # a drop shorter than 3 ft (common practice, from memory) holds no sealing slug
+    short = analyse(geometry={**BAD_LAYOUT, "drop_to_trap": "2 ft"})
+    assert found(short, "drop-not-vented") is None
+
+
+def test_every_code_the_analysis_can_raise_has_its_scenario_here():
+    # Regression guard on this file itself: a new code added to the rules without a
+    # scenario above fails here (the codes are read from the rules' source).
+    import re
+    from pathlib import Path
+
+    import stallcheck.analysis as pkg
+
+    source = "".join((Path(pkg.__file__).parent / name).read_text(encoding="utf-8")
+                     for name in ("findings.py", "layout.py"))
+    codes = set(re.findall(r'Finding\(\s*"([a-z-]+)"', source))
+    tested = set(re.findall(r'"([a-z]+(?:-[a-z]+)+)"', Path(__file__).read_text(encoding="utf-8")))
+    assert len(codes) >= 28 and codes <= tested, codes - tested
+
+
+# --- thresholds: a case on each side of the source's value ---------------------------------
+
+def test_subcooling_of_5_k_before_flash_into_the_return_is_called_cool():
+    # Common practice (from memory): condensate more than about 5 K below its boiling
+    # point collapses the flash that meets it. Saturation at 1 atm: 373.124 K (IF97).
+    t_sat = IAPWS97(P=ATM / 1e6, x=0).T
+    for below, expected in ((4.5, False), (5.5, True)):
+        r = analyse(drain={"return_line": "1 in", "return_temperature": f"{t_sat - below!r} K"})
+        assert (found(r, "flash-into-cool-return") is not None) is expected, below
+
+
+def test_least_pitch_of_one_inch_in_forty_feet():
+    # Common practice (from memory): 1 in of fall in 40 ft, 1/480 = 0.2083 %.
+    for pitch, expected in (("0.19 %", True), ("0.23 %", False)):
+        r = analyse(drain={"return_line": "1 in", "return_pitch": pitch})
+        assert (found(r, "return-line-pitch") is not None) is expected, pitch
+
+
+def test_return_velocity_limit_of_15_m_s():
+    # Common practice: about 15 m/s (3,000 ft/min) in a return carrying flash. The
+    # homogeneous velocity goes as 1/d²: bores giving 13.5 and 16.5 m/s from the figure
+    # at 3/4 in (worked by hand from IF97 in test_return_velocity_high_... above).
+    tables = dict(steam={"supply_pressure": "60 psig"}, design={"steam_pressure": "50 psig", "flow": "10000 cfm"},
+                  valve={"cv": 30})
+    v0 = analyse(**tables, drain={"return_line": "0.75 in"}).flash.velocity
+    for speed, expected in ((13.5, False), (16.5, True)):
+        bore = 0.75 * INCH * math.sqrt(v0 / speed)
+        r = analyse(**tables, drain={"return_line": f"{bore * 1000!r} mm"})
+        assert r.flash.velocity == pytest.approx(speed, rel=1e-9)
+        assert (found(r, "return-velocity-high") is not None) is expected, speed
+
+
+def test_surge_near_the_rating_at_80_percent():
+    # Common practice (from memory): hold a surge peak to about 80 % of the line's
+    # rating. Ratings that put the peak at 75 % and at 85 % of them.
+    tables = {**PUMP, "pump_capacity": "2000 lb/h", "return_line": "0.5 in", "return_length": "100 ft"}
+    peak = analyse(drain=tables).surge.peak
+    for share, expected in ((0.75, None), (0.85, "warning")):
+        rating = peak / share
+        f = found(analyse(drain={**tables, "return_rating": f"{rating / 1000!r} kPaa"}), "hydraulic-shock")
+        assert (f.severity if f else None) == expected, share
