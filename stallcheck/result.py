@@ -87,8 +87,16 @@ class StallPoint:
         Where the unit is stalled even at full load, these are the coil's own figures
         at full load, and ``threshold_pressure`` (above them) is what the trap needs.
     in_range : bool
-        True where it stalls above its minimum load, beyond the verdict's tolerance
-        (:func:`stallcheck.physics.drainage.stalls_in_range`).
+        True where the load brings it to a stall above its minimum load, beyond the
+        verdict's tolerance (:func:`stallcheck.physics.drainage.stalls_in_range`);
+        :attr:`floods_in_range` adds the valve's stall.
+    valve_load_fraction : float or None
+        Where the control valve is too small: the load from which, up to full load, the
+        open valve holds the coil at or under the stall pressure (0: at every load);
+        None where the valve never does. The fields above describe the stall the load
+        itself brings (``occurs`` and ``load_fraction``), this one the valve's. [-]
+    valve_coil_pressure : float or None
+        The coil pressure the open valve holds at full load, where it floods the coil. [Pa]
     """
 
     occurs: bool
@@ -99,6 +107,32 @@ class StallPoint:
     condensate: float | None = None
     inlet_temperature: float | None = None
     in_range: bool = False
+    valve_load_fraction: float | None = None
+    valve_coil_pressure: float | None = None
+
+    @property
+    def floods_in_range(self) -> bool:
+        """True where the coil stalls at a load it runs at: by its load above its minimum
+        load, or by its valve (which holds it under up to full load, where it runs)."""
+        return self.in_range or self.valve_load_fraction is not None
+
+    @property
+    def floods(self) -> bool:
+        """True where the coil stalls at some load in (0, 1], by its load or its valve."""
+        return self.occurs or self.valve_load_fraction is not None
+
+    @property
+    def ranges(self) -> tuple[tuple[float, float], ...]:
+        """The stalled load ranges [-], as (from, to) pairs in (0, 1], merged."""
+        out = []
+        if self.occurs:
+            out.append([0.0, float(self.load_fraction)])
+        if self.valve_load_fraction is not None:
+            if out and self.valve_load_fraction <= out[-1][1]:
+                out[-1][1] = 1.0
+            else:
+                out.append([self.valve_load_fraction, 1.0])
+        return tuple((a, b) for a, b in out)
 
 
 @record
@@ -116,7 +150,10 @@ class Points:
         p_coil + fill head − back pressure. [Pa]
     stalled : ndarray of bool
     valve_opening : ndarray or None
-        Travel 0–1 needed; above 1 where the open valve cannot pass the flow. [-]
+        Travel 0–1; 1 where the open valve cannot pass what the load needs. [-]
+    needed_coil_pressure : ndarray or None
+        The coil pressure each load needs; ``coil_pressure`` is below it where the
+        valve holds the coil down (``valve_limited``). [Pa]
     """
 
     load_fraction: np.ndarray
@@ -127,6 +164,14 @@ class Points:
     drain_differential: np.ndarray
     stalled: np.ndarray
     valve_opening: np.ndarray | None = None
+    needed_coil_pressure: np.ndarray | None = None
+
+    @property
+    def valve_limited(self) -> np.ndarray:
+        """True at the loads where the open valve holds the coil under what it needs."""
+        if self.needed_coil_pressure is None:
+            return np.zeros(self.load_fraction.shape, dtype=bool)
+        return self.coil_pressure < self.needed_coil_pressure - 1e-6
 
 
 @record
@@ -178,6 +223,11 @@ class ValveResult:
         Load at which the needed Cv falls to Cv/rangeability. [-]
     rangeability : float  [-]
     characteristic : str
+    drain_cv : float or None
+        Where the open valve holds the coil under its stall pressure: the least Cv
+        that holds it the remedies' margin above it at full load, exact (printed
+        rounded up); None where the valve does not stall the coil, or no valve on
+        this supply can keep it draining. [-]
     """
 
     cv: float
@@ -190,6 +240,7 @@ class ValveResult:
     min_controllable_load: float
     rangeability: float
     characteristic: str
+    drain_cv: float | None = None
 
 
 @record

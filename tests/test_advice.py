@@ -56,6 +56,10 @@ def _spare(unit, minimum) -> float:
     breaker, atmospheric less 1/4 psi less the stall pressure where that is more."""
     r = analysis.analyse(unit)
     p_min = float(analysis.state_at(unit, r, [minimum])[1][0])
+    if r.valve is not None and not r.valve.capacity_ok:
+        # a too-small valve holds the coil at no more than this at full load, where it
+        # runs too (the valve's own solve is held to IEC 60534-2-1 in test_valve.py)
+        p_min = min(p_min, r.valve.limited_coil_pressure)
     spare = p_min - r.stall.threshold_pressure
     if unit.drain.arrangement == "trap-vacuum-breaker":
         spare = max(spare, r.atmospheric_pressure - 0.25 * 6894.757293168 - r.stall.threshold_pressure)

@@ -164,11 +164,18 @@ def _required_cv(r):
 
 
 def test_valve_too_small_where_the_open_valve_cannot_pass_the_design_steam():
+    # Cv 6: short of the design load, but wide open it still holds the coil above the
+    # stall pressure (test_valve_limited.py solves both by hand)
+    r = analyse(valve={"cv": 6})
+    f = found(r, "valve-too-small")
+    assert f is not None and f.severity == "warning" and "floods" not in f.parts
+    assert f.facts["cv"] == 6.0 and f.facts["required_cv"] > 6.0
+    assert 0.0 < f.facts["limited_load"] < 1.0
+    # Cv 2: it holds the coil under the stall pressure at full load, and the coil floods
     r = analyse(valve={"cv": 2})
     f = found(r, "valve-too-small")
-    assert f is not None and f.severity == "warning"
-    assert f.facts["cv"] == 2.0 and f.facts["required_cv"] > 2.0
-    assert 0.0 < f.facts["limited_load"] < 1.0
+    assert f is not None and f.severity == "danger" and "floods" in f.parts
+    assert f.facts["limited_pressure"] < f.facts["stall_pressure"] < f.facts["drain_cv"] * 1e9
     assert found(analyse(valve={"cv": 12}), "valve-too-small") is None
 
 

@@ -317,13 +317,25 @@ def _analyse(units: list[Unit], systems: list[str], tabulate: bool = True, compl
         grid = (steam_t, coil_p, steam_flow, differential, stalled, coilmod.inlet_temperature(b.coil.column(), f))
 
     valves, opening = _valves(b, None if grid is None else grid[1], None if grid is None else grid[2])
+    valve_load, drain_cv = _valve_stall_loads(b, valves)
+    stall = [s if np.isnan(valve_load[i]) else _with_valve_stall(s, b, valves[i], float(valve_load[i]))
+             for i, s in enumerate(stall)]
+    valves = [v if v is None or np.isnan(drain_cv[i]) else _with_drain_cv(v, float(drain_cv[i]))
+              for i, v in enumerate(valves)]
+    needed = None
+    if grid is not None:
+        needed = grid[1]
+        grid = _valve_limited_grid(b, valves, grid, opening)
 
     # drainage verdicts (per unit)
     drains, effective = [], []
     for i, u in enumerate(units):
         s = stall[i]
-        need = drainage.requirement(s.load_fraction or 0.0, s.in_range, float(b.threshold[i]), float(b.atm[i]))
+        need = drainage.requirement(s.load_fraction or 0.0, s.floods_in_range, float(b.threshold[i]), float(b.atm[i]))
         ok, why = drainage.adequacy(u.drain.arrangement, need.required)
+        if s.valve_load_fraction is not None:
+            need.facts.update(valve_load=s.valve_load_fraction, valve_pressure=s.valve_coil_pressure,
+                              by_load=s.in_range)
         drains.append(Drainage(u.drain.arrangement, need.required, ok, need.reason, why, need.facts))
         effective.append(u.drain.arrangement if ok else need.required)
 
@@ -332,7 +344,8 @@ def _analyse(units: list[Unit], systems: list[str], tabulate: bool = True, compl
     if complete:
         rounders = [lambda value, kind, up, system=systems[i], atm=float(b.atm[i]):
                     q.rounded(value, kind, system, atm, up=up) for i in range(n)]
-        fixes = remedies.solve(b, p_min, [d.adequate for d in drains], rounders)
+        p_low, floor = _valve_bound(b, valves, p_min)
+        fixes = remedies.solve(b, p_low, [d.adequate for d in drains], rounders, floor)
     else:
         fixes = [()] * n
 
@@ -347,10 +360,11 @@ def _analyse(units: list[Unit], systems: list[str], tabulate: bool = True, compl
             points = Points(load_fraction=LOAD_GRID, inlet_temperature=inlet_t[i], coil_pressure=coil_p[i],
                             steam_temperature=steam_t[i], steam_flow=steam_flow[i],
                             drain_differential=differential[i], stalled=stalled[i],
-                            valve_opening=None if opening is None or valves[i] is None else opening[i])
+                            valve_opening=None if opening is None or valves[i] is None else opening[i],
+                            needed_coil_pressure=needed[i])
         s = stall[i]
         bins_load, bins_hours = _bin_loads(u, b.coil, i)
-        stalled_hours, total_hours = _hours(u, s.load_fraction or 0.0, bins_load, bins_hours)
+        stalled_hours, total_hours = _hours(u, s.load_fraction or 0.0, bins_load, bins_hours, s.valve_load_fraction)
         pump = devices.pump_trap_figures(u, drains[i].required, s, float(b.back[i]), float(b.supply[i]))
         line = devices.return_line_figures(u, float(b.steam_design[i]), float(b.design_pressure[i]), s,
                                            float(w_min[i]), float(p_min[i]))
@@ -483,6 +497,153 @@ def _valves(b: Batch, coil_p, steam_flow):
     return results, opening
 
 
+# --- the valve-limited coil -------------------------------------------------------------
+#
+# The coil runs at the lesser of the pressure its load needs and the pressure the open
+# valve lets it have. Where the valve is too small, the open valve passes only what the
+# coil condenses at some lower pressure: the coil floods there if that pressure is at or
+# under the stall pressure. Colder air (or more flow) condenses more at a given pressure,
+# so the pressure the open valve holds falls as the load rises: a too-small valve stalls
+# the coil from some load up to full load.
+
+
+def _valve_excess(b: Batch, units, loads, cv, p1, rho1, xt):
+    """``excess(p, where)``: steam the open valve passes at coil pressure p less what the
+    coil condenses there under the conditions of each load [kg/s] (rises as p falls)."""
+    coil = b.coil.take(units)
+
+    def excess(p, where):
+        t = properties.saturation_temperature(p)
+        condensed = (b.load_design[units[where]] * coilmod.delivered_fraction(coil.take(where), t, loads[where])
+                     / properties.latent_heat(p))
+        return valvemod.steam_flow(cv[where], p1[where], p, rho1[where], xt[where]) - condensed
+    return excess
+
+
+def _valve_terms(b: Batch, valves, units):
+    """Cv, supply pressure, supply vapour density and x_T of the valves of ``units``."""
+    cv = np.array([valves[i].cv for i in units])
+    xt = np.array([b.units[i].valve.xt for i in units])
+    p1 = b.supply[units]
+    return cv, p1, properties.vapour_density(p1), xt
+
+
+def _valve_stall_loads(b: Batch, valves) -> tuple[np.ndarray, np.ndarray]:
+    """For each unit, the load fraction from which up to full load its open valve holds
+    the coil at or under the stall pressure (by more than the verdict's tolerance; NaN
+    where it never does, 0 where it does at every load), and the least Cv that would
+    hold the coil :data:`remedies.MARGIN` above it at full load (NaN where the valve does
+    not stall it; inf where no valve can, the stall pressure being above the supply's)."""
+    out = np.full(len(b.units), np.nan)
+    fix = np.full(len(b.units), np.nan)
+    short = np.array([v is not None and not v.capacity_ok
+                      and b.threshold[i] - v.limited_coil_pressure > drainage.PRESSURE_TOLERANCE
+                      and b.threshold[i] < b.supply[i]
+                      for i, v in enumerate(valves)], dtype=bool)
+    units = np.flatnonzero(short)
+    if not units.size:
+        return out, fix
+    cv, p1, rho1, xt = _valve_terms(b, valves, units)
+    thr = b.threshold[units]
+    t_thr = properties.saturation_temperature(thr)
+    passed = valvemod.steam_flow(cv, p1, thr, rho1, xt)
+    heat = passed * properties.latent_heat(thr)
+    coil = b.coil.take(units)
+
+    # with the coil at the stall pressure, what it condenses less what the open valve
+    # passes: it rises with the load, and from its root up the valve cannot hold the
+    # coil above the stall pressure
+    def short_at(f, where):
+        return b.load_design[units[where]] * coilmod.delivered_fraction(coil.take(where), t_thr[where], f) - heat[where]
+
+    low = np.full(units.size, 1e-9)
+    found = illinois(short_at, low, np.ones(units.size), LOAD_TOLERANCE)
+    everywhere = short_at(low, np.arange(units.size)) >= 0.0
+    # the least Cv whose open valve holds the coil the remedies' margin above the stall
+    # pressure at full load (the valve's flow goes as its Cv)
+    aim = thr + remedies.MARGIN
+    t_aim = properties.saturation_temperature(aim)
+    condensed = b.load_design[units] * coilmod.delivered_fraction(coil, t_aim) / properties.latent_heat(aim)
+    fix[units] = np.where(aim < p1, cv * condensed / valvemod.steam_flow(cv, p1, aim, rho1, xt), np.inf)
+    out[units] = np.where(everywhere, 0.0, np.where(np.isfinite(found), found, 1.0))
+    return out, fix
+
+
+def _with_valve_stall(s: StallPoint, b: Batch, valve, load: float) -> StallPoint:
+    """The stall point with the valve's stall added: the load from which it floods and
+    the pressure the open valve holds at full load."""
+    return StallPoint(s.occurs, s.threshold_pressure, s.load_fraction, s.coil_pressure, s.steam_temperature,
+                      s.condensate, s.inlet_temperature, s.in_range, load,
+                      float(valve.limited_coil_pressure))
+
+
+def _valve_bound(b: Batch, valves, p_min):
+    """The lowest coil pressure each unit runs at, the lesser of what its minimum load
+    needs and what a too-small valve holds at full load [Pa]; and, where the valve is
+    too small, the least design steam temperature at which it still holds the coil the
+    remedies' margin above the stall pressure at full load [K] (NaN elsewhere).
+
+    At full load the coil condenses Q_d·(T_s − T_in,d)/(T_s,d − T_in,d)/h_fg; a smaller
+    coil (a higher design temperature) condenses less at the same pressure, so the open
+    valve holds it at p_aim = p_stall + margin where
+    T_s,d ≥ T_in,d + Q_d·(T_aim − T_in,d)/(h_fg(p_aim)·W_valve(p_aim))."""
+    p_low = np.array(p_min, dtype=float)
+    floor = np.full(len(b.units), np.nan)
+    short = [i for i, v in enumerate(valves) if v is not None and not v.capacity_ok]
+    if not short:
+        return p_low, floor
+    units = np.array(short)
+    p_low[units] = np.minimum(p_low[units], [valves[i].limited_coil_pressure for i in short])
+    cv, p1, rho1, xt = _valve_terms(b, valves, units)
+    aim = b.threshold[units] + remedies.MARGIN
+    ok = (aim > properties.P_MIN) & (aim < p1)
+    aim = np.clip(aim, properties.P_MIN, p1)
+    passed = valvemod.steam_flow(cv, p1, aim, rho1, xt)
+    t_in = b.coil.inlet_design[units]
+    with np.errstate(divide="ignore", invalid="ignore"):
+        t_floor = t_in + b.load_design[units] * (properties.saturation_temperature(aim) - t_in) / (
+            properties.latent_heat(aim) * passed)
+    floor[units] = np.where(ok, t_floor, np.inf)
+    return p_low, floor
+
+
+def _with_drain_cv(v: ValveResult, cv: float) -> ValveResult:
+    """The valve's figures with the least Cv that keeps the coil draining at full load."""
+    return ValveResult(v.cv, v.required_cv_design, v.opening_design, v.capacity_ok, v.choked_at_design,
+                       v.limited_load_fraction, v.limited_coil_pressure, v.min_controllable_load, v.rangeability,
+                       v.characteristic, cv if np.isfinite(cv) else None)
+
+
+def _valve_limited_grid(b: Batch, valves, grid, opening):
+    """The load grid with the coil held to what the open valve gives wherever the valve
+    cannot pass what the load needs: coil pressure, steam temperature and flow, the
+    differential at the trap and the stall, and the valve wide open there."""
+    steam_t, coil_p, steam_flow, differential, stalled, inlet_t = (np.array(a) for a in grid)
+    short = [i for i, v in enumerate(valves) if v is not None and not v.capacity_ok]
+    if not short or opening is None:
+        return steam_t, coil_p, steam_flow, differential, stalled, inlet_t
+    rows = np.array(short)
+    limited = np.zeros(coil_p.shape, dtype=bool)
+    limited[rows] = opening[rows] > 1.0
+    unit_of, load_of = np.nonzero(limited)
+    if unit_of.size:
+        cv, p1, rho1, xt = _valve_terms(b, valves, unit_of)
+        loads = LOAD_GRID[load_of]
+        excess = _valve_excess(b, unit_of, loads, cv, p1, rho1, xt)
+        coil = b.coil.take(unit_of)
+        low = np.maximum(properties.saturation_pressure(
+            np.maximum(coilmod.inlet_temperature(coil, loads), properties.T_MIN)), properties.P_MIN)
+        p = illinois(excess, low, coil_p[unit_of, load_of], PRESSURE_TOLERANCE)
+        p = np.where(np.isfinite(p), p, low)
+        coil_p[unit_of, load_of] = p
+        steam_t[unit_of, load_of] = properties.saturation_temperature(p)
+        steam_flow[unit_of, load_of] = valvemod.steam_flow(cv, p1, p, rho1, xt)
+        opening[unit_of, load_of] = 1.0
+        differential = coil_p + b.fill[:, None] - b.back[:, None]
+        stalled = differential <= b.trap_min[:, None] - drainage.PRESSURE_TOLERANCE
+    return steam_t, coil_p, steam_flow, differential, stalled, inlet_t
+
+
 def _bin_loads(unit: Unit, coils, i: int) -> tuple[np.ndarray | None, np.ndarray | None]:
     """Load fraction [-] and hours [h] of each load bin of the unit whose coil is
     ``coils``'s ``i``-th (None without bins)."""
@@ -497,8 +658,11 @@ def _bin_loads(unit: Unit, coils, i: int) -> tuple[np.ndarray | None, np.ndarray
     return load, hours
 
 
-def _hours(unit: Unit, stall_fraction: float, load, hours) -> tuple[float | None, float | None]:
-    """Hours stalled and total hours from the load bins (None without bins)."""
+def _hours(unit: Unit, stall_fraction: float, load, hours,
+           valve_load: float | None = None) -> tuple[float | None, float | None]:
+    """Hours stalled and total hours from the load bins (None without bins): below the
+    stall load, and at or above the load from which the valve holds the coil under its
+    stall pressure (``valve_load``, None where it never does)."""
     if load is None:
         return None, None
     running = load > 0
@@ -506,6 +670,8 @@ def _hours(unit: Unit, stall_fraction: float, load, hours) -> tuple[float | None
     # load, at full load.
     at = np.clip(load, unit.load.minimum, 1.0)
     stalled = running & (at <= stall_fraction) & (stall_fraction > 0)
+    if valve_load is not None:
+        stalled |= running & (at >= valve_load)
     return float(hours[stalled].sum()), float(hours.sum())
 
 

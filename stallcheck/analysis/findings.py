@@ -7,8 +7,9 @@ Codes are stable (scripts filter on them); the README lists them with their sour
 
 from __future__ import annotations
 
-from stallcheck.analysis import layout
+from stallcheck.analysis import layout, remedies
 from stallcheck.inputs import Unit
+from stallcheck.physics import coil as coilmod
 from stallcheck.physics.constants import VELOCITY_LIMIT
 from stallcheck.physics.devices import MOTIVE_MARGIN, RATING_SHARE
 from stallcheck.result import Finding, Result
@@ -46,6 +47,7 @@ def core(unit: Unit, r: Result) -> tuple[Finding, ...]:
     out: list[Finding] = []
     s = r.stall
     in_range = s.in_range
+    floods = s.floods_in_range
     if s.occurs and s.load_fraction >= 1.0:
         out.append(Finding("stall-at-full-load", "danger", ("",),
                            {"back": r.back_pressure, "design": r.design.coil_pressure}))
@@ -60,23 +62,33 @@ def core(unit: Unit, r: Result) -> tuple[Finding, ...]:
     if not r.drainage.adequate:
         out.append(Finding("drainage-inadequate", "danger" if s.load_fraction and s.load_fraction >= 1 else "warning",
                            ("",), {"installed": r.drainage.installed, "required": r.drainage.required}))
-    if in_range and r.medium == "air":
+    if floods and r.medium == "air":
         freezing = _freeze_exposure(unit, r)
         if freezing:
             out.append(freezing)
-    if in_range and unit.drain.lift > 0 and unit.drain.arrangement != "pump-trap":
+    if floods and unit.drain.lift > 0 and unit.drain.arrangement != "pump-trap":
         out.append(Finding("lift-after-trap", "warning", ("",), {"lift": unit.drain.lift}))
     low_working = r.trap is not None and r.trap.working_differential < LOW_DIFFERENTIAL
-    if (in_range or low_working) and unit.drain.trap in POOR_AT_LOW_DIFFERENTIAL:
-        out.append(Finding("trap-type-modulating", "warning", ("" if in_range else "low", "why"),
+    if (floods or low_working) and unit.drain.trap in POOR_AT_LOW_DIFFERENTIAL:
+        out.append(Finding("trap-type-modulating", "warning", ("" if floods else "low", "why"),
                            {"working": r.trap.working_differential if r.trap is not None else None,
                             "trap": unit.drain.trap}))
     v = r.valve
     if v is not None:
         if not v.capacity_ok:
-            out.append(Finding("valve-too-small", "warning", ("",),
-                               {"required_cv": v.required_cv_design, "cv": v.cv,
-                                "limited_pressure": v.limited_coil_pressure, "limited_load": v.limited_load_fraction}))
+            facts = {"required_cv": v.required_cv_design, "cv": v.cv, "limited_pressure": v.limited_coil_pressure,
+                     "limited_load": v.limited_load_fraction}
+            parts: tuple[str, ...] = ("",)
+            if s.valve_load_fraction is not None:
+                # the one sentence of a valve that floods the coil, and the valve that stops it
+                parts = ("", "floods", "fix" if v.drain_cv is not None else "no-fix")
+                facts.update(stall_pressure=s.threshold_pressure, from_load=s.valve_load_fraction,
+                             drain_cv=v.drain_cv, fit_cv=max(v.drain_cv or 0.0, v.required_cv_design),
+                             margin=remedies.MARGIN)
+            else:
+                parts = ("", "fit")
+            out.append(Finding("valve-too-small", "danger" if parts[1] == "floods" and not r.drainage.adequate
+                               else "warning", parts, facts))
         elif v.opening_design < 0.5:
             out.append(Finding("valve-oversized", "info", ("",),
                                {"opening": v.opening_design, "required_cv": v.required_cv_design, "cv": v.cv}))
@@ -192,6 +204,23 @@ def _freeze_exposure(unit: Unit, r: Result) -> Finding | None:
     """The freeze-risk finding where the coil stalls with entering air below freezing."""
     s = r.stall
     facts = {"freezing": FREEZING, "installed": r.drainage.installed}
+    if s.valve_load_fraction is not None and unit.design.inlet_temperature < FREEZING - _AT:
+        # the valve floods it from a load up to full load: in the coldest air it sees
+        facts["inlet"] = unit.design.inlet_temperature
+        parts = ["", "design" if r.varies != "inlet-temperature" else "valve", "why"]
+        if r.varies == "inlet-temperature":
+            upper = min(float(coilmod.inlet_temperature(coilmod.CoilModel(
+                unit.design.method, r.varies, unit.design.inlet_temperature, unit.design.outlet_temperature,
+                r.design.steam_temperature, unit.design.ua_flow_exponent), s.valve_load_fraction)), FREEZING)
+            facts["upper"] = upper
+            if unit.load.bins:
+                facts["hours"] = sum(b.hours for b in unit.load.bins if b.inlet_temperature is not None
+                                     and b.inlet_temperature < upper - _AT)
+                parts.append("hours")
+        parts.append("drained" if r.drainage.adequate else "drain")
+        return Finding("freeze-risk", "danger" if not r.drainage.adequate else "info", tuple(parts), facts)
+    if not s.in_range:
+        return None
     if r.varies == "inlet-temperature":
         if s.inlet_temperature is None or s.inlet_temperature >= FREEZING - _AT:
             return None

@@ -56,7 +56,7 @@ def targets(b, p_min):
     return np.maximum(p_min, breaker) - MARGIN
 
 
-def solve(b, p_min, adequate, rounders: list[Rounder]) -> list[tuple[Remedy, ...]]:
+def solve(b, p_min, adequate, rounders: list[Rounder], valve_floor=None) -> list[tuple[Remedy, ...]]:
     """The limit of each single change (see the module docstring), for every unit of a
     batch.
 
@@ -70,6 +70,11 @@ def solve(b, p_min, adequate, rounders: list[Rounder]) -> list[tuple[Remedy, ...
         margins (how far each value can go), else changes.
     rounders : list of callable
         For each unit, how its figures are rounded as printed (:data:`Rounder`).
+    valve_floor : ndarray, optional
+        Where a too-small valve holds the coil down: the least design steam temperature
+        at which the open valve still holds the coil the margin above the stall pressure
+        at full load [K] (NaN elsewhere). ``p_min`` is then already the lesser of the
+        coil's need and what the valve gives.
 
     Returns
     -------
@@ -87,7 +92,7 @@ def solve(b, p_min, adequate, rounders: list[Rounder]) -> list[tuple[Remedy, ...
         r = target - b.trap_min - dens * GRAVITY * (b.lift - b.fill_height)
     dp = target + b.fill - b.back
     fill = np.maximum((b.back + b.trap_min - target) / (rho * GRAVITY), 0.0)
-    design_t = _design_temperatures(b)
+    design_t = _design_temperatures(b, valve_floor)
     # With a vacuum breaker that drains the coil by gravity (with the margin), the coil's
     # own pressure no longer matters: any design pressure does.
     arrangement = np.array([u.drain.arrangement for u in b.units])
@@ -104,9 +109,10 @@ def solve(b, p_min, adequate, rounders: list[Rounder]) -> list[tuple[Remedy, ...
     return out
 
 
-def _design_temperatures(b) -> list:
-    """Design steam temperature [K] at which each unit's coil pressure at its minimum
-    load is the stall pressure plus the margin, or a reason word where none is."""
+def _design_temperatures(b, valve_floor=None) -> list:
+    """Design steam pressure [Pa] at which each unit's coil pressure at its minimum
+    load is the stall pressure plus the margin (and its valve, where too small, still
+    holds the coil there at full load: ``valve_floor``), or a reason word where none is."""
     aim = b.threshold + MARGIN
     valid = aim > properties.P_MIN
     t_aim = properties.saturation_temperature(np.clip(aim, properties.P_MIN, properties.P_CRIT))
@@ -114,9 +120,18 @@ def _design_temperatures(b) -> list:
     finite = np.isfinite(t_design) & valid
     t_safe = np.where(finite, np.clip(t_design, properties.T_MIN, properties.T_CRIT), properties.T_MIN)
     p_design = properties.saturation_pressure(t_safe)
+    floor = np.full(len(aim), np.nan) if valve_floor is None else np.asarray(valve_floor, dtype=float)
+    p_floor = properties.saturation_pressure(np.clip(np.nan_to_num(floor, nan=properties.T_MIN),
+                                                     properties.T_MIN, properties.T_CRIT))
     out = []
     for i in range(len(aim)):
-        if not valid[i] or t_aim[i] <= b.coil.outlet[i]:
+        if np.isfinite(floor[i]) and valid[i] and (t_aim[i] <= b.coil.outlet[i] or finite[i]):
+            own = float(p_design[i]) if t_aim[i] > b.coil.outlet[i] else 0.0
+            if floor[i] >= properties.T_CRIT or max(own, float(p_floor[i])) > DESIGN_PRESSURE_LIMIT:
+                out.append("too-high")
+            else:
+                out.append(max(own, float(p_floor[i])))
+        elif not valid[i] or t_aim[i] <= b.coil.outlet[i]:
             out.append("any")
         elif not finite[i]:
             out.append("none")

@@ -192,15 +192,42 @@ def load_at_inlet_temperature(coil: CoilModel, temperature):
     return (np.asarray(coil.outlet) - t) / (np.asarray(coil.outlet) - coil.inlet_design)
 
 
-def delivered_fraction(coil: CoilModel, temperature):
-    """Fraction of design load delivered at design flow and design entering temperature
-    when the steam is held at ``temperature`` [K] (the valve-limited case).
+def delivered_fraction(coil: CoilModel, temperature, load=1.0):
+    """Fraction of design load the coil delivers when the steam in it is held at
+    ``temperature`` [K] under the conditions of a load fraction ``load`` (its entering
+    temperature, or its flow): the valve-limited case, where the leaving temperature
+    falls short of the set point [-].
 
-    At design flow and entering temperature both methods give a load proportional to
-    T_steam − T_in,design:  Q/Q_design = (T_s − T_in,d)/(T_s,d − T_in,d).
+    The heat goes as T_s − T_in at a fixed flow for both methods. Where the load
+    follows the entering temperature (flow fixed, UA fixed):
+
+    .. math:: q = (T_s - T_{in}(f)) / (T_{s,d} - T_{in,d})
+
+    Where the flow follows the load (f = flow/flow_design, UA = UA_d·fⁿ), NTU:
+    q = f·(1 − e^{−NTU_d f^{n−1}})/ε_d · (T_s − T_in,d)/(T_s,d − T_in,d); mean
+    temperature, with the leaving temperature free, Q = UA·(T_s − T_in)/(1 + UA/2C):
+    q = fⁿ·(1 + k)/(1 + k·f^{n−1}) · (T_s − T_in,d)/(T_s,d − T_in,d), k = UA_d/(2C_d).
+    At full load every form is (T_s − T_in,d)/(T_s,d − T_in,d); at the steam
+    temperature the load needs (:func:`steam_temperature`) each gives ``load`` back.
+
+    References
+    ----------
+    .. [1] Incropera, F. P., DeWitt, D. P., Fundamentals of Heat and Mass Transfer, 6th
+       ed., eq. 11.35a (ε = 1 − exp(−NTU), C_r = 0).
     """
     t = np.asarray(temperature, dtype=float)
-    return (t - coil.inlet_design) / (np.asarray(coil.steam_design) - coil.inlet_design)
+    f = np.asarray(load, dtype=float)
+    outlet, steam, t_in = (np.asarray(a, dtype=float) for a in (coil.outlet, coil.steam_design, coil.inlet_design))
+    n = np.asarray(coil.ua_exponent, dtype=float)
+    span = steam - t_in
+    by_inlet = (t - (outlet - f * (outlet - t_in))) / span
+    with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
+        scale = np.power(f, n - 1.0)
+        ntu = f * -np.expm1(-coil.ntu_design * scale) / coil.effectiveness_design
+        k = (outlet - t_in) / (2.0 * (steam - coil.mean_design))
+        mean = np.power(f, n) * (1.0 + k) / (1.0 + k * scale)
+    flow = np.where(f > 0.0, np.where(coil.by_ntu, ntu, mean), 0.0) * (t - t_in) / span
+    return np.where(coil.by_inlet, by_inlet, flow)
 
 
 def design_steam_temperature_for(coil: CoilModel, load, temperature):

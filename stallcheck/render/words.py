@@ -18,6 +18,7 @@ the way practitioners round it (:func:`stallcheck.files.quantities.show_about`).
 
 from __future__ import annotations
 
+import math
 import string
 from typing import Any, Mapping
 
@@ -69,6 +70,7 @@ FINDINGS: dict[str, dict[str, str]] = {
         "": "The coil stalls while the entering air is below freezing (",
         "span": "from {inlet:temperature} up to {freezing:temperature}",
         "design": "at {inlet:temperature}",
+        "valve": "from {inlet:temperature} up to {upper:temperature}, where the valve holds the coil under",
         "why": "): condensate held in the tubes can freeze and split them.",
         "hours": " The load bins put {hours:,.0f} h a year in that band.",
         "drained": " The installed {installed} drains it; test it before each winter, and keep a low-limit "
@@ -90,9 +92,15 @@ FINDINGS: dict[str, dict[str, str]] = {
                "VA HVAC Design Manual).",
     },
     "valve-too-small": {
-        "": "The valve needs Cv {required_cv:.3g} at design but has Cv {cv:.3g}: wide open it holds the coil "
-            "at {limited_pressure:pressure} and delivers {limited_load:.0%} of the design load. Fit a larger "
-            "valve or raise the supply pressure.",
+        "": "The valve needs Cv {required_cv:cv} at design but has Cv {cv:.3g}: wide open it holds the coil "
+            "at {limited_pressure:pressure} and delivers {limited_load:.0%} of the design load.",
+        "fit": " Fit a larger valve or raise the supply pressure.",
+        "floods": " That is under the stall pressure of {stall_pressure:pressure}: the coil floods {from_load:where}, "
+                  "however well it is trapped, because the valve holds it down.",
+        "fix": " A valve of Cv {drain_cv:cv} or more keeps it draining at full load (the {margin:differential} "
+               "margin kept); Cv {fit_cv:cv} or more also delivers the design load.",
+        "no-fix": " No valve on this supply keeps it draining: the stall pressure is above what the supply can "
+                  "hold the coil at; lower the back pressure or fit a pump-trap.",
     },
     "valve-oversized": {
         "": "At design the valve is only {opening:.0%} open (Cv {required_cv:.3g} needed of {cv:.3g}): it "
@@ -263,6 +271,8 @@ STALLS_WHERE = {
     "part": "it stalls below {load:.0%} load, where the coil pressure falls to {stall_pressure:pressure}",
     "full": "it stalls at every load: the trap needs the coil above {stall_pressure:pressure}, more than it "
             "has at full load",
+    "valve": "its control valve, wide open, holds the coil at {valve_pressure:pressure} at full load, under the "
+             "stall pressure of {stall_pressure:pressure}, so it stalls {valve_where}",
 }
 #: Whether the installed drainage covers what is required (``Drainage.adequacy``).
 ADEQUACY = {
@@ -337,6 +347,10 @@ class _Fill(string.Formatter):
         self.atmospheric = atmospheric
 
     def format_field(self, value: Any, format_spec: str) -> str:
+        if format_spec == "cv":
+            return cv_up(value)
+        if format_spec == "where":
+            return valve_stall_loads(value, 0.0)
         if format_spec.startswith("~"):
             return q.show_about(value, format_spec[1:], self.system)
         if format_spec in q.DISPLAY[self.system]:
@@ -379,12 +393,35 @@ def remedy(m, system: str, atmospheric: float, minimum: float) -> str:
     return fill(REMEDIES[key, m.reason], facts, system, atmospheric)
 
 
+def cv_up(value: float) -> str:
+    """A flow coefficient someone will select a valve by, to three significant figures
+    rounded up: a valve of at least the printed Cv does what the text says."""
+    step = 10.0 ** (math.floor(math.log10(value)) - 2)
+    up = math.ceil(value / step - 1e-9) * step
+    return f"{up:.{max(0, 2 - math.floor(math.log10(up)))}f}"
+
+
+def valve_stall_loads(valve_load: float, below: float) -> str:
+    """Where a too-small valve stalls the coil, in words: from a load up (percent
+    rounded down, the safe way: the flooding starts no later than it says), merged with
+    the stall below ``below`` where the load itself brings one (0: none)."""
+    start = math.floor(valve_load * 100.0 + 1e-9)
+    if start <= 0 or valve_load <= below:
+        return "at every load"
+    head = f"below {math.ceil(below * 100.0 - 1e-9):.0f}% load and " if below > 0 else ""
+    return f"{head}from {start:.0f}% load up to full load"
+
+
 def drainage_reasons(dr, system: str, atmospheric: float) -> tuple[str, str]:
     """Why a unit needs the drainage it does, and whether what is installed covers it,
     for a :class:`stallcheck.result.Drainage`."""
     facts = dict(dr.facts, installed=dr.installed, required=dr.required)
     if dr.requirement in ("vacuum-breaker", "gravity-short", "above-atmospheric"):
-        where = STALLS_WHERE["full" if facts["load"] >= 1 else "part"]
+        if facts.get("valve_load") is not None:
+            facts["valve_where"] = valve_stall_loads(facts["valve_load"], facts["load"] if facts["by_load"] else 0.0)
+            where = STALLS_WHERE["valve"]
+        else:
+            where = STALLS_WHERE["full" if facts["load"] >= 1 else "part"]
         facts["where"] = fill(where, facts, system, atmospheric)
     return (fill(REQUIREMENTS[dr.requirement], facts, system, atmospheric),
             fill(ADEQUACY[dr.adequacy], facts, system, atmospheric))
