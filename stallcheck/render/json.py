@@ -25,6 +25,7 @@ def _clean(value):
 def to_dict(r: Result) -> dict:
     """The result as plain JSON-ready data (the contract)."""
     pts = r.points
+    limited = pts.valve_limited if pts is not None else ()
     points = []
     for i, f in enumerate(pts.load_fraction if pts is not None else ()):
         point = {
@@ -38,6 +39,8 @@ def to_dict(r: Result) -> dict:
         }
         if pts.valve_opening is not None:
             point["valve_opening"] = _clean(float(pts.valve_opening[i]))
+            point["valve_limited"] = bool(limited[i])
+            point["needed_coil_pressure_kpa"] = float(q.kpa(pts.needed_coil_pressure[i]))
         points.append(point)
     s = r.stall
     v = r.valve
@@ -64,14 +67,17 @@ def to_dict(r: Result) -> dict:
             "medium_kg_h": q.kg_h(r.design.medium_mass_flow),
         },
         "stall": {
-            "occurs": s.occurs,
+            "occurs": s.floods,
             "load_fraction": s.load_fraction,
             "coil_pressure_kpa": q.kpa(s.coil_pressure),
             "steam_temperature_c": q.celsius(s.steam_temperature),
             "condensate_kg_h": q.kg_h(s.condensate),
             "inlet_temperature_c": q.celsius(s.inlet_temperature),
             "threshold_pressure_kpa": q.kpa(s.threshold_pressure),
-            "in_operating_range": s.in_range,
+            "in_operating_range": s.floods_in_range,
+            "valve_load_fraction": s.valve_load_fraction,
+            "valve_coil_pressure_kpa": q.kpa(s.valve_coil_pressure),
+            "ranges": [list(pair) for pair in s.ranges],
         },
         "stalled_hours": r.stalled_hours,
         "total_hours": r.total_hours,
@@ -93,6 +99,7 @@ def to_dict(r: Result) -> dict:
             "min_controllable_load_fraction": v.min_controllable_load,
             "characteristic": v.characteristic,
             "rangeability": v.rangeability,
+            "drain_cv": v.drain_cv,
         },
         "trap": _trap(r),
         "pump_trap": _pump_trap(r),

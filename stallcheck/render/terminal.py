@@ -91,9 +91,11 @@ def report(result: Result, system: str, width: int = 80) -> list:
 
     s = r.stall
     parts.append(_heading("Stall point"))
-    if not s.occurs:
+    if not s.occurs and s.valve_load_fraction is None:
         parts.append(_para(f"none: the coil pressure stays above {p(s.threshold_pressure)}, the pressure at "
                            f"which the trap stops discharging, at every load.", style="green"))
+    elif not s.occurs:
+        parts.append(Para(runs((f"  stalls {words.valve_stall_loads(s.valve_load_fraction, 0.0)}", "bold red")), 0))
     else:
         if s.load_fraction >= 1.0:
             lead = runs(("  stalled at every load, full load included", "bold red"))
@@ -109,9 +111,14 @@ def report(result: Result, system: str, width: int = 80) -> list:
         else:
             parts.append(_para(f"coil pressure {p(s.coil_pressure)}, steam {t(s.steam_temperature)}, "
                                f"condensate {w(s.condensate)}"))
-        if not s.in_range:
+        if not s.in_range and s.valve_load_fraction is None:
             parts.append(_para(f"below the minimum load of {r.minimum_load:.0%}: it never runs there.",
                                style="green"))
+    if s.valve_load_fraction is not None:
+        parts.append(_para(f"the control valve, wide open, holds the coil at {p(s.valve_coil_pressure)} at full "
+                           f"load, under the stall pressure of {p(s.threshold_pressure)}: it floods "
+                           f"{words.valve_stall_loads(s.valve_load_fraction, s.load_fraction if s.in_range else 0.0)}"
+                           f" (see control valve)", style="red"))
     if r.stalled_hours is not None:
         parts.append(_para(f"stalled {r.stalled_hours:,.0f} h of {r.total_hours:,.0f} h in the load bins"))
     parts.append(BLANK)
@@ -191,7 +198,14 @@ def _devices(r: Result, system: str) -> list:
             select += runs(f"; it passes {w(tr.installed_capacity)} there: ",
                            ("enough", "bold green") if tr.capacity_ok else ("SHORT", "bold red"))
         parts.append(_para(select))
-        if tr.limit_load is None:
+        if r.stall.valve_load_fraction is not None:
+            # the valve floods the coil from that load up: no trap keeps up there
+            parts.append(_para(f"from {words.valve_stall_loads(r.stall.valve_load_fraction, 0.0)[5:]} the valve "
+                               f"holds the coil under the stall pressure: no trap discharges there",
+                               style="red") if r.stall.valve_load_fraction > 0 else
+                         _para("the valve holds the coil under the stall pressure at every load: no trap "
+                               "discharges", style="red"))
+        elif tr.limit_load is None:
             parts.append(_para("drainage limit: none, it keeps up at every load above zero"))
         elif r.stall.occurs and tr.limit_load <= r.stall.load_fraction + 0.005:
             parts.append(_para(f"drainage limit: at the stall point ({tr.limit_load:.0%} load); above it the "
