@@ -318,7 +318,7 @@ def _analyse(units: list[Unit], systems: list[str], tabulate: bool = True, compl
 
     valves, opening = _valves(b, None if grid is None else grid[1], None if grid is None else grid[2])
     valve_load, drain_cv = _valve_stall_loads(b, valves)
-    stall = [s if np.isnan(valve_load[i]) else _with_valve_stall(s, b, valves[i], float(valve_load[i]))
+    stall = [s if np.isnan(valve_load[i]) else _with_valve_stall(s, valves[i], float(valve_load[i]))
              for i, s in enumerate(stall)]
     valves = [v if v is None or np.isnan(drain_cv[i]) else _with_drain_cv(v, float(drain_cv[i]))
               for i, v in enumerate(valves)]
@@ -457,13 +457,7 @@ def _valves(b: Batch, coil_p, steam_flow):
         low = np.maximum(properties.saturation_pressure(np.maximum(coil.inlet_design, properties.T_MIN)),
                          properties.P_MIN)
 
-        def excess(p, where):
-            t = properties.saturation_temperature(p)
-            k = short[where]
-            need = (b.load_design[units[where]] * coilmod.delivered_fraction(coil.take(where), t)
-                    / properties.latent_heat(p))
-            return valvemod.steam_flow(cv[k], p1[k], p, rho1[k], xt[k]) - need
-
+        excess = _valve_excess(b, units, np.ones(units.size), cv[short], p1[short], rho1[short], xt[short])
         found = illinois(excess, low, b.design_pressure[units], PRESSURE_TOLERANCE)
         solved = np.isfinite(found)
         p_lim = np.where(solved, found, low)
@@ -569,7 +563,7 @@ def _valve_stall_loads(b: Batch, valves) -> tuple[np.ndarray, np.ndarray]:
     return out, fix
 
 
-def _with_valve_stall(s: StallPoint, b: Batch, valve, load: float) -> StallPoint:
+def _with_valve_stall(s: StallPoint, valve, load: float) -> StallPoint:
     """The stall point with the valve's stall added: the load from which it floods and
     the pressure the open valve holds at full load."""
     return StallPoint(s.occurs, s.threshold_pressure, s.load_fraction, s.coil_pressure, s.steam_temperature,
