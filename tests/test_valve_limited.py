@@ -100,19 +100,17 @@ def unit_data(cfm, t_in_f, t_out_f, design_psig, supply_psig, return_psig, fill_
     }
 
 
-CASES = list(itertools.product(
-    [0.3, 0.5, 0.7, 0.9, 1.2],          # Cv as a share of what the design load needs (about)
-    [(25, 15), (40, 30), (15, 5)],       # supply and design coil pressure, psig
-    [0, 2, 5],                           # return pressure, psig
-))
+# Cv as a share of what the design load needs (about); supply and design coil pressure,
+# psig; return pressure, psig, below the design coil pressure (a return above it stalls
+# the coil at full load whatever the valve: test_findings.py holds that case)
+CASES = [(share, pressures, ret) for share, pressures, ret in itertools.product(
+    [0.3, 0.5, 0.7, 0.9, 1.2], [(25, 15), (40, 30), (15, 5)], [0, 2, 5]) if ret < pressures[1]]
 
 
 @pytest.mark.parametrize("share,pressures,return_psig", CASES)
 def test_valve_limited_verdict_matches_an_independent_solve(share, pressures, return_psig):
     # A reheat coil, 50 °F to 90 °F, 8,000 cfm, 18 in of fill head, running from 70 %.
     supply, design = pressures
-    if return_psig >= design:
-        pytest.skip("the return is above the coil: a full-load stall, not the valve's")
     probe = analysis.analyse(unitfile.from_data(
         unit_data(8000, 50, 90, design, supply, return_psig, 18, 100, 0.7), "ostler.toml"))
     cv = round(probe.valve.required_cv_design * share, 2)
