@@ -522,6 +522,28 @@ def _valve_terms(b: Batch, valves, units):
     return cv, p1, properties.vapour_density(p1), xt
 
 
+def _short_valves(valves) -> list[int]:
+    """The units whose open valve cannot pass the design load."""
+    return [i for i, v in enumerate(valves) if v is not None and not v.capacity_ok]
+
+
+def _aim_ratio(b: Batch, units, cv, p1, rho1, xt):
+    """For the valves of ``units``: what the coil condenses at full load with its
+    pressure the remedies' margin above the stall pressure, over what the open valve
+    passes there [-]; inf where that pressure is not below the supply. The Cv that
+    holds the coil there is Cv times this (the valve's flow goes as its Cv), and so is
+    the design steam temperature's span above the entering air (the coil condenses as
+    T_s − T_in,d over T_s,d − T_in,d)."""
+    aim = b.threshold[units] + remedies.MARGIN
+    ok = (aim > properties.P_MIN) & (aim < p1)
+    aim = np.clip(aim, properties.P_MIN, p1)
+    condensed = (b.load_design[units] * coilmod.delivered_fraction(b.coil.take(units),
+                                                                   properties.saturation_temperature(aim))
+                 / properties.latent_heat(aim))
+    with np.errstate(divide="ignore", invalid="ignore"):
+        return np.where(ok, condensed / valvemod.steam_flow(cv, p1, aim, rho1, xt), np.inf)
+
+
 def _valve_stall_loads(b: Batch, valves) -> tuple[np.ndarray, np.ndarray]:
     """For each unit, the load fraction from which up to full load its open valve holds
     the coil at or under the stall pressure (by more than the verdict's tolerance; NaN
@@ -553,12 +575,7 @@ def _valve_stall_loads(b: Batch, valves) -> tuple[np.ndarray, np.ndarray]:
     low = np.full(units.size, 1e-9)
     found = illinois(short_at, low, np.ones(units.size), LOAD_TOLERANCE)
     everywhere = short_at(low, np.arange(units.size)) >= 0.0
-    # the least Cv whose open valve holds the coil the remedies' margin above the stall
-    # pressure at full load (the valve's flow goes as its Cv)
-    aim = thr + remedies.MARGIN
-    t_aim = properties.saturation_temperature(aim)
-    condensed = b.load_design[units] * coilmod.delivered_fraction(coil, t_aim) / properties.latent_heat(aim)
-    fix[units] = np.where(aim < p1, cv * condensed / valvemod.steam_flow(cv, p1, aim, rho1, xt), np.inf)
+    fix[units] = cv * _aim_ratio(b, units, cv, p1, rho1, xt)
     out[units] = np.where(everywhere, 0.0, np.where(np.isfinite(found), found, 1.0))
     return out, fix
 
@@ -580,24 +597,16 @@ def _valve_bound(b: Batch, valves, p_min):
     At full load the coil condenses Q_d·(T_s − T_in,d)/(T_s,d − T_in,d)/h_fg; a smaller
     coil (a higher design temperature) condenses less at the same pressure, so the open
     valve holds it at p_aim = p_stall + margin where
-    T_s,d ≥ T_in,d + Q_d·(T_aim − T_in,d)/(h_fg(p_aim)·W_valve(p_aim))."""
+    T_s,d ≥ T_in,d + (T_s,d − T_in,d)·:func:`_aim_ratio`."""
     p_low = np.array(p_min, dtype=float)
     floor = np.full(len(b.units), np.nan)
-    short = [i for i, v in enumerate(valves) if v is not None and not v.capacity_ok]
+    short = _short_valves(valves)
     if not short:
         return p_low, floor
     units = np.array(short)
     p_low[units] = np.minimum(p_low[units], [valves[i].limited_coil_pressure for i in short])
-    cv, p1, rho1, xt = _valve_terms(b, valves, units)
-    aim = b.threshold[units] + remedies.MARGIN
-    ok = (aim > properties.P_MIN) & (aim < p1)
-    aim = np.clip(aim, properties.P_MIN, p1)
-    passed = valvemod.steam_flow(cv, p1, aim, rho1, xt)
     t_in = b.coil.inlet_design[units]
-    with np.errstate(divide="ignore", invalid="ignore"):
-        t_floor = t_in + b.load_design[units] * (properties.saturation_temperature(aim) - t_in) / (
-            properties.latent_heat(aim) * passed)
-    floor[units] = np.where(ok, t_floor, np.inf)
+    floor[units] = t_in + (b.coil.steam_design[units] - t_in) * _aim_ratio(b, units, *_valve_terms(b, valves, units))
     return p_low, floor
 
 
@@ -613,7 +622,7 @@ def _valve_limited_grid(b: Batch, valves, grid, opening):
     cannot pass what the load needs: coil pressure, steam temperature and flow, the
     differential at the trap and the stall, and the valve wide open there."""
     steam_t, coil_p, steam_flow, differential, stalled, inlet_t = (np.array(a) for a in grid)
-    short = [i for i, v in enumerate(valves) if v is not None and not v.capacity_ok]
+    short = _short_valves(valves)
     if not short or opening is None:
         return steam_t, coil_p, steam_flow, differential, stalled, inlet_t
     rows = np.array(short)

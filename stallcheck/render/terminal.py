@@ -200,11 +200,9 @@ def _devices(r: Result, system: str) -> list:
         parts.append(_para(select))
         if r.stall.valve_load_fraction is not None:
             # the valve floods the coil from that load up: no trap keeps up there
-            parts.append(_para(f"from {words.valve_stall_loads(r.stall.valve_load_fraction, 0.0)[5:]} the valve "
-                               f"holds the coil under the stall pressure: no trap discharges there",
-                               style="red") if r.stall.valve_load_fraction > 0 else
-                         _para("the valve holds the coil under the stall pressure at every load: no trap "
-                               "discharges", style="red"))
+            parts.append(_para(f"the valve holds the coil under the stall pressure "
+                               f"{words.valve_stall_loads(r.stall.valve_load_fraction, 0.0)}: no trap "
+                               f"discharges there", style="red"))
         elif tr.limit_load is None:
             parts.append(_para("drainage limit: none, it keeps up at every load above zero"))
         elif r.stall.occurs and tr.limit_load <= r.stall.load_fraction + 0.005:
