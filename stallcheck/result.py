@@ -475,7 +475,8 @@ class SurgeFigures:
     ----------
     basis : str
         ``"pump-trap"`` (its discharge stopped by the check valve) or
-        ``"falling-column"`` (the column in a lift after the trap falling back).
+        ``"lift"`` (the trap's full-load discharge rising in a lift after it, stopped
+        when the trap shuts).
     velocity : float
         Of the column before it is stopped. [m/s]
     wave_speed : float
@@ -492,8 +493,9 @@ class SurgeFigures:
         working + surge. [Pa] absolute
     rating : float or None  [Pa] absolute
     slow_closing_time : float or None
-        For a pump-trap's check valve: a closing time that holds the peak to 80 % of
-        the rating (Michaud), where the rating and the line's length are known. [s]
+        For the check valve on the discharge: a closing time that holds the peak to
+        80 % of the rating (Michaud), where the rating and the line's length are known.
+        [s]
     """
 
     basis: str

@@ -120,6 +120,11 @@ SCENARIOS = {
                          'motive_pressure = "60 psig"\npump_rate = "3000 lb/h"\nreturn_line = "1 in"\n'
                          'return_length = "100 ft"\nreturn_rating = "50 psig"\n',
                          dict(inlet_temperature="40 degF", noise="all-the-time", trap_outlet="hot-passing")),
+    # a plain trap lifting 3 m through a 25 mm line rated only 1 barg: the trap's
+    # full-load discharge (about 1,200 kg/h), stopped when it shuts, passes the rating
+    "lift-column-shock": (HOT_WATER.replace('return_pressure = "0 barg"', 'return_pressure = "0 barg"\nlift = "3 m"'),
+                          'return_line = "25 mm"\nreturn_rating = "1 barg"\n',
+                          dict(load="0.9", noise="low-load", trap_outlet="hot-passing")),
     # hot condensate flashing into a pumped return at 50 °C, the trap working
     "flash-into-cool-return": (HOT_WATER, 'return_temperature = "50 degC"\n',
                                dict(load="0.7", noise="all-the-time", trap_outlet="hot-passing")),
@@ -138,6 +143,26 @@ def test_each_cause_ranks_first_on_its_evidence(cause):
 
 def test_every_cause_has_a_scenario():
     assert set(SCENARIOS) == {c.code for c in diagnosis.CAUSES}
+
+
+def test_a_shock_names_only_equipment_the_unit_has_and_a_rating_only_where_given():
+    # The lift scenario has no pump-trap: no check-valve slam is ranked; its surge is
+    # cited against the rating it was given. Without a rating, a surge over about 150
+    # psi is "large" (common practice, from memory) and no rating is cited.
+    from stallcheck.render import diagnosis as said
+
+    text, extra, given = SCENARIOS["lift-column-shock"]
+    d = _diagnose(text, extra, **given)
+    assert "check-valve-slam" not in _ranking(d)
+    lift = next(c for c in said.said(d) if c.code == "lift-column-shock")
+    assert any("rating" in e for e in lift.evidence)
+    slim = _diagnose(text, 'return_line = "12 mm"\n', **given)   # a rise over 1,000 kPa, no rating
+    assert slim.result.surge.rating is None and slim.result.surge.surge > 1.0e6
+    lift = next(c for c in said.said(slim) if c.code == "lift-column-shock")
+    assert not any("past the line's rating" in e for e in lift.evidence)
+    assert any("no rating was given" in e for e in lift.evidence)
+    small = _diagnose(text, 'return_line = "50 mm"\n', **given)    # unrated, under 150 psi
+    assert "lift-column-shock" not in _ranking(small)
 
 
 def test_same_symptoms_rank_by_the_unit_file():

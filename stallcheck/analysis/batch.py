@@ -368,7 +368,7 @@ def _analyse(units: list[Unit], systems: list[str], tabulate: bool = True, compl
         pump = devices.pump_trap_figures(u, drains[i].required, s, float(b.back[i]), float(b.supply[i]))
         line = devices.return_line_figures(u, float(b.steam_design[i]), float(b.design_pressure[i]), s,
                                            float(w_min[i]), float(p_min[i]))
-        shock = devices.surge_figures(u, pump, float(b.back[i]))
+        shock = devices.surge_figures(u, pump, float(b.back[i]), float(b.steam_design[i]))
         purge = devices.purge_figures(u, b.one(i), float(b.back[i]), float(b.design_pressure[i]),
                                       float(p_min[i]), bins_load, bins_hours)
         result = Result(

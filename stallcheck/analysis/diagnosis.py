@@ -74,8 +74,10 @@ CAUSES = (
           "noise_all_the_time": 1, "trap_blowing": -5}),
     Cause("return-line-slugging", {"return_slugging": 4, "noise_all_the_time": 1, "noise_valve_opens": 1,
           "trap_hot": 1, "stalled_model": -1, "trap_cold": -1}),
-    Cause("check-valve-slam", {"surge_high": 4, "lift_after_trap": 1, "noise_low_load": 1,
+    Cause("check-valve-slam", {"pump_surge_near_rating": 4, "pump_surge_large": 4, "noise_low_load": 1,
           "noise_all_the_time": 1, "trap_blowing": -2}),
+    Cause("lift-column-shock", {"lift_surge_near_rating": 4, "lift_surge_large": 4, "lift_after_trap": 1,
+          "noise_low_load": 1, "trap_blowing": -2}),
     Cause("flash-into-cool-return", {"cool_return": 4, "noise_all_the_time": 2, "trap_hot": 1, "trap_cold": -2}),
 )
 
@@ -96,7 +98,8 @@ REQUIRES = {
     "vacuum-breaker-cannot-act": ("breaker_cannot_act",),
     "pump-trap-not-pumping": ("pump_flooding", "pump_motive_low", "pump_short"),
     "return-line-slugging": ("return_slugging",),
-    "check-valve-slam": ("surge_high",),
+    "check-valve-slam": ("pump_surge_near_rating", "pump_surge_large"),
+    "lift-column-shock": ("lift_surge_near_rating", "lift_surge_large"),
     "flash-into-cool-return": ("cool_return",),
     "trap-failed-closed": ("trap_cold_with_differential",),
 }
@@ -283,7 +286,7 @@ def _facts(unit, r, readings, load, model_p, condensate, back, fill, stalled_mod
         "freezing_air": bool(r.medium == "air" and inlet_now is not None and inlet_now < 273.15),
         "cool_return": "flash-into-cool-return" in found,
         "return_slugging": "return-line-slug-flow" in found,
-        "surge_high": _surge_high(r),
+        **_surge_facts(r),
     }
 
 
@@ -292,16 +295,19 @@ def _facts(unit, r, readings, load, model_p, condensate, back, fill, stalled_mod
 LARGE_SURGE = 1.0e6
 
 
-def _surge_high(r: Result) -> bool:
-    """True where the computed surge takes the line near or past its rating
-    (:data:`devices.RATING_SHARE` of it), or, with no rating given, above
-    :data:`LARGE_SURGE`."""
+def _surge_facts(r: Result) -> dict:
+    """Where the computed surge is high, by what stops the column (a pump-trap's check
+    valve, or the trap under a lift: only equipment the unit has) and by what it is
+    high against: ``*_near_rating`` where the peak reaches :data:`devices.RATING_SHARE`
+    of the line's given rating, ``*_large`` where no rating is given and the rise
+    exceeds :data:`LARGE_SURGE`."""
     sh = r.surge
     if sh is None:
-        return False
+        return {}
+    who = "pump" if sh.basis == "pump-trap" else "lift"
     if sh.rating is not None:
-        return sh.peak >= RATING_SHARE * sh.rating
-    return sh.surge >= LARGE_SURGE
+        return {f"{who}_surge_near_rating": sh.peak >= RATING_SHARE * sh.rating}
+    return {f"{who}_surge_large": sh.surge >= LARGE_SURGE}
 
 
 def rank(facts: dict) -> tuple[RankedCause, ...]:

@@ -192,9 +192,9 @@ def _return_line(r: Result) -> list[Finding]:
         severity, level = "warning", "near"
     else:
         return out
-    cause, fix = ("pump", "fix-pump") if sh.basis == "pump-trap" else ("column", "fix-column")
+    cause, fix, flash = ("pump", "fix-pump", ()) if sh.basis == "pump-trap" else ("column", "fix-column", ("flash",))
     slow = ("slow",) if sh.slow_closing_time is not None else ()
-    out.append(Finding("hydraulic-shock", severity, (cause, level, fix, *slow, "end"),
+    out.append(Finding("hydraulic-shock", severity, (cause, level, fix, *slow, *flash, "end"),
                        {"surge": sh.surge, "velocity": sh.velocity, "speed": sh.wave_speed, "peak": sh.peak,
                         "rating": sh.rating, "slow": sh.slow_closing_time, "share": RATING_SHARE}))
     return out

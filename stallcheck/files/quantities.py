@@ -650,6 +650,8 @@ def show(value: float | None, kind: str, system: str, atmospheric: float = STAND
         places = 0
     # bores read as a drawing gives them: three significant figures (1/16 in is 0.0625 in)
     text = f"{number:.3g}" if kind == "diameter" and decimals is None else f"{number:,.{places}f}"
+    if kind == "velocity" and decimals is None and 0 < abs(number) < 9.95:
+        text = f"{number:.2g}"   # a slow column (under 10 ft/s) to two figures, not "1 ft/s"
     if text.startswith("-") and float(text.replace(",", "")) == 0:
         text = text[1:]
     if kind == "pressure" and system == "us" and decimals is None and text.startswith("-"):

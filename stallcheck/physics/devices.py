@@ -390,11 +390,36 @@ def return_line_figures(u: Unit, design_flow: float, design_pressure: float, sta
 RATING_SHARE = 0.8
 
 
-def surge_figures(u: Unit, pump: PumpTrapFigures | None, back_pressure: float) -> SurgeFigures | None:
-    """Hydraulic shock in the line from the trap: a pump-trap's discharge stopped by its
-    check valve, or, after a plain trap, the column in the lift falling back when the
-    trap shuts. Needs the line's bore (and for a pump-trap its discharge rate or
-    capacity)."""
+def surge_figures(u: Unit, pump: PumpTrapFigures | None, back_pressure: float,
+                  design_condensate: float) -> SurgeFigures | None:
+    """Hydraulic shock in the line from the trap where a moving column of condensate is
+    stopped: a pump-trap's discharge stopped by its check valve, or, after a plain trap
+    with a lift, the condensate rising in the lift stopped when the trap shuts.
+
+    The velocity stopped is one the flow itself gives, never free fall: the pump-trap's
+    discharge rate (the maker's, else its capacity) over the line's bore; for a lift,
+    the trap's full-load discharge over the bore. A column thrown up a riser and left
+    to fall back returns onto the shut trap no faster than it rose (the rigid-column
+    model: gravity takes back the energy it gave; friction only slows it). The check
+    valve's closing time is used in both cases (Michaud's rise where it is slower than
+    the wave's round trip). Needs the line's bore.
+
+    Parameters
+    ----------
+    u : Unit
+    pump : PumpTrapFigures or None
+    back_pressure : float
+        Working pressure in the line. [Pa] absolute
+    design_condensate : float
+        Condensate at full load. [kg/s]
+
+    References
+    ----------
+    .. [1] Wylie, E. B., Streeter, V. L. (1993). Fluid Transients in Systems, ch. 1
+       (Joukowsky; the rigid-column model of a column's motion).
+    .. [2] Thorley, A. R. D. (2004). Fluid Transients in Pipeline Systems, 2nd ed.,
+       section 2.3 (Michaud's slow closure).
+    """
     dr = u.drain
     if dr.return_line is None:
         return None
@@ -404,21 +429,22 @@ def surge_figures(u: Unit, pump: PumpTrapFigures | None, back_pressure: float) -
         rate = dr.pump_rate or pump.capacity
         if not rate:
             return None
-        basis, velocity, closing = "pump-trap", rate / (rho * area), dr.check_closing_time
-    elif dr.lift > 0 and dr.arrangement != "pump-trap":
-        basis, velocity, closing = "falling-column", hammer.falling_velocity(dr.lift), 0.0
+        basis = "pump-trap"
+    elif dr.lift > 0 and dr.arrangement != "pump-trap" and design_condensate > 0:
+        rate, basis = design_condensate, "lift"
     else:
         return None
+    velocity, closing = rate / (rho * area), dr.check_closing_time
     c = float(properties.liquid_sound_speed(back_pressure))
     wall = dr.return_wall or hammer.standard_wall(dr.return_line)
     a = hammer.wave_speed(rho * c * c, rho, dr.return_line, wall, hammer.YOUNGS_MODULUS[dr.return_material])
-    length = dr.return_length if dr.return_length is not None else (dr.lift if basis == "falling-column" else None)
+    length = dr.return_length if dr.return_length is not None else (dr.lift if basis == "lift" else None)
     if length is None:
         rise = hammer.joukowsky(rho, a, velocity)
     else:
         rise = hammer.surge(rho, a, velocity, length, closing)
     slow = None
-    if basis == "pump-trap" and dr.return_rating is not None and length is not None:
+    if dr.return_rating is not None and length is not None:
         allowed = RATING_SHARE * dr.return_rating - back_pressure
         if allowed > 0 and back_pressure + rise > RATING_SHARE * dr.return_rating:
             exact = max(2.0 * rho * length * velocity / allowed, 2.0 * length / a)

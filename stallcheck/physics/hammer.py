@@ -205,8 +205,3 @@ def surge(density: float, speed: float, velocity_change: float, length: float, c
     # smaller of the two is the rise either side of the round trip
     return min(sudden, 2.0 * density * length * velocity_change / closing_time)
 
-
-def falling_velocity(height: float) -> float:
-    """Speed [m/s] of a column that falls freely back down a rise of ``height`` [m]:
-    √(2·g·h), an upper bound (friction slows it)."""
-    return math.sqrt(2.0 * GRAVITY * max(height, 0.0))

@@ -126,12 +126,18 @@ CAUSE_WORDS = {
          "the flow, or flash the condensate in a vented receiver next to the trap."),
     ),
     "check-valve-slam": (
-        ("A moving column of condensate is stopped at once: a check valve slamming on the discharge, "
-         "or a column falling back down the lift (hydraulic shock)"),
-        ("Listen at the check valve on the discharge as each pumping stroke ends, or at the trap as "
-         "the load falls: one sharp knock a cycle is a slam."),
+        "The pump-trap's check valve slams as each discharge stroke ends (hydraulic shock)",
+        ("Listen at the check valve on the pump-trap's discharge as each pumping stroke ends: one sharp "
+         "knock a stroke is a slam."),
         ("Fit a non-slam (spring-loaded, centre-guided) check valve, or slow the closure (the check's "
-         "surge figure); do not lift straight after the trap of a modulating coil."),
+         "surge figure gives a closing time where the line's rating and length are known)."),
+    ),
+    "lift-column-shock": (
+        "The trap shuts on the condensate rising in the lift after it (hydraulic shock)",
+        ("Listen at the trap and the foot of the lift as the load falls: a sharp knock as the trap "
+         "shuts is the column stopping; crackling up the riser is flash steam collapsing."),
+        ("Do not lift straight after the trap of a modulating coil: drain by gravity to a vented "
+         "receiver and pump from there, or fit a non-slam check valve after the trap."),
     ),
     "flash-into-cool-return": (
         "Flash steam collapses in a cool return and hammers",
@@ -181,8 +187,14 @@ FACT_WORDS = {
     "drainage_covers_stall": ("the installed drainage is the one the check requires for its stall, so a stall floods the "
      "coil only where that equipment fails"),
     "return_slugging": "by the flow-pattern map the line from the trap runs in slug flow (see the return line)",
-    "surge_high": ("the computed surge, where the column in the line is stopped, is near or past the line's "
-     "rating (see the surge)"),
+    "pump_surge_near_rating": ("the computed surge where the check valve stops the pump-trap's discharge is near or "
+     "past the line's rating (see the surge)"),
+    "pump_surge_large": ("the computed surge where the check valve stops the pump-trap's discharge is large for "
+     "condensate piping (over about 150 psi; no rating was given to compare it with)"),
+    "lift_surge_near_rating": ("the computed surge where the trap shuts on the column in the lift is near or past "
+     "the line's rating (see the surge)"),
+    "lift_surge_large": ("the computed surge where the trap shuts on the column in the lift is large for "
+     "condensate piping (over about 150 psi; no rating was given to compare it with)"),
 }
 
 

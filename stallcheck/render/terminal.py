@@ -310,15 +310,20 @@ def hammer_sections(r: Result, system: str) -> list:
     if sh is not None:
         atm = r.atmospheric_pressure
         what = ("the pump-trap's discharge stopped by its check valve" if sh.basis == "pump-trap"
-                else "the column in the lift falling back onto the trap (free fall, an upper bound)")
+                else "the trap's full-load discharge rising in the lift, stopped when the trap shuts (a column "
+                     "that falls back strikes no faster than it rose)")
         if sh.basis == "pump-trap":
             what += f", closing in {sh.closing_time:g} s" if sh.closing_time else ", closing at once"
+        elif sh.closing_time:
+            what += f"; the check valve after it closes in {sh.closing_time:g} s"
         parts += [_heading("Surge (hydraulic shock)"), _para(what),
                   _para(f"{q.show(sh.velocity, 'velocity', system)} stopped; wave speed "
                         f"{q.show(sh.wave_speed, 'velocity', system, decimals=0)} (Korteweg): a rise of "
                         f"{q.show_about(sh.surge, 'differential', system)} (Joukowsky"
                         + (", slowed by the closure" if sh.slowed else "") + f"), to {q.show(sh.peak, 'pressure', system, atm)}"
                         + (f" against a rating of {q.show(sh.rating, 'pressure', system, atm)}" if sh.rating else "")),
+                  *([_para("flash steam collapsing in the riser can strike harder; no published method sizes "
+                           "that from these inputs", style="dim")] if sh.basis == "lift" else []),
                   _para("a screening figure: relief, ratings and the fix follow the piping code and licensed "
                         "practice", style="dim"),
                   BLANK]

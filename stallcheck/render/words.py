@@ -200,9 +200,10 @@ FINDINGS: dict[str, dict[str, str]] = {
         "pump": "When the pump-trap's discharge ({velocity:velocity}) is stopped by its check valve, the column "
                 "raises the pressure by {surge:~differential} (Joukowsky, with a wave speed of "
                 "{speed:~velocity}), to {peak:pressure}",
-        "column": "When the trap shuts, the column in the lift after it can fall back at up to "
-                  "{velocity:velocity} (free fall, an upper bound) and stop on the trap, raising the pressure "
-                  "by up to {surge:~differential} (Joukowsky, wave speed {speed:~velocity}), to {peak:pressure}",
+        "column": "When the trap shuts, the condensate rising in the lift after it at {velocity:velocity} (the "
+                  "trap's full-load discharge) is stopped, and a column that falls back strikes the trap no "
+                  "faster than it rose: the pressure rises by {surge:~differential} (Joukowsky, wave speed "
+                  "{speed:~velocity}), to {peak:pressure}",
         "unrated": "; give drain.return_rating to compare it with the line's rating. ",
         "over": ", above the line's rating of {rating:pressure}. ",
         "near": ", above {share:.0%} of the line's rating of {rating:pressure}. ",
@@ -210,6 +211,8 @@ FINDINGS: dict[str, dict[str, str]] = {
         "fix-column": "Do not lift straight after the trap of a modulating coil: drain by gravity to a vented "
                       "receiver and pump from there, or fit a non-slam check valve after the trap",
         "slow": ", or close it over at least {slow:.2g} s",
+        "flash": ". Flash steam collapsing in the riser can strike harder than this; no published method sizes "
+                 "that from these inputs",
         "end": ". A screening figure: relief, ratings and the fix follow the piping code in force and licensed "
                "practice; make a hammering system safe before studying it.",
     },
