@@ -215,7 +215,7 @@ def new(file: Optional[Path] = typer.Argument(None, help="Where to write the uni
 
     from stallcheck import wizard
     from stallcheck.files import atomic
-    from stallcheck.render import page, terminal
+    from stallcheck.render import page, terminal, words
 
     err = terminal.console(stderr=True)
     try:
@@ -232,9 +232,7 @@ def new(file: Optional[Path] = typer.Argument(None, help="Where to write the uni
                 continue
             break
         out = terminal.console()
-        s = result.stall
-        verdict = ("never stalls" if not s.occurs else "stalls at every load" if s.load_fraction >= 1
-                   else f"stalls below {s.load_fraction:.0%} load")
+        verdict = words.stall_summary(result.stall)
         out.print(f"{result.unit}: {verdict}; needs {result.drainage.required}, has {result.drainage.installed} "
                   f"({'adequate' if result.drainage.adequate else 'NOT adequate'})", highlight=False, markup=False)
         page.emit([terminal.chart_block(result, result.system, width=min(out.width, page.MAX_WIDTH) - 2)],

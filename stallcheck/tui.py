@@ -25,7 +25,7 @@ from stallcheck.errors import InputError, StallcheckError
 from stallcheck.files import atomic, unitwriter
 from stallcheck.files import quantities as q
 from stallcheck.inputs import Unit
-from stallcheck.render import terminal
+from stallcheck.render import terminal, words
 
 #: What the keys nudge: name → (unit-file key, display kind, step in SI by system).
 KNOBS = {
@@ -158,12 +158,12 @@ def compared(before, after, system: str) -> list[str]:
 
     def stall(r) -> str:
         s = r.stall
-        return "none" if not s.occurs else ("every load" if s.load_fraction >= 1 else f"below {s.load_fraction:.0%}")
+        return words.stall_summary(s)
 
     def verdict(r) -> str:
         return f"{r.drainage.required}, {'adequate' if r.drainage.adequate else 'NOT ADEQUATE'}"
 
-    pairs = [("stall", stall(before), stall(after)), ("needs", verdict(before), verdict(after))]
+    pairs = [("coil", stall(before), stall(after)), ("needs", verdict(before), verdict(after))]
     if before.valve is not None and after.valve is not None:
         pairs.append(("valve", f"{before.valve.opening_design:.0%} open", f"{after.valve.opening_design:.0%} open"))
     if before.trap is not None and after.trap is not None:
@@ -234,7 +234,7 @@ class Explorer(App):
         elif s.load_fraction >= 1:
             lines.append(Text("stall point: stalled at every load", style="bold red"))
         else:
-            lines.append(Text(f"stall point: below {s.load_fraction:.0%} load, coil at "
+            lines.append(Text(f"stall point: below {words.percent(s.load_fraction)} load, coil at "
                               f"{q.show(s.coil_pressure, 'pressure', system, atm)}", style="bold"))
         dn = r.drainage
         verdict = Text(f"drainage: needs {dn.required}, has {dn.installed}: ")

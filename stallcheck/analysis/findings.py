@@ -134,7 +134,7 @@ def _devices(unit: Unit, r: Result) -> list[Finding]:
                 "pump-trap-motive-low", "danger" if margin <= 0 else "warning",
                 ("", "why") if pt.motive_given else ("", "supply", "why"),
                 {"motive": pt.motive_pressure, "margin": max(margin, 0.0), "back": pt.back_pressure,
-                 "wanted": MOTIVE_MARGIN}))
+                 "wanted": MOTIVE_MARGIN, "target": pt.back_pressure + MOTIVE_MARGIN}))
         if pt.fill_head < pt.required_fill_head - 1e-9:
             out.append(Finding(
                 "pump-trap-fill-head-low", "warning", ("", "maker" if pt.fill_head_given else "practice", "why"),

@@ -600,19 +600,32 @@ def rounded(value: float, kind: str, system: str, atmospheric: float = STANDARD_
     value : float
         SI value (absolute [Pa] for ``pressure``).
     kind : str
-        A display kind of :data:`DISPLAY` with fixed decimals (pressures, lengths...).
+        A display kind of :data:`DISPLAY`.
     up : bool
         Round up (towards +inf in the display unit) instead of down.
     """
     number = convert(value, kind, system, atmospheric)
-    step = 10.0 ** -DISPLAY[system][kind][2]
+    step = _printed_step(number, kind, system)
     steps = number / step
     # a figure already on a printed step stays there (no step lost to the last bit)
     nearest = round(steps)
-    if abs(steps - nearest) < 1e-9:
+    if abs(steps - nearest) < 1e-9 * max(1.0, abs(nearest)):
         steps = nearest
     figure = (math.ceil(steps) if up else math.floor(steps)) * step
     return from_display(figure, kind, system, atmospheric)
+
+
+def _printed_step(number: float, kind: str, system: str) -> float:
+    """The last printed digit's step of ``number`` in its display unit, as :func:`show`
+    prints it: fixed decimals, or significant figures where :func:`show` uses them."""
+    magnitude = math.floor(math.log10(abs(number))) if number else 0
+    if kind in ("mass_flow", "power", "mass", "volume_flow") and abs(number) >= 100:
+        return 10.0 ** (magnitude - 2)
+    if kind == "diameter":
+        return 10.0 ** (magnitude - 2)
+    if kind == "velocity" and 0 < abs(number) < 9.95:
+        return 10.0 ** (magnitude - 1)
+    return 10.0 ** -DISPLAY[system][kind][2]
 
 
 def express(value: float, si: str, unit: str) -> float:
@@ -652,6 +665,7 @@ def show(value: float | None, kind: str, system: str, atmospheric: float = STAND
     text = f"{number:.3g}" if kind == "diameter" and decimals is None else f"{number:,.{places}f}"
     if kind == "velocity" and decimals is None and 0 < abs(number) < 9.95:
         text = f"{number:.2g}"   # a slow column (under 10 ft/s) to two figures, not "1 ft/s"
+    # (_printed_step gives the step of the last digit printed here, for rounded)
     if text.startswith("-") and float(text.replace(",", "")) == 0:
         text = text[1:]
     if kind == "pressure" and system == "us" and decimals is None and text.startswith("-"):

@@ -93,7 +93,7 @@ def advise(r: Result, system: str) -> Advice:
                                              f"the condensate at every load. Keep it working, and test it as its "
                                              f"maker asks.",), (), (), (), None)
     handled = (f"the installed {installed} drains the coil {down_to}" if not r.stall.in_range else
-               f"the unit stalls below {r.stall.load_fraction:.0%} load, and the installed {installed} drains it "
+               f"the unit stalls below {words.percent(r.stall.load_fraction)} load, and the installed {installed} drains it "
                f"there")
     return Advice("margins", "Margins", (f"Nothing to change: {handled}. How far each value can go, alone, "
                                          f"before it no longer does:",),

@@ -67,16 +67,23 @@ def markdown(unit: Unit, r: Result, system: str, version: str, date: str, pictur
 
     s = r.stall
     out += ["## Stall point", ""]
-    if not s.occurs:
+    if not s.occurs and s.valve_load_fraction is None:
         out.append(f"None: the coil pressure stays above {show(s.threshold_pressure, 'pressure')}, where the "
                    f"trap would stop discharging, at every load.")
+    elif not s.occurs:
+        out.append(f"**{words.stall_summary(s).capitalize()}**.")
     elif s.load_fraction >= 1.0:
         out.append(f"**Stalled at every load**: the trap needs the coil above {show(s.threshold_pressure, 'pressure')}, "
                    f"more than it has at full load.")
     else:
-        inlet = f" (entering {show(s.inlet_temperature, 'temperature')} and warmer)" if s.inlet_temperature else ""
-        out.append(f"**Stalls below {s.load_fraction:.0%} load**{inlet}: coil pressure {show(s.coil_pressure, 'pressure')}, "
+        inlet = (f" (entering {words.safe(s.inlet_temperature, 'temperature', system, atm, up=False)} and warmer)"
+                 if s.inlet_temperature is not None else "")
+        out.append(f"**Stalls below {words.percent(s.load_fraction)} load**{inlet}: coil pressure {show(s.coil_pressure, 'pressure')}, "
                    f"steam {show(s.steam_temperature, 'temperature')}, condensate {show(s.condensate, 'mass_flow')}.")
+    if s.valve_load_fraction is not None:
+        out.append(f"The control valve, wide open, holds the coil at {show(s.valve_coil_pressure, 'pressure')} at "
+                   f"full load, under the stall pressure of {show(s.threshold_pressure, 'pressure')}: it floods "
+                   f"{words.valve_stall_loads(s.valve_load_fraction, s.load_fraction if s.in_range else 0.0)}.")
     if r.stalled_hours is not None:
         out.append(f"Stalled {r.stalled_hours:,.0f} h of the {r.total_hours:,.0f} h in the load bins.")
     out.append("")
@@ -122,9 +129,9 @@ def _figures(r: Result, show) -> list[str]:
         rows.append(("Valve Cv needed at design", f"{v.required_cv_design:.3g} of {v.cv:.3g} "
                      f"({'more than fully open' if v.opening_design > 1 else f'{v.opening_design:.0%} open'})"))
         if not v.capacity_ok:
-            rows.append(("Valve-limited", f"{v.limited_load_fraction:.0%} of design load at "
+            rows.append(("Valve-limited", f"{words.percent(v.limited_load_fraction, up=False)} of design load at "
                          f"{show(v.limited_coil_pressure, 'pressure')}"))
-        rows.append(("Valve controls down to", f"about {v.min_controllable_load:.0%} load"))
+        rows.append(("Valve controls down to", f"about {words.percent(v.min_controllable_load)} load"))
     t = r.trap
     if t is not None:
         rows.append(("Trap: full-load condensate", f"{show(t.design_condensate, 'mass_flow')} at "
@@ -133,7 +140,7 @@ def _figures(r: Result, show) -> list[str]:
                      f"{show(t.selection_differential, 'differential')}"
                      + ("" if t.installed_capacity is None else
                         f"; passes {show(t.installed_capacity, 'mass_flow')} there")))
-        rows.append(("Drainage limit", "none" if t.limit_load is None else f"{t.limit_load:.0%} load"))
+        rows.append(("Drainage limit", "none" if t.limit_load is None else f"{words.percent(t.limit_load)} load"))
     p = r.pump_trap
     if p is not None:
         rows.append(("Pump-trap duty", f"{show(p.condensate, 'mass_flow')} against {show(p.back_pressure, 'pressure')}, "

@@ -10,6 +10,7 @@ import textwrap
 from stallcheck.analysis.survey import Failure, Summary
 from stallcheck.files import quantities as q
 from stallcheck.render import json as json_out
+from stallcheck.render import words
 
 SEVERITY_STYLE = {"danger": "bold red", "warning": "yellow", "info": "cyan"}
 
@@ -52,7 +53,7 @@ def _rows(summaries: list[Summary], system: str | None, width: int = 80):
         (_, ok_w, ok_r), (_, hours_w, hours_r) = columns
     for s in summaries:
         stall = "never" if s.stall_fraction is None else (
-            "all loads" if s.stall_fraction >= 1.0 else f"<{s.stall_fraction:.0%}")
+            "all loads" if s.stall_fraction >= 1.0 else f"<{words.percent(s.stall_fraction)}")
         inlet = "" if s.stall_inlet_temperature is None else q.show(s.stall_inlet_temperature, "temperature", sys_)
         hours = "" if s.stalled_hours is None else f"{s.stalled_hours:,.0f} h"
         line = [(" ".join((_cell(s.tag or s.name, unit_w, unit_r), _cell(stall, stall_w, stall_r),

@@ -100,9 +100,10 @@ def report(result: Result, system: str, width: int = 80) -> list:
         if s.load_fraction >= 1.0:
             lead = runs(("  stalled at every load, full load included", "bold red"))
         else:
-            lead = runs((f"  stalls below {s.load_fraction:.0%} load", "bold"))
+            lead = runs((f"  stalls below {words.percent(s.load_fraction)} load", "bold"))
             if s.inlet_temperature is not None:
-                lead += runs(f": entering {t(s.inlet_temperature)} and warmer")
+                lead += runs(f": entering {words.safe(s.inlet_temperature, 'temperature', system, atm, up=False)} "
+                             "and warmer")
         parts.append(Para(lead, 0))
         if s.load_fraction >= 1.0:
             parts.append(_para(f"the coil has {p(s.coil_pressure)} at full load (steam {t(s.steam_temperature)}, "
@@ -141,8 +142,8 @@ def report(result: Result, system: str, width: int = 80) -> list:
                           + ("; choked" if v.choked_at_design else "")))
         if not v.capacity_ok:
             parts.append(_para(f"too small: wide open it holds {p(v.limited_coil_pressure)} and delivers "
-                               f"{v.limited_load_fraction:.0%} of design load", style="yellow"))
-        parts.append(_para(f"controls down to about {v.min_controllable_load:.0%} load; below that it cycles"))
+                               f"{words.percent(v.limited_load_fraction, up=False)} of design load", style="yellow"))
+        parts.append(_para(f"controls down to about {words.percent(v.min_controllable_load)} load; below that it cycles"))
         parts.append(BLANK)
 
     parts.append(_heading("Findings"))
@@ -206,20 +207,20 @@ def _devices(r: Result, system: str) -> list:
         elif tr.limit_load is None:
             parts.append(_para("drainage limit: none, it keeps up at every load above zero"))
         elif r.stall.occurs and tr.limit_load <= r.stall.load_fraction + 0.005:
-            parts.append(_para(f"drainage limit: at the stall point ({tr.limit_load:.0%} load); above it the "
+            parts.append(_para(f"drainage limit: at the stall point ({words.percent(tr.limit_load)} load); above it the "
                                f"trap keeps up"))
         else:
-            stall = f"; the stall proper is at {r.stall.load_fraction:.0%}" if r.stall.occurs else ""
+            stall = f"; the stall proper is at {words.percent(r.stall.load_fraction)}" if r.stall.occurs else ""
             where = f", entering {q.show(tr.limit_inlet_temperature, 'temperature', system)}" \
                 if tr.limit_inlet_temperature is not None else ""
-            parts.append(_para(f"drainage limit: {tr.limit_load:.0%} load{where} ({w(tr.limit_condensate)} at "
+            parts.append(_para(f"drainage limit: {words.percent(tr.limit_load)} load{where} ({w(tr.limit_condensate)} at "
                                f"{p(tr.limit_differential, 'differential')}); below it the trap falls short{stall}"))
         parts.append(BLANK)
     pt = r.pump_trap
     if pt is not None:
         parts.append(_heading("Pump-trap " + ("(installed)" if pt.installed else "(required)")))
         if pt.condensate > 0:
-            parts.append(_para(f"must move {w(pt.condensate)} at the stall point ({pt.load_fraction:.0%} load) "
+            parts.append(_para(f"must move {w(pt.condensate)} at the stall point ({words.percent(pt.load_fraction)} load) "
                                f"against {p(pt.back_pressure)}"))
         else:
             parts.append(_para("the coil never stalls, so it only ever traps"))
@@ -295,9 +296,9 @@ def hammer_sections(r: Result, system: str) -> list:
         for pt in line.points:
             flow = q.show(pt.condensate, "mass_flow", system)
             if pt.taitel_dukler == "liquid only":  # no flash: no two-phase pattern (physics.hammer)
-                text = runs(f"{pt.where} ({pt.load_fraction:.0%}): liquid only, no flash; {flow}")
+                text = runs(f"{pt.where} ({words.percent(pt.load_fraction)}): liquid only, no flash; {flow}")
             else:
-                text = runs(f"{pt.where} ({pt.load_fraction:.0%}): ",
+                text = runs(f"{pt.where} ({words.percent(pt.load_fraction)}): ",
                             (pt.taitel_dukler, "bold red" if pt.slugging else None),
                             f" ({pt.mandhane}); flash {pt.flash_fraction:.1%} of {flow}")
             parts.append(Para(text, 4, runs("  - ")))

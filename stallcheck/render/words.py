@@ -14,6 +14,14 @@ one (``{load:.0%}``) or a display kind of :data:`stallcheck.files.quantities.DIS
 (``{back:pressure}``, ``{flow:mass_flow}``): the SI value is then converted and rounded
 as :func:`stallcheck.files.quantities.show` prints it; ``~kind`` quotes a limit of practice
 the way practitioners round it (:func:`stallcheck.files.quantities.show_about`).
+
+A figure a user may act on is rounded in the safe direction, never to the nearest: a
+spec ending in ``+`` rounds up and one ending in ``-`` rounds down at the printed
+precision (``{required:mass_flow+}``, ``{selection:differential-}``, ``{load:.0%+}``),
+so a trap rated for the flow printed at the differential printed, a minimum load set
+at the load printed, or a pitch of the pitch printed does what the sentence says
+(``tests/test_findings.py`` applies each as printed). ``cv`` is a flow coefficient
+rounded up to three figures.
 """
 
 from __future__ import annotations
@@ -55,8 +63,8 @@ FINDINGS: dict[str, dict[str, str]] = {
             "pump-trap, or remove the lift and return pressure behind the trap.",
     },
     "stall-in-operating-range": {
-        "": "The coil stalls below {load:.0%} load",
-        "inlet": " (entering {inlet:temperature} and warmer)",
+        "": "The coil stalls below {load:.0%+} load",
+        "inlet": " (entering {inlet:temperature-} and warmer)",
         "why": ": the coil pressure falls to {coil:pressure} and the trap can no longer discharge "
                "{condensate:mass_flow} of condensate. Condensate backs up, which brings water hammer and "
                "corrosion. ",
@@ -68,9 +76,9 @@ FINDINGS: dict[str, dict[str, str]] = {
     },
     "freeze-risk": {
         "": "The coil stalls while the entering air is below freezing (",
-        "span": "from {inlet:temperature} up to {freezing:temperature}",
+        "span": "from {inlet:temperature-} up to {freezing:temperature}",
         "design": "at {inlet:temperature}",
-        "valve": "from {inlet:temperature} up to {upper:temperature}, where the valve holds the coil under",
+        "valve": "from {inlet:temperature-} up to {upper:temperature+}, where the valve holds the coil under",
         "why": "): condensate held in the tubes can freeze and split them.",
         "hours": " The load bins put {hours:,.0f} h a year in that band.",
         "drained": " The installed {installed} drains it; test it before each winter, and keep a low-limit "
@@ -93,7 +101,7 @@ FINDINGS: dict[str, dict[str, str]] = {
     },
     "valve-too-small": {
         "": "The valve needs Cv {required_cv:cv} at design but has Cv {cv:.3g}: wide open it holds the coil "
-            "at {limited_pressure:pressure} and delivers {limited_load:.0%} of the design load.",
+            "at {limited_pressure:pressure} and delivers {limited_load:.0%-} of the design load.",
         "fit": " Fit a larger valve or raise the supply pressure.",
         "floods": " That is under the stall pressure of {stall_pressure:pressure}: the coil floods {from_load:where}, "
                   "however well it is trapped, because the valve holds it down.",
@@ -103,16 +111,16 @@ FINDINGS: dict[str, dict[str, str]] = {
                   "hold the coil at; lower the back pressure or fit a pump-trap.",
     },
     "valve-oversized": {
-        "": "At design the valve is only {opening:.0%} open (Cv {required_cv:.3g} needed of {cv:.3g}): it "
+        "": "At design the valve is only {opening:.0%} open (Cv {required_cv:cv} needed of {cv:.3g}): it "
             "works near its seat at low load, where it hunts and cycles the coil pressure. A smaller valve "
             "controls better.",
     },
     "valve-low-load-control": {
-        "": "Below about {load:.0%} load the valve needs less than its smallest controllable Cv "
+        "": "Below about {load:.0%+} load the valve needs less than its smallest controllable Cv "
             "(Cv/rangeability = {smallest_cv:.2g}): it opens and shuts instead of modulating, and each "
             "opening can drive condensate as a slug. Use a smaller valve, or two valves in sequence (1/3 "
             "and 2/3).",
-        "minor": "Below about {load:.0%} load the valve cannot modulate (Cv/rangeability = {smallest_cv:.2g}) "
+        "minor": "Below about {load:.0%+} load the valve cannot modulate (Cv/rangeability = {smallest_cv:.2g}) "
                  "and will cycle.",
     },
     "method-below-set-point": {
@@ -123,30 +131,30 @@ FINDINGS: dict[str, dict[str, str]] = {
             "flow varies without this limit.",
     },
     "trap-capacity-short": {
-        "": "Below {load:.0%} load the trap cannot pass the condensate at the differential it has there "
-            "({differential:differential} for {condensate:mass_flow}), before the stall proper",
-        "stall": " at {stall:.0%}",
-        "fix": ": condensate backs into the coil from there down. Fit a trap rated for {required:mass_flow} "
-               "at {selection:differential}, or give it more fill head.",
+        "": "Below {load:.0%+} load the trap cannot pass the condensate at the differential it has there "
+            "({differential:differential-} for {condensate:mass_flow+}), before the stall proper",
+        "stall": " at {stall:.0%+}",
+        "fix": ": condensate backs into the coil from there down. Fit a trap rated for {required:mass_flow+} "
+               "at {selection:differential-}, or give it more fill head.",
     },
     "trap-undersized": {
-        "": "At the differential it is selected at ({selection:differential}) the trap passes "
-            "{installed:mass_flow}; common practice for modulating coils asks {margin:g} x the full-load "
-            "condensate, {required:mass_flow} (VA HVAC Design Manual: 1.5-2 x; NAVFAC MO-209: 2-4 x). "
+        "": "At the differential it is selected at ({selection:differential-}) the trap passes "
+            "{installed:mass_flow-}; common practice for modulating coils asks {margin:g} x the full-load "
+            "condensate, {required:mass_flow+} (VA HVAC Design Manual: 1.5-2 x; NAVFAC MO-209: 2-4 x). "
             "Select a larger trap on its hot-condensate rating.",
     },
     "pump-trap-motive-low": {
         "": "The pump-trap's motive pressure {motive:pressure}",
         "supply": " (the supply pressure; drain.motive_pressure not given)",
-        "why": " is only {margin:differential} above the back pressure it pumps against ({back:pressure}); it "
-               "wants about {wanted:differential} more (common practice; the maker's table governs). Raise "
-               "the motive pressure or cut the lift.",
+        "why": " is only {margin:differential-} above the back pressure it pumps against ({back:pressure}); it "
+               "wants about {wanted:~differential} more (common practice; the maker's table governs). Raise "
+               "the motive pressure to at least {target:pressure+}, or cut the lift.",
     },
     "pump-trap-fill-head-low": {
         "": "The pump-trap has {fill:length} of fill head; ",
         "maker": "its maker asks",
         "practice": "common practice asks about",
-        "why": " {required:length}. With less, condensate cannot run into its body fast enough and backs "
+        "why": " {required:length+}. With less, condensate cannot run into its body fast enough and backs "
                "into the coil. Set it lower below the coil.",
     },
     "pump-trap-outside-table": {
@@ -155,8 +163,8 @@ FINDINGS: dict[str, dict[str, str]] = {
             "pressure.",
     },
     "pump-trap-undersized": {
-        "": "The pump-trap is rated for {capacity:mass_flow} at this duty, but must move "
-            "{condensate:mass_flow} at the stall point ({load:.0%} load). Select a larger one, or two in "
+        "": "The pump-trap is rated for {capacity:mass_flow-} at this duty, but must move "
+            "{condensate:mass_flow+} at the stall point ({load:.0%+} load). Select a larger one, or two in "
             "parallel.",
     },
     "purge-size-unknown": {
@@ -192,8 +200,8 @@ FINDINGS: dict[str, dict[str, str]] = {
     "return-line-pitch": {
         "against": "The line from the trap rises against the flow ({pitch:.1%}): condensate lies in it and "
                    "steam drives it back and forth in slugs. Pitch it down in the direction of flow.",
-        "flat": "The line from the trap falls only {pitch:.2%} in the direction of flow, flatter than about "
-                "{least:.1%} (1 in in 40 ft, common practice): condensate lies in it where it sags. Pitch it "
+        "flat": "The line from the trap falls only {pitch:.2%-} in the direction of flow, flatter than "
+                "{least:.2%+} (1 in in 40 ft, common practice): condensate lies in it where it sags. Pitch it "
                 "down in the direction of flow.",
     },
     "hydraulic-shock": {
@@ -258,20 +266,20 @@ FINDINGS: dict[str, dict[str, str]] = {
 #: Why a unit needs the drainage it does (``Drainage.requirement``).
 REQUIREMENTS = {
     "never": "the coil pressure stays above the stall pressure at every load, so a trap alone drains it",
-    "below-minimum": "it stalls only below {load:.0%} load, at or under its minimum load, so a trap alone "
+    "below-minimum": "it stalls only below {load:.0%+} load, at or under its minimum load, so a trap alone "
                      "drains it wherever it runs",
     "vacuum-breaker": "{where}; a vacuum breaker holds the coil at atmospheric pressure there, and the fill "
                       "head then drives the condensate through the trap by gravity with "
-                      "{gravity:differential} to spare (at least {wanted:differential} wanted)",
-    "gravity-short": "{where}; a vacuum breaker would leave gravity only {gravity:differential} across the "
-                     "trap, less than the {wanted:differential} a trap is sized at, so a pump-trap (or pump "
+                      "{gravity:differential-} to spare (at least {wanted:differential+} wanted)",
+    "gravity-short": "{where}; a vacuum breaker would leave gravity only {gravity:differential-} across the "
+                     "trap, less than the {wanted:differential+} a trap is sized at, so a pump-trap (or pump "
                      "and receiver) must move the condensate, or more fill head must be found (see what to do)",
     "above-atmospheric": "{where}; that is at or above atmospheric, and a vacuum breaker cannot help against "
                          "that back pressure, so a pump-trap (or pump and receiver) must lift the condensate",
 }
 #: Where a stalling unit stalls, the start of the reasons above that use ``{where}``.
 STALLS_WHERE = {
-    "part": "it stalls below {load:.0%} load, where the coil pressure falls to {stall_pressure:pressure}",
+    "part": "it stalls below {load:.0%+} load, where the coil pressure falls to {stall_pressure:pressure}",
     "full": "it stalls at every load: the trap needs the coil above {stall_pressure:pressure}, more than it "
             "has at full load",
     "valve": "its control valve, wide open, holds the coil at {valve_pressure:pressure} at full load, under the "
@@ -350,6 +358,8 @@ class _Fill(string.Formatter):
         self.atmospheric = atmospheric
 
     def format_field(self, value: Any, format_spec: str) -> str:
+        if format_spec[-1:] in ("+", "-"):
+            return self.safe(value, format_spec[:-1], format_spec[-1] == "+")
         if format_spec == "cv":
             return cv_up(value)
         if format_spec == "where":
@@ -359,6 +369,18 @@ class _Fill(string.Formatter):
         if format_spec in q.DISPLAY[self.system]:
             return q.show(value, format_spec, self.system, self.atmospheric)
         return format(value, format_spec)
+
+    def safe(self, value: float, spec: str, up: bool) -> str:
+        """``value`` rounded up (or down) at the precision ``spec`` prints it: a display
+        kind, or a fixed-point or percent spec such as ``.0%``."""
+        if spec in q.DISPLAY[self.system]:
+            return q.show(q.rounded(value, spec, self.system, self.atmospheric, up=up), spec, self.system,
+                          self.atmospheric)
+        places = int(spec[1:-1])
+        scale = 10.0 ** places * (100.0 if spec.endswith("%") else 1.0)
+        steps = value * scale
+        steps = round(steps) if abs(steps - round(steps)) < 1e-9 else (math.ceil(steps) if up else math.floor(steps))
+        return format(steps / scale, spec)
 
 
 def fill(template: str, facts: Mapping[str, Any], system: str, atmospheric: float) -> str:
@@ -394,6 +416,31 @@ def remedy(m, system: str, atmospheric: float, minimum: float) -> str:
     if "vacuum" in facts:
         facts["vacuum"] = VACUUM_RETURN if facts["vacuum"] else ""
     return fill(REMEDIES[key, m.reason], facts, system, atmospheric)
+
+
+def percent(fraction: float, up: bool = True) -> str:
+    """A load fraction [-] as a whole percent rounded up (a stall point, a load below
+    which something fails: it starts no lower than printed) or down (a load delivered):
+    the same figure wherever the result prints it."""
+    steps = fraction * 100.0
+    steps = round(steps) if abs(steps - round(steps)) < 1e-9 else (math.ceil(steps) if up else math.floor(steps))
+    return f"{steps:.0f}%"
+
+
+def safe(value: float, kind: str, system: str, atmospheric: float, up: bool) -> str:
+    """An SI value printed as :func:`stallcheck.files.quantities.show` prints it, but
+    rounded up (or down) rather than to the nearest: the ``kind+`` / ``kind-`` specs."""
+    return _Fill(system, atmospheric).safe(value, kind, up)
+
+
+def stall_summary(s) -> str:
+    """Where a unit stalls, in a few words, for one-line verdicts (``new``, ``explore``):
+    the same load, rounded the same way, as the stall point section."""
+    if s.valve_load_fraction is not None:
+        return "stalls " + valve_stall_loads(s.valve_load_fraction, s.load_fraction if s.occurs else 0.0)
+    if not s.occurs:
+        return "never stalls"
+    return "stalls at every load" if s.load_fraction >= 1.0 else f"stalls below {percent(s.load_fraction)} load"
 
 
 def cv_up(value: float) -> str:

@@ -1,0 +1,156 @@
+"""Every figure a finding prints for the user to act on, applied as printed, does what
+the sentence says: the finding goes. The figures are read back from the message (US and
+SI display units) and written into the unit file as a user would type them; the rules
+are judged again on the changed unit. The scenarios are the invented coil of
+``test_findings.py``.
+
+Rounding to the nearest would fail these where the exact figure sits just past a
+printed step (a trap rated 0.4 % under what is needed, a minimum load half a percent
+under the stall); the messages round each such figure the safe way (``render/words``).
+"""
+
+from __future__ import annotations
+
+import math
+import re
+
+import pytest
+from test_findings import PUMP, SMALL_TABLE, analyse, found
+
+from stallcheck.render import words
+
+SYSTEMS = ("us", "si")
+
+
+def message(r, code, system):
+    f = found(r, code)
+    assert f is not None, (code, [g.code for g in r.findings])
+    return words.finding(f, r, system)
+
+
+def figure(text: str, before: str, units: str) -> str:
+    """The number and unit printed right after ``before`` in ``text``, as a user would
+    type it into a unit file (``"621 lb/h"``); ``units`` a regex of the units allowed."""
+    m = re.search(re.escape(before) + r"\s*(-?[\d,]+(?:\.\d+)?)\s*(" + units + r")", text)
+    assert m, (before, text)
+    return f"{m.group(1).replace(',', '')} {m.group(2)}"
+
+
+def percent(text: str, before: str) -> float:
+    m = re.search(re.escape(before) + r"\s*(\d+(?:\.\d+)?)%", text)
+    assert m, (before, text)
+    return float(m.group(1)) / 100.0
+
+
+@pytest.mark.parametrize("system", SYSTEMS)
+def test_the_trap_rating_printed_drains_the_coil(system):
+    # "Fit a trap rated for W at Δp": a trap whose table rates the flow printed at the
+    # differential printed (and, as a seat does, √10 times it at ten times that
+    # differential: orifice flow, common practice) clears both trap findings.
+    tables = dict(drain={"arrangement": "trap-vacuum-breaker", "capacity": SMALL_TABLE})
+    r = analyse(**tables)
+    for code in ("trap-capacity-short", "trap-undersized"):
+        text = message(r, code, system)
+        before = "Fit a trap rated for" if code == "trap-capacity-short" else "full-load condensate,"
+        flow = figure(text, before, "lb/h|kg/h")
+        dp = figure(text, f"{flow} at" if code == "trap-capacity-short" else "selected at (", "psi|kPa")
+        (w, w_unit), (d, d_unit) = flow.split(), dp.split()
+        rows = [{"differential": dp, "flow": flow},
+                {"differential": f"{float(d) * 10:g} {d_unit}", "flow": f"{float(w) * math.sqrt(10):.0f} {w_unit}"}]
+        fitted = analyse(drain={**tables["drain"], "capacity": rows})
+        assert found(fitted, "trap-capacity-short") is None and found(fitted, "trap-undersized") is None
+
+
+@pytest.mark.parametrize("system", SYSTEMS)
+def test_the_stall_load_printed_as_the_minimum_load_takes_the_stall_out_of_range(system):
+    tables = dict(drain={"lift": "8 ft"})
+    text = message(analyse(**tables), "stall-in-operating-range", system)
+    minimum = percent(text, "stalls below")
+    assert found(analyse(**tables, load={"minimum": minimum}), "stall-in-operating-range") is None
+
+
+@pytest.mark.parametrize("system", SYSTEMS)
+def test_the_load_printed_for_the_valve_s_control_is_where_it_controls(system):
+    # A minimum load at the figure printed: the valve controls down to it.
+    tables = dict(valve={"cv": 12, "rangeability": 5})
+    text = message(analyse(**tables, load={"minimum": 0.05}), "valve-low-load-control", system)
+    minimum = percent(text, "Below about")
+    assert found(analyse(**tables, load={"minimum": minimum}), "valve-low-load-control") is None
+
+
+@pytest.mark.parametrize("system", SYSTEMS)
+@pytest.mark.parametrize("cv", [60, 5])
+def test_the_cv_printed_as_needed_is_enough(cv, system):
+    # valve-oversized quotes the Cv needed at design; valve-too-small the Cv it needs:
+    # a valve of that Cv passes the design steam (no valve-too-small).
+    r = analyse(valve={"cv": cv})
+    code = "valve-oversized" if cv == 60 else "valve-too-small"
+    text = message(r, code, system)
+    needed = float(next(g for g in re.search(r"Cv (\d+(?:\.\d+)?) needed|needs Cv (\d+(?:\.\d+)?)", text).groups()
+                        if g))
+    assert needed >= r.valve.required_cv_design
+    assert found(analyse(valve={"cv": needed}), "valve-too-small") is None
+
+
+@pytest.mark.parametrize("system", SYSTEMS)
+def test_the_motive_pressure_printed_is_enough(system):
+    drain = {**PUMP, "motive_pressure": "6 psig"}
+    text = message(analyse(drain=drain), "pump-trap-motive-low", system)
+    motive = figure(text, "Raise the motive pressure to at least", "psig|barg")
+    assert found(analyse(drain={**drain, "motive_pressure": motive}), "pump-trap-motive-low") is None
+
+
+@pytest.mark.parametrize("system", SYSTEMS)
+def test_the_fill_head_printed_for_a_pump_trap_is_enough(system):
+    drain = {**PUMP, "fill_head": "6 in"}
+    text = message(analyse(drain=drain), "pump-trap-fill-head-low", system)
+    head = figure(text, "asks about", "ft|m")
+    assert found(analyse(drain={**drain, "fill_head": head}), "pump-trap-fill-head-low") is None
+
+
+@pytest.mark.parametrize("system", SYSTEMS)
+def test_the_pump_trap_capacity_printed_is_enough(system):
+    drain = {**PUMP, "pump_capacity": "50 lb/h"}
+    text = message(analyse(drain=drain), "pump-trap-undersized", system)
+    flow = figure(text, "must move", "lb/h|kg/h")
+    assert found(analyse(drain={**drain, "pump_capacity": flow}), "pump-trap-undersized") is None
+
+
+@pytest.mark.parametrize("system", SYSTEMS)
+def test_the_pitch_printed_is_steep_enough(system):
+    # Common practice (from memory): 1 in in 40 ft is 1/480 = 0.2083 %; printed to two
+    # decimals it must read 0.21 %, not 0.2 % or 0.208 % rounded down.
+    drain = {"return_line": "1 in", "return_pitch": "0.1 %"}
+    text = message(analyse(drain=drain), "return-line-pitch", system)
+    least = percent(text, "flatter than")
+    assert least >= 1 / 480 and least == pytest.approx(0.0021)
+    assert found(analyse(drain={**drain, "return_pitch": f"{least * 100:g} %"}), "return-line-pitch") is None
+
+
+@pytest.mark.parametrize("system", SYSTEMS)
+def test_the_entering_temperature_printed_for_the_stall_is_on_the_cold_side(system):
+    # "stalls ... entering T and warmer": T printed no warmer than the exact boundary,
+    # so every entering temperature the sentence calls safe is.
+    r = analyse(drain={"lift": "8 ft"})
+    text = message(r, "stall-in-operating-range", system)
+    printed = float(re.search(r"entering (-?\d+(?:\.\d+)?) °", text).group(1))
+    exact = r.stall.inlet_temperature - 273.15
+    exact = exact * 1.8 + 32 if system == "us" else exact
+    assert printed <= exact + 1e-9 and exact - printed < 1.0
+
+
+def test_safe_rounding_steps_at_the_printed_precision():
+    # The two directions at each kind of precision the messages print: fixed decimals
+    # (psi to two places), three significant figures (flows of 100 lb/h and more), and
+    # percent to whole and hundredths.
+    fill = words._Fill("us", 101325.0)
+    psi, lb_h = 6894.757293168, 0.45359237 / 3600
+    assert fill.format_field(3.759 * 1000, "differential-") == "0.54 psi"   # 0.5452 psi
+    assert fill.format_field(3.759 * 1000, "differential+") == "0.55 psi"
+    assert fill.format_field(1263.4 * lb_h, "mass_flow+") == "1,270 lb/h"
+    assert fill.format_field(1263.4 * lb_h, "mass_flow-") == "1,260 lb/h"
+    assert fill.format_field(2.0 * psi, "differential+") == "2.00 psi"       # on a step: stays
+    assert fill.format_field(0.6555, ".0%+") == "66%" and fill.format_field(0.6555, ".0%-") == "65%"
+    assert fill.format_field(1 / 480, ".2%+") == "0.21%" and fill.format_field(0.66, ".0%+") == "66%"
+    assert words.percent(0.6501) == "66%" and words.percent(0.6599, up=False) == "65%"
+    assert fill.format_field(0.123, ".1f+") == "0.2" and fill.format_field(0.129, ".1f-") == "0.1"
