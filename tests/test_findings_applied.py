@@ -92,28 +92,22 @@ def test_the_cv_printed_as_needed_is_enough(cv, system):
     assert found(analyse(valve={"cv": needed}), "valve-too-small") is None
 
 
-@pytest.mark.parametrize("system", SYSTEMS)
-def test_the_motive_pressure_printed_is_enough(system):
-    drain = {**PUMP, "motive_pressure": "6 psig"}
-    text = message(analyse(drain=drain), "pump-trap-motive-low", system)
-    motive = figure(text, "Raise the motive pressure to at least", "psig|barg")
-    assert found(analyse(drain={**drain, "motive_pressure": motive}), "pump-trap-motive-low") is None
+#: Pump-trap findings: (the change that raises it, its code, the words before the
+#: figure, the units the figure may carry, the key the figure is written to).
+PUMP_FIGURES = [
+    ({"motive_pressure": "6 psig"}, "pump-trap-motive-low", "Raise the motive pressure to at least", "psig|barg",
+     "motive_pressure"),
+    ({"fill_head": "6 in"}, "pump-trap-fill-head-low", "asks about", "ft|m", "fill_head"),
+    ({"pump_capacity": "50 lb/h"}, "pump-trap-undersized", "must move", "lb/h|kg/h", "pump_capacity"),
+]
 
 
 @pytest.mark.parametrize("system", SYSTEMS)
-def test_the_fill_head_printed_for_a_pump_trap_is_enough(system):
-    drain = {**PUMP, "fill_head": "6 in"}
-    text = message(analyse(drain=drain), "pump-trap-fill-head-low", system)
-    head = figure(text, "asks about", "ft|m")
-    assert found(analyse(drain={**drain, "fill_head": head}), "pump-trap-fill-head-low") is None
-
-
-@pytest.mark.parametrize("system", SYSTEMS)
-def test_the_pump_trap_capacity_printed_is_enough(system):
-    drain = {**PUMP, "pump_capacity": "50 lb/h"}
-    text = message(analyse(drain=drain), "pump-trap-undersized", system)
-    flow = figure(text, "must move", "lb/h|kg/h")
-    assert found(analyse(drain={**drain, "pump_capacity": flow}), "pump-trap-undersized") is None
+@pytest.mark.parametrize("change, code, before, units, key", PUMP_FIGURES, ids=[c[1] for c in PUMP_FIGURES])
+def test_the_pump_trap_figure_printed_is_enough(change, code, before, units, key, system):
+    drain = {**PUMP, **change}
+    value = figure(message(analyse(drain=drain), code, system), before, units)
+    assert found(analyse(drain={**drain, key: value}), code) is None
 
 
 @pytest.mark.parametrize("system", SYSTEMS)
