@@ -16,6 +16,7 @@ import numpy as np
 
 from stallcheck import analysis
 from stallcheck.analysis.findings import POOR_AT_LOW_DIFFERENTIAL
+from stallcheck.analysis.layout import NEAR_STALL
 from stallcheck.errors import InputError
 from stallcheck.files import quantities as q
 from stallcheck.files.readings import Readings
@@ -258,7 +259,7 @@ def _facts(unit, r, readings, load, model_p, condensate, back, fill, stalled_mod
         "stalled_model": bool(stalled_model),
         "stalled_gauges": bool(stalled_gauges),
         "stalls_in_range": s.in_range,
-        "near_stall": bool(s.occurs and load is not None and s.load_fraction <= load <= s.load_fraction + 0.1),
+        "near_stall": bool(s.occurs and load is not None and s.load_fraction <= load <= s.load_fraction + NEAR_STALL),
         "noise_startup": "start-up" in noise,
         "noise_low_load": "low-load" in noise,
         "noise_mild_weather": "mild-weather" in noise,

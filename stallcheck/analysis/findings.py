@@ -33,6 +33,20 @@ SUBCOOLING = 5.0
 #: A working differential below this is low for traps that need one to operate [Pa]
 #: (1 psi; common practice, from memory).
 LOW_DIFFERENTIAL = 6894.757
+#: A trap falling short this many points of load above the stall point (or the
+#: minimum load) is reported [-]: every trap falls short just above the stall, where
+#: its differential goes to zero; two points is past the resolution of a load schedule
+#: (a judgement of ours, not a published figure).
+SHORT_BEFORE_STALL = 0.02
+#: A control valve less open than this at design is oversized: it works near its seat
+#: at part load, where it hunts [-] (common practice, from memory: select for about
+#: 60-90 % open at design, and no less than half).
+VALVE_LEAST_OPENING = 0.5
+#: The load below which a valve cannot modulate is a warning above this, whatever the
+#: unit's minimum load: below about a tenth of design it cycles for many hours a year
+#: [-] (common practice, from memory: a single valve is expected to control down to
+#: about 10 % load; below that, two valves in sequence).
+CONTROL_FLOOR = 0.10
 
 
 def core(unit: Unit, r: Result) -> tuple[Finding, ...]:
@@ -89,10 +103,10 @@ def core(unit: Unit, r: Result) -> tuple[Finding, ...]:
                 parts = ("", "fit")
             out.append(Finding("valve-too-small", "danger" if parts[1] == "floods" and not r.drainage.adequate
                                else "warning", parts, facts))
-        elif v.opening_design < 0.5:
+        elif v.opening_design < VALVE_LEAST_OPENING:
             out.append(Finding("valve-oversized", "info", ("",),
                                {"opening": v.opening_design, "required_cv": v.required_cv_design, "cv": v.cv}))
-        floor = max(r.minimum_load, 0.10)
+        floor = max(r.minimum_load, CONTROL_FLOOR)
         facts = {"load": v.min_controllable_load, "smallest_cv": v.cv / v.rangeability}
         if v.min_controllable_load > floor:
             out.append(Finding("valve-low-load-control", "warning", ("",), facts))
@@ -114,8 +128,9 @@ def _devices(unit: Unit, r: Result) -> list[Finding]:
     trap = r.trap
     if trap is not None and trap.basis != "selected":
         # A trap's capacity goes to zero with the differential, so every trap falls short
-        # a little above the stall point; report it where that reaches 2 points of load.
-        if trap.limit_load is not None and trap.limit_load > max(r.minimum_load, r.stall.load_fraction or 0.0) + 0.02:
+        # a little above the stall point; report it where that reaches SHORT_BEFORE_STALL.
+        if (trap.limit_load is not None
+                and trap.limit_load > max(r.minimum_load, r.stall.load_fraction or 0.0) + SHORT_BEFORE_STALL):
             out.append(Finding(
                 "trap-capacity-short", "warning", ("", "stall", "fix") if r.stall.occurs else ("", "fix"),
                 {"load": trap.limit_load, "differential": trap.limit_differential,

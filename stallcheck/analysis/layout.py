@@ -16,7 +16,8 @@ from stallcheck.result import Finding, Result
 #: A vertical drop to the trap at least this long can hold a sealing slug [m]
 #: (3 ft; common practice, from memory).
 LONG_DROP = 0.9
-#: "Near the stall": within this many points of load above the stall point [-].
+#: "Near the stall": within this many points of load above the stall point [-] (ten
+#: points: the swing of load across a mild day; common practice, from memory).
 NEAR_STALL = 0.10
 
 

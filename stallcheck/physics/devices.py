@@ -35,6 +35,8 @@ from stallcheck.result import (
 LIMIT_TOLERANCE = 1e-10
 #: Lowest load searched where the unit never stalls [-].
 LOWEST_LOAD = 1e-6
+#: Loads at which a trap behind a vacuum breaker is first tried for a shortfall [-].
+LIMIT_GRID = np.linspace(0.01, 0.99, 99)
 #: Filling head a pump-trap needs where its maker's figure is not given [m]
 #: (common practice: of the order of a foot; check the device's own data).
 PUMP_FILL_HEAD = 0.3
@@ -180,10 +182,12 @@ def trap_figures(b, effective, stall, p_min, w_min, selected_limits: bool = True
     capacity = Capacities(drains, b.back, bores)
     installed = capacity(sizing, b.back + sizing)
 
-    limit = _limits(b, capacity, stall, None if selected_limits else basis != "selected")
+    breaker = np.array([e == "trap-vacuum-breaker" for e in effective])
+    limit = _limits(b, capacity, stall, None if selected_limits else basis != "selected", breaker)
     has = np.isfinite(limit)
     at = np.where(has, limit, 0.0)
     _, p_l, w_l = b.state(at)
+    p_l = np.where(breaker, np.maximum(p_l, b.atm), p_l)   # a breaker holds the coil at atmospheric
     inlet_l = coilmod.inlet_temperature(b.coil, at)
     out = []
     for i, d in enumerate(drains):
@@ -204,7 +208,7 @@ def trap_figures(b, effective, stall, p_min, w_min, selected_limits: bool = True
     return out
 
 
-def _limits(b, capacity, stall, only=None):
+def _limits(b, capacity, stall, only=None, breaker=None):
     """Drainage limit of each unit [-]: the load below which the trap passes less than
     the condensate; NaN where it keeps up at every load above zero, and for the units
     ``only`` (a boolean mask, where given) leaves out.
@@ -213,10 +217,19 @@ def _limits(b, capacity, stall, only=None):
     trap has no working differential, and falls as load and differential rise; its
     zero between the stall point (or no load) and full load is the limit, found by a
     bracketed solve. A trap short even at full load has its limit at full load.
+
+    Where a vacuum breaker works (``breaker``, a boolean mask), the coil never falls
+    below the atmospheric pressure the breaker lets in: the trap's differential is
+    taken there, not at the sub-atmospheric pressure the load alone would give. The
+    trap then still discharges at the stall point (by gravity), its shortfall is
+    largest where the coil reaches atmospheric, and the limit is the highest load of
+    :data:`LIMIT_GRID` with a shortfall, refined by the same solve.
     """
+    breaker = np.zeros(len(b.units), dtype=bool) if breaker is None else np.asarray(breaker, dtype=bool)
+
     def gap(load, index):
         _, p, w = b.state(load, index)
-        inlet = p + b.fill[index]
+        inlet = np.where(breaker[index], np.maximum(p, b.atm[index]), p) + b.fill[index]
         return w - capacity(inlet - b.back[index], inlet, index)
 
     n = len(b.units)
@@ -225,12 +238,20 @@ def _limits(b, capacity, stall, only=None):
     if not units.size:
         return limit
     low = np.array([s.load_fraction if s.occurs else LOWEST_LOAD for s in stall])[units]
-    occurs = np.array([s.occurs for s in stall])[units]
+    occurs = np.array([s.occurs for s in stall])[units] & ~breaker[units]
+    by_grid = breaker[units]
+    if by_grid.any():
+        # the highest grid load short of capacity, below full load, starts the bracket
+        grid = np.broadcast_to(LIMIT_GRID, (int(by_grid.sum()), LIMIT_GRID.size))
+        rows = units[by_grid]
+        short = np.array([gap(grid[k], np.full(LIMIT_GRID.size, i)) > 0 for k, i in enumerate(rows)])
+        last = np.where(short.any(axis=1), LIMIT_GRID.size - 1 - np.argmax(short[:, ::-1], axis=1), -1)
+        low[by_grid] = np.where(last >= 0, LIMIT_GRID[np.maximum(last, 0)], 1.0)
     full = gap(np.ones(units.size), units) > 0
     start = gap(low, units) > 0
     # At the stall point itself the trap cannot discharge, whatever the last bit of the
     # differential says: where the shortfall there already reads zero, the limit is the
-    # stall point.
+    # stall point (not behind a vacuum breaker, where gravity still drives it).
     found = np.where(full, 1.0, np.where(occurs & ~start, low, np.nan))
     solve = np.flatnonzero(start & ~full & (low < 1.0))
     if solve.size:
