@@ -15,6 +15,10 @@ VARIES = ("inlet-temperature", "flow")
 ARRANGEMENTS = ("trap", "trap-vacuum-breaker", "pump-trap", "constant-purge")
 TRAPS = ("float-thermostatic", "inverted-bucket", "thermodynamic", "thermostatic", "bimetallic")
 CHARACTERISTICS = ("equal-percentage", "linear")
+#: Margin on the full-load condensing rate a trap on a modulating coil is selected
+#: with, where the unit file gives none [-] (common practice: 1.5 to 2 in the VA HVAC
+#: Design Manual, 2 to 4 in NAVFAC MO-209).
+DEFAULT_MARGIN = 2.0
 
 from stallcheck.record import record
 
@@ -207,7 +211,7 @@ class Drain:
     return_pressure: float
     trap_min_differential: float
     capacity: tuple[CapacityPoint, ...] = ()
-    capacity_margin: float = 2.0
+    capacity_margin: float = DEFAULT_MARGIN
     trap_orifice: float | None = None
     motive_pressure: float | None = None
     pump_fill_head: float | None = None

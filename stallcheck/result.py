@@ -380,20 +380,31 @@ class PurgeFigures:
 
 @record
 class FlashFigures:
-    """Flash steam at the trap outlet at full load.
+    """Flash steam at full load, at the trap outlet and where it reaches the return.
 
     Attributes
     ----------
-    fraction : float  [-]
-    flow : float  [kg/s]
-    volume_flow : float  [m³/s]
+    fraction : float
+        At the trap outlet, whose pressure is ``outlet_pressure``. [-]
+    outlet_pressure : float
+        The back pressure: the return plus the lift's head. [Pa] absolute
+    return_fraction : float
+        At the return pressure, where the condensate arrives (more than at the outlet
+        where a lift lies between: the flash grows up it). [-]
+    flow : float
+        Flash steam at the return. [kg/s]
+    volume_flow : float
+        Its volume at the return pressure. [m³/s]
     line_diameter, velocity : float or None
-        Return line bore [m] and mixture velocity in it [m/s], where the bore is given.
+        Return line bore [m] and mixture velocity in it at the return pressure [m/s],
+        where the bore is given.
     return_temperature : float or None  [K]
     return_saturation_temperature : float  [K]
     """
 
     fraction: float
+    outlet_pressure: float
+    return_fraction: float
     flow: float
     volume_flow: float
     line_diameter: float | None
@@ -405,6 +416,9 @@ class FlashFigures:
 #: Flow patterns in the line from the trap, worst first: slugs hammer; annular flow tears
 #: condensate along at speed; the rest run quietly (``liquid only``: no flash).
 PATTERNS = ("intermittent", "annular", "bubbly", "stratified wavy", "stratified smooth", "liquid only")
+#: Patterns of vertical upflow in a riser (Taitel, Barnea & Dukler 1980) in which
+#: slugs of condensate rise and fall back: the riser hammers.
+RISER_SLUGGING = ("slug", "churn")
 
 
 @record
@@ -420,9 +434,14 @@ class LinePoint:
         Through the line, flash included. [kg/s]
     flash_fraction : float  [-]
     taitel_dukler, mandhane : str
-        The flow pattern by each map (:class:`stallcheck.physics.hammer.Pattern`).
+        The flow pattern in the run to the return by each map
+        (:class:`stallcheck.physics.hammer.Pattern`).
     slugging : bool
-        Intermittent (slug) flow by Taitel & Dukler's map.
+        Intermittent (slug) flow in the run by Taitel & Dukler's map.
+    riser : str or None
+        Where a plain trap lifts: the worse of the vertical-upflow patterns at the
+        riser's foot and head (:func:`stallcheck.physics.hammer.vertical_pattern`);
+        None without a lift.
     """
 
     where: str
@@ -432,6 +451,12 @@ class LinePoint:
     taitel_dukler: str
     mandhane: str
     slugging: bool
+    riser: str | None = None
+
+    @property
+    def riser_slugging(self) -> bool:
+        """Slug or churn flow up the riser (Taitel, Barnea & Dukler)."""
+        return self.riser in RISER_SLUGGING
 
 
 @record
@@ -460,6 +485,11 @@ class ReturnLineFigures:
     slugging: bool
     stratified_bore: float | None
     stratified_size: str | None
+
+    @property
+    def riser_slugging(self) -> bool:
+        """Slug or churn flow up the riser at any of the points."""
+        return any(p.riser_slugging for p in self.points)
 
     @property
     def worst(self) -> LinePoint:

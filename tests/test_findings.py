@@ -341,6 +341,19 @@ def test_return_line_slug_flow_in_a_small_pumped_line():
     assert f.facts["stratified"] > f.facts["bore"]
 
 
+def test_lift_slug_flow_up_a_riser_after_a_plain_trap():
+    # Taitel, Barnea & Dukler (1980) for vertical upflow: 8 ft of lift in a 2 in line,
+    # the flash at the riser's head (x at 1 atm from 5 psig, IF97: about 2 %) carried at
+    # well under the ~15 m/s annular boundary with little liquid: slug flow. A pump-trap
+    # lifting the same height moves liquid, and no riser is judged.
+    r = analyse(drain={"lift": "8 ft", "return_line": "2 in"})
+    f = found(r, "lift-slug-flow")
+    assert f is not None and f.severity == "warning"
+    assert f.facts["lift"] == pytest.approx(8 * FT) and f.facts["pattern"] in ("slug", "churn")
+    assert "full load" in f.facts["where"]
+    assert found(analyse(drain={**PUMP, "return_line": "2 in"}), "lift-slug-flow") is None
+
+
 def test_hydraulic_shock_of_a_pump_trap_discharge_by_joukowsky():
     # Joukowsky: Δp = ρ·a·v, v the pump-trap's delivery (2,000 lb/h through a 1/2 in
     # bore) and a the line's wave speed; danger where the peak passes the rating.

@@ -352,3 +352,70 @@ def test_the_line_s_pattern_is_both_maps_with_saturated_properties():
     for condensate, fraction in ((0.25, 0.0), (0.0, 0.05)):
         none = hammer.flow_pattern(condensate, fraction, p, 0.025, 0.0)
         assert (none.taitel_dukler, none.mandhane, none.slugging) == (hammer.LIQUID, hammer.LIQUID, False)
+
+
+# --- a lift after the trap: vertical upflow ----------------------------------------------
+
+#: Air and water at 25 °C and 1 atm, the fluids of Taitel, Barnea & Dukler's (1980)
+#: published map: densities 997 and 1.18 kg/m³, water viscosity 0.89 mPa·s, surface
+#: tension 0.072 N/m (handbook values, from memory).
+AIR_WATER = dict(rho_l=997.0, rho_g=1.18, mu_l=8.9e-4, sigma=0.072)
+
+
+@pytest.mark.parametrize("u_ls, u_gs, bore, height, pattern", [
+    # Regions of Taitel, Barnea & Dukler (AIChE J. 26(3), 1980), Fig. 5-6, air-water in
+    # a 5 cm tube (from memory; well inside each region): annular above about 15 m/s of
+    # gas; slug at a few m/s of gas and little liquid in a tall tube; dispersed bubble at
+    # several m/s of liquid; bubbly at low gas in a tube wider than D* (about 5 cm for
+    # air-water); churn in a tube shorter than its entry length.
+    (0.1, 20.0, 0.05, 10.0, "annular"), (0.1, 1.0, 0.05, 10.0, "slug"), (5.0, 0.5, 0.05, 10.0, "dispersed bubble"),
+    (0.5, 0.05, 0.10, 10.0, "bubbly"), (0.5, 0.05, 0.04, 10.0, "slug"), (0.1, 5.0, 0.05, 1.0, "churn"),
+])
+def test_vertical_upflow_regions_of_the_published_map(u_ls, u_gs, bore, height, pattern):
+    assert hammer.vertical_regime(u_ls, u_gs, bore=bore, height=height, **AIR_WATER) == pattern
+
+
+def test_vertical_upflow_transitions_by_hand():
+    # The transitions worked by hand from the paper's equations, air-water: annular where
+    # U_Gs·√ρ_G/(σ·g·Δρ)^¼ = 3.1 (eq. 20); bubbly below U_Ls = 3·U_Gs − 1.15·(g·Δρ·σ/ρ_L²)^¼
+    # (eq. 4) in a tube wider than D* = 19·√(Δρ·σ/(ρ_L²·g)) (eq. 9); churn in a tube
+    # shorter than l_E = 40.6·(U_M/√(g·D) + 0.22)·D (eq. 21).
+    g, rl, rg, s = 9.80665, 997.0, 1.18, 0.072
+    annular = 3.1 * (s * g * (rl - rg)) ** 0.25 / math.sqrt(rg)
+    assert 14 < annular < 15.5   # "about 15 m/s" in the paper's air-water figure
+    assert hammer.vertical_regime(0.05, 1.02 * annular, bore=0.05, height=50, **AIR_WATER) == "annular"
+    assert hammer.vertical_regime(0.05, 0.98 * annular, bore=0.05, height=50, **AIR_WATER) != "annular"
+    d_star = 19 * math.sqrt((rl - rg) * s / (rl ** 2 * g))
+    assert 0.045 < d_star < 0.055
+    u_gs = 0.1
+    edge = 3.0 * u_gs - 1.15 * (g * (rl - rg) * s / rl ** 2) ** 0.25
+    assert hammer.vertical_regime(1.05 * edge, u_gs, bore=0.1, height=50, **AIR_WATER) == "bubbly"
+    assert hammer.vertical_regime(0.95 * edge, u_gs, bore=0.1, height=50, **AIR_WATER) == "slug"
+    u_ls, u_gs, d = 0.1, 3.0, 0.05
+    entry = 40.6 * ((u_ls + u_gs) / math.sqrt(g * d) + 0.22) * d
+    assert hammer.vertical_regime(u_ls, u_gs, bore=d, height=0.95 * entry, **AIR_WATER) == "churn"
+    assert hammer.vertical_regime(u_ls, u_gs, bore=d, height=1.05 * entry, **AIR_WATER) == "slug"
+
+
+def test_flash_is_given_at_the_trap_outlet_and_grows_up_the_lift():
+    # x = (h_f(p_coil) − h_f(p)) / h_fg(p) (IF97, iapws) at the trap outlet, whose pressure
+    # is the return plus the lift's head ρ·g·h (ρ saturated at the return), and at the
+    # return itself: 10 ft of lift to an open return from a coil at 5 psig.
+    r = analysis.analyse(_unit('return_line = "1 in"\n', lift="10 ft"))
+    p_coil = r.design.coil_pressure
+    back = 101325.0 + IAPWS97(P=0.101325, x=0).rho * 9.80665 * 10 * FT
+
+    def x(p):
+        return (IAPWS97(P=p_coil / 1e6, x=0).h - IAPWS97(P=p / 1e6, x=0).h) / (
+            IAPWS97(P=p / 1e6, x=1).h - IAPWS97(P=p / 1e6, x=0).h)
+
+    fl = r.flash
+    assert fl.outlet_pressure == pytest.approx(back, rel=1e-6)
+    assert fl.fraction == pytest.approx(x(back), rel=1e-4)
+    assert fl.return_fraction == pytest.approx(x(101325.0), rel=1e-4)
+    assert fl.return_fraction > 2 * fl.fraction
+    # the riser is judged at both ends; without a lift there is no riser
+    assert all(p.riser is not None for p in r.return_line.points)
+    flat = analysis.analyse(_unit('return_line = "1 in"\n'))
+    assert all(p.riser is None for p in flat.return_line.points)
+    assert flat.flash.fraction == flat.flash.return_fraction

@@ -116,7 +116,7 @@ def core(unit: Unit, r: Result) -> tuple[Finding, ...]:
         out.append(Finding("method-below-set-point", "info", ("",),
                            {"load": r.set_point_floor_load, "set_point": unit.design.outlet_temperature}))
     out.extend(_devices(unit, r))
-    out.extend(_return_line(r))
+    out.extend(_return_line(unit, r))
     out.extend(layout.rules(unit, r))
     order = {"danger": 0, "warning": 1, "info": 2}
     return tuple(sorted(out, key=lambda f: order[f.severity]))
@@ -169,22 +169,28 @@ def _devices(unit: Unit, r: Result) -> list[Finding]:
         if fl.velocity is not None and fl.velocity > VELOCITY_LIMIT:
             out.append(Finding(
                 "return-velocity-high", "warning", ("",),
-                {"fraction": fl.fraction, "velocity": fl.velocity, "bore": fl.line_diameter,
+                {"fraction": fl.return_fraction, "velocity": fl.velocity, "bore": fl.line_diameter,
                  "limit": VELOCITY_LIMIT}))
-        if (fl.return_temperature is not None and fl.fraction > 0
+        if (fl.return_temperature is not None and fl.return_fraction > 0
                 and fl.return_temperature < fl.return_saturation_temperature - SUBCOOLING):
             out.append(Finding(
                 "flash-into-cool-return", "warning", ("",),
-                {"fraction": fl.fraction, "return_temperature": fl.return_temperature,
+                {"fraction": fl.return_fraction, "return_temperature": fl.return_temperature,
                  "saturation": fl.return_saturation_temperature}))
     return out
 
 
-def _return_line(r: Result) -> list[Finding]:
-    """Differential shock (slug flow in the line from the trap), the line's pitch, and
-    hydraulic shock (a column of condensate stopped)."""
+def _return_line(unit: Unit, r: Result) -> list[Finding]:
+    """Differential shock (slug flow in the line from the trap, and up a lift after a
+    plain trap), the line's pitch, and hydraulic shock (a column of condensate
+    stopped)."""
     out: list[Finding] = []
     line = r.return_line
+    if line is not None and line.riser_slugging:
+        where = [p for p in line.points if p.riser_slugging]
+        out.append(Finding("lift-slug-flow", "warning", ("",),
+                           {"lift": unit.drain.lift, "pattern": where[0].riser, "bore": line.bore,
+                            "where": ", ".join(p.where for p in where)}))
     if line is not None:
         if line.slugging:
             where = [p for p in line.points if p.slugging]

@@ -19,6 +19,7 @@ from stallcheck.physics import coil as coilmod
 from stallcheck.physics import flash as flashmod
 from stallcheck.physics import hammer, properties, traps
 from stallcheck.physics import purge as purgemod
+from stallcheck.physics.constants import GRAVITY
 from stallcheck.physics.solve import illinois
 from stallcheck.result import (
     FlashFigures,
@@ -334,7 +335,11 @@ def purge_figures(unit: Unit, state: State, back: float, design_pressure: float,
 
 
 def flash_figures(b) -> list[FlashFigures]:
-    """Flash steam at full load as each unit's condensate drops to its return pressure."""
+    """Flash steam at full load: at the trap outlet, whose pressure is the back pressure
+    (the return plus the lift's head), and where the condensate arrives at the return
+    pressure, the flash having grown up the lift; the flow, volume and line velocity
+    are those at the return."""
+    x_out = flashmod.flash_fraction(b.design_pressure, b.back)
     x = flashmod.flash_fraction(b.design_pressure, b.return_pressure)
     volume = flashmod.flash_volume(b.steam_design, x, b.return_pressure)
     t_sat = properties.saturation_temperature(b.return_pressure)
@@ -344,7 +349,8 @@ def flash_figures(b) -> list[FlashFigures]:
     out = []
     for i, u in enumerate(b.units):
         dr = u.drain
-        out.append(FlashFigures(fraction=float(x[i]), flow=float(x[i] * b.steam_design[i]),
+        out.append(FlashFigures(fraction=float(x_out[i]), outlet_pressure=float(b.back[i]),
+                                return_fraction=float(x[i]), flow=float(x[i] * b.steam_design[i]),
                                 volume_flow=float(volume[i]), line_diameter=dr.return_line,
                                 velocity=None if dr.return_line is None else float(velocity[i]),
                                 return_temperature=dr.return_temperature,
@@ -352,19 +358,33 @@ def flash_figures(b) -> list[FlashFigures]:
     return out
 
 
+#: Vertical-upflow patterns in a riser, worst first: slugs and churn hammer.
+RISER_PATTERNS = ("churn", "slug", "annular", "dispersed bubble", "bubbly", hammer.LIQUID)
 #: Loads at which the return line's flow pattern is found, in the order reported.
 LINE_LOADS = ("full load", "stall point", "minimum load")
 
 
 def _line_points(u: Unit, bore: float, angle: float, states) -> tuple[list[LinePoint], bool]:
-    """The flow pattern at each (where, load, condensate, coil pressure) state."""
-    p_ret = u.drain.return_pressure
+    """The flow pattern at each (where, load, condensate, coil pressure) state: in the
+    run to the return (its pitch, at the return pressure) and, where a plain trap
+    lifts, up the riser (vertical upflow, judged at its foot at the trap outlet's
+    pressure and at its head at the return's, as the flash grows between them)."""
+    dr = u.drain
+    p_ret = dr.return_pressure
+    riser = dr.lift > 0 and dr.arrangement != "pump-trap"
+    p_foot = p_ret + float(properties.liquid_density(p_ret)) * GRAVITY * dr.lift
     points = []
     for where, load, condensate, coil in states:
         x = float(flashmod.flash_fraction(coil, p_ret)) if coil > p_ret else 0.0
         pattern = hammer.flow_pattern(condensate, x, p_ret, bore, angle)
+        up = None
+        if riser:
+            x_foot = float(flashmod.flash_fraction(coil, p_foot)) if coil > p_foot else 0.0
+            ends = (hammer.vertical_pattern(condensate, x_foot, p_foot, bore, dr.lift),
+                    hammer.vertical_pattern(condensate, x, p_ret, bore, dr.lift))
+            up = min(ends, key=RISER_PATTERNS.index)
         points.append(LinePoint(where, load, condensate, x, pattern.taitel_dukler, pattern.mandhane,
-                                pattern.slugging))
+                                pattern.slugging, up))
     return points, any(p.slugging for p in points)
 
 

@@ -44,6 +44,79 @@ LIQUID = "liquid only"
 STRATIFIED = ("stratified smooth", "stratified wavy", LIQUID)
 
 
+def vertical_pattern(condensate: float, fraction: float, pressure: float, bore: float,
+                     height: float) -> str:
+    """The flow pattern of condensate and its flash steam rising in a vertical pipe.
+
+    Taitel, Barnea & Dukler's transitions for steady upward flow, in superficial
+    velocities U_Ls, U_Gs and U_M = U_Ls + U_Gs:
+
+    * **annular** where the gas can carry the largest drop up the wall:
+      U_Gs·ρ_G^½ / [σ·g·(ρ_L − ρ_G)]^¼ ≥ 3.1 (eq. 20);
+    * **dispersed bubble** where turbulence breaks the gas into bubbles smaller than
+      the critical size, 2·[0.4σ/((ρ_L − ρ_G)g)]^½·(ρ_L/σ)^0.6·(2f/D)^0.4·U_M^1.2
+      ≥ 0.725 + 4.15·(U_Gs/U_M)^½ (eq. 13, f = 0.046·Re^−0.2 of the mixture at the
+      liquid's properties), while the gas is less than 52 % of the volume;
+    * **bubbly** in a pipe wider than D* = 19·[(ρ_L − ρ_G)σ/(ρ_L²g)]^½ (eq. 9) while
+      the void is under 25 %: U_Ls ≥ 3.0·U_Gs − 1.15·[g(ρ_L − ρ_G)σ/ρ_L²]^¼ (eq. 4);
+    * otherwise **slug**, or **churn** where the pipe is shorter than the entry length
+      over which churn develops into slugs, l_E/D = 40.6·(U_M/√(gD) + 0.22) (eq. 21).
+
+    Parameters
+    ----------
+    condensate : float
+        Mass flow, steam and water together. [kg/s]
+    fraction : float
+        Flash fraction (mass quality). [-]
+    pressure : float
+        Absolute pressure (properties at saturation there). [Pa]
+    bore : float
+        Inside diameter. [m]
+    height : float
+        Height of the riser (for the entry length). [m]
+
+    Returns
+    -------
+    str
+        ``annular``, ``dispersed bubble``, ``bubbly``, ``slug``, ``churn``, or
+        :data:`LIQUID` where nothing flashes.
+
+    References
+    ----------
+    .. [1] Taitel, Y., Barnea, D., Dukler, A. E. (1980). Modelling flow pattern
+       transitions for steady upward gas-liquid flow in vertical tubes. AIChE J. 26(3),
+       345-354.
+    """
+    if fraction <= NO_FLASH or condensate <= 0:
+        return LIQUID
+    rho_l, rho_g = float(properties.liquid_density(pressure)), float(properties.vapour_density(pressure))
+    mu_l, sigma = float(properties.liquid_viscosity(pressure)), float(properties.surface_tension(pressure))
+    area = math.pi * bore ** 2 / 4.0
+    return vertical_regime(condensate * (1.0 - fraction) / (rho_l * area), condensate * fraction / (rho_g * area),
+                           rho_l, rho_g, mu_l, sigma, bore, height)
+
+
+def vertical_regime(u_ls: float, u_gs: float, rho_l: float, rho_g: float, mu_l: float, sigma: float,
+                    bore: float, height: float) -> str:
+    """:func:`vertical_pattern` from superficial velocities [m/s] and the two phases'
+    properties (densities [kg/m³], liquid viscosity [Pa·s], surface tension [N/m]),
+    for any gas and liquid."""
+    u_m = u_ls + u_gs
+    drho = rho_l - rho_g
+    if u_gs * math.sqrt(rho_g) / (sigma * GRAVITY * drho) ** 0.25 >= 3.1:
+        return "annular"
+    friction = 0.046 * (rho_l * u_m * bore / mu_l) ** -0.2
+    breakup = (2.0 * math.sqrt(0.4 * sigma / (drho * GRAVITY)) * (rho_l / sigma) ** 0.6
+               * (2.0 * friction / bore) ** 0.4 * u_m ** 1.2)
+    if u_gs / u_m < 0.52 and breakup >= 0.725 + 4.15 * math.sqrt(u_gs / u_m):
+        return "dispersed bubble"
+    wide = bore > 19.0 * math.sqrt(drho * sigma / (rho_l ** 2 * GRAVITY))
+    if wide and u_ls >= 3.0 * u_gs - 1.15 * (GRAVITY * drho * sigma / rho_l ** 2) ** 0.25:
+        return "bubbly"
+    entry = 40.6 * (u_m / math.sqrt(GRAVITY * bore) + 0.22) * bore
+    return "churn" if height < entry else "slug"
+
+
 def standard_wall(bore: float) -> float:
     """Wall thickness [m] of the Schedule 40 steel pipe whose bore is nearest ``bore`` [m]."""
     return min(SCHEDULE_40, key=lambda row: abs(row[1] - bore))[2]

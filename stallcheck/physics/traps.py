@@ -25,9 +25,6 @@ DISCHARGE_COEFFICIENT = 0.6
 SEAT_LENGTH = 0.005
 #: Fauske's relaxation length: the flow reaches equilibrium flashing over about 0.1 m.
 RELAXATION_LENGTH = 0.1
-#: Margin on the condensing rate for traps on modulating coils [-] (common practice:
-#: 1.5 to 2 in the VA HVAC Design Manual, 2 to 4 in NAVFAC MO-209).
-DEFAULT_MARGIN = 2.0
 #: Differential at which a trap is selected when nothing is known of it [Pa]: 1/4 psi
 #: (VA HVAC Design Manual, steam section: size traps on modulating equipment at 1/4 psi).
 SELECTION_DIFFERENTIAL = 0.25 * 6894.757293168

@@ -204,6 +204,8 @@ def _flash(r: Result):
         return None
     return {
         "fraction": f.fraction,
+        "outlet_pressure_kpa": q.kpa(f.outlet_pressure),
+        "return_fraction": f.return_fraction,
         "kg_h": q.kg_h(f.flow),
         "m3_h": f.volume_flow * 3600.0,
         "return_line_mm": None if f.line_diameter is None else f.line_diameter * 1000.0,
@@ -221,8 +223,10 @@ def _return_line(r: Result):
         "pitch": line.pitch,
         "points": [{"where": p.where, "load_fraction": p.load_fraction, "condensate_kg_h": q.kg_h(p.condensate),
                     "flash_fraction": p.flash_fraction, "taitel_dukler": p.taitel_dukler, "mandhane": p.mandhane,
-                    "slugging": p.slugging} for p in line.points],
+                    "slugging": p.slugging, "riser": p.riser, "riser_slugging": p.riser_slugging}
+                   for p in line.points],
         "slugging": line.slugging,
+        "riser_slugging": line.riser_slugging,
         "stratified_bore_mm": None if line.stratified_bore is None else line.stratified_bore * 1000.0,
         "stratified_size": line.stratified_size,
     }

@@ -153,7 +153,9 @@ def _figures(r: Result, show) -> list[str]:
     f = r.flash
     if f is not None:
         velocity = "" if f.velocity is None else f"; {show(f.velocity, 'velocity')} in the return line"
-        rows.append(("Flash steam at full load", f"{f.fraction:.1%}, {show(f.flow, 'mass_flow')}{velocity}"))
+        grown = f" (to {f.return_fraction:.1%} at the return)" if f.return_fraction > f.fraction + 1e-9 else ""
+        rows.append(("Flash steam at full load", f"{f.fraction:.1%} at the trap outlet{grown}, "
+                                                 f"{show(f.flow, 'mass_flow')}{velocity}"))
     return ["## Valve and drain figures", "", "| | |", "|---|---|"] + [f"| {a} | {b} |" for a, b in rows] + [""]
 
 

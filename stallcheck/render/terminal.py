@@ -258,11 +258,19 @@ def _devices(r: Result, system: str) -> list:
     fl = r.flash
     if fl is not None:
         parts.append(_heading("Flash steam at the trap outlet"))
+        outlet = q.show(fl.outlet_pressure, 'pressure', system, r.atmospheric_pressure)
+        lifted = fl.return_fraction > fl.fraction + 1e-9
         if fl.fraction > 0:
-            parts.append(_para(f"{fl.fraction:.1%} of the condensate at full load: {w(fl.flow)}, "
-                               f"{q.show(fl.volume_flow, 'volume_flow', system)} at the return pressure"))
+            parts.append(_para(f"{fl.fraction:.1%} of the condensate at full load, at the trap outlet's {outlet}"
+                               + (" (the return plus the lift's head)" if lifted else "")))
+        elif fl.return_fraction > 0:
+            parts.append(_para(f"none at the trap outlet's {outlet}: the coil pressure is not above it"))
         else:
             parts.append(_para("none at full load: the coil pressure is not above the return pressure"))
+        if fl.return_fraction > 0:
+            parts.append(_para((f"growing up the lift to {fl.return_fraction:.1%} at the return: " if lifted
+                                else "at the return: ")
+                               + f"{w(fl.flow)}, {q.show(fl.volume_flow, 'volume_flow', system)}"))
         if fl.velocity is not None:
             from stallcheck.physics.constants import VELOCITY_LIMIT
             parts.append(_para(f"return line {q.show(fl.line_diameter, 'diameter', system)} bore: "
@@ -290,17 +298,22 @@ def hammer_sections(r: Result, system: str) -> list:
     if line is not None:
         pitch = "level (no pitch given)" if line.pitch is None else (
             f"falling {line.pitch:.1%} with the flow" if line.pitch >= 0 else f"rising {-line.pitch:.1%} against it")
+        lift = any(pt.riser is not None for pt in line.points)
         parts += [_heading("Return line from the trap"),
-                  _para(f"{q.show(line.bore, 'diameter', system)} bore, {pitch}; flow pattern by Taitel & Dukler "
-                        f"(Mandhane's map beside it):")]
+                  _para(f"{q.show(line.bore, 'diameter', system)} bore"
+                        + (f": up the {q.show(r.lift, 'length', system)} lift (vertical upflow, Taitel, Barnea & "
+                           f"Dukler), then the run, {pitch}" if lift else f", {pitch}")
+                        + "; the run's pattern by Taitel & Dukler (Mandhane's map beside it):")]
         for pt in line.points:
             flow = q.show(pt.condensate, "mass_flow", system)
+            text = runs(f"{pt.where} ({words.percent(pt.load_fraction)}): ")
+            if pt.riser is not None:
+                text += runs("lift ", (pt.riser, "bold red" if pt.riser_slugging else None), "; run ")
             if pt.taitel_dukler == "liquid only":  # no flash: no two-phase pattern (physics.hammer)
-                text = runs(f"{pt.where} ({words.percent(pt.load_fraction)}): liquid only, no flash; {flow}")
+                text += runs(f"liquid only, no flash; {flow}")
             else:
-                text = runs(f"{pt.where} ({words.percent(pt.load_fraction)}): ",
-                            (pt.taitel_dukler, "bold red" if pt.slugging else None),
-                            f" ({pt.mandhane}); flash {pt.flash_fraction:.1%} of {flow}")
+                text += runs((pt.taitel_dukler, "bold red" if pt.slugging else None),
+                             f" ({pt.mandhane}); flash {pt.flash_fraction:.1%} of {flow}")
             parts.append(Para(text, 4, runs("  - ")))
         if line.slugging:
             parts.append(_para(f"stratified at every load from {line.stratified_size} "

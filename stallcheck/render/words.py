@@ -197,6 +197,12 @@ FINDINGS: dict[str, dict[str, str]] = {
         "none": "No line up to 6 in keeps it stratified at every load: flash the condensate in a vented receiver "
                 "next to the trap, or pump from one.",
     },
+    "lift-slug-flow": {
+        "": "Flash steam drives the condensate up the {lift:length} lift after the trap in {pattern} flow at "
+            "{where} (Taitel, Barnea & Dukler's map for vertical upflow, {bore:diameter} bore): slugs of "
+            "condensate rise and fall back in the riser and hammer. Flash the condensate in a vented receiver "
+            "at the foot of the lift and pump it from there, or lift it with a pump-trap.",
+    },
     "return-line-pitch": {
         "against": "The line from the trap rises against the flow ({pitch:.1%}): condensate lies in it and "
                    "steam drives it back and forth in slugs. Pitch it down in the direction of flow.",
