@@ -35,6 +35,10 @@ def _apply(data: dict, key: str, printed: str, source: str):
     return unitfile.from_data(edited, source)
 
 
+#: The Cv a valve remedy prints.
+VALVE_FIGURE = re.compile(r"Cv (\d+(?:\.\d+)?) or more")
+
+
 def _printed_figure(note: str) -> str:
     match = FIGURE.search(note)
     assert match, note
@@ -100,13 +104,17 @@ def _follow_every_figure(data: dict, source: str) -> int:
         assert all((m.value is None) == (m.status == "impossible") for m in r.remedies)
     now = {"drain.lift": unit.drain.lift, "drain.return_pressure": unit.drain.return_pressure,
            "drain.trap_min_differential": unit.drain.trap_min_differential, "drain.fill_head": unit.drain.fill_head,
-           "design.steam_pressure": unit.design.steam_pressure}
+           "design.steam_pressure": unit.design.steam_pressure,
+           "valve.cv": unit.valve.cv if unit.valve is not None else None}
     for m in said(r):
         assert m.current == pytest.approx(now[m.key], rel=1e-12, abs=1e-12), m.key
         assert m.achievable is (m.value is not None and m.achievable), m.key
         if m.status in ("impossible", "any"):
             assert m.achievable is False, m.key
-        if m.value is not None:
+        if m.key == "valve.cv":
+            # a too-small valve that floods the coil: the Cv printed, rounded up, is the value
+            assert m.value == float(VALVE_FIGURE.search(m.note).group(1)) >= r.valve.drain_cv, m.note
+        elif m.value is not None:
             # the figure kept is the figure printed: safe rounding at the printed step
             printed = _printed_figure(m.note)
             number, unit_text = printed.split()
@@ -119,11 +127,24 @@ def _follow_every_figure(data: dict, source: str) -> int:
     from stallcheck.render import json as contract
     served = contract.to_dict(r)
     assert [x["note"] for x in served["remedies"]] == [m.note for m in said(r)]
-    assert {x["unit_si"] for x in served["remedies"]} <= {"m", "Pa"}
+    assert {x["unit_si"] for x in served["remedies"]} <= {"m", "Pa", "Cv"}
     assert all(m.note in " ".join(served["advice"]["text"]) for m in a.changes + a.cannot)
     applied = 0
     for m in a.changes:
         if m.remedy.value is None:
+            continue
+        if m.key == "valve.cv":
+            # fitted at the Cv printed: the open valve holds the coil the margin above the
+            # stall pressure at full load (or no longer limits it), and the unit drains
+            cv = VALVE_FIGURE.search(m.note).group(1)
+            edited = {k: (dict(v) if isinstance(v, dict) else v) for k, v in data.items()}
+            edited["valve"].pop("kv", None)
+            edited["valve"]["cv"] = float(cv)
+            again = analysis.analyse(unitfile.from_data(edited, source))
+            v = again.valve
+            assert v.capacity_ok or v.limited_coil_pressure - again.stall.threshold_pressure >= 1000.0 * (1 - 1e-9)
+            assert again.drainage.adequate, (source, m.key, cv)
+            applied += 1
             continue
         printed = _printed_figure(m.note)
         more = re.search(r"\(now (-?[\d.]+) (m|ft): (-?[\d.]+) (m|ft) more\)", m.note)

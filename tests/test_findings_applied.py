@@ -148,3 +148,19 @@ def test_safe_rounding_steps_at_the_printed_precision():
     assert fill.format_field(1 / 480, ".2%+") == "0.21%" and fill.format_field(0.66, ".0%+") == "66%"
     assert words.percent(0.6501) == "66%" and words.percent(0.6599, up=False) == "65%"
     assert fill.format_field(0.123, ".1f+") == "0.2" and fill.format_field(0.129, ".1f-") == "0.1"
+
+
+@pytest.mark.parametrize("cv", [3, 5])
+def test_the_valve_printed_under_what_to_do_drains_a_valve_flooded_coil(cv):
+    # A valve too small for a coil whose load alone never stalls it above its 90 %
+    # minimum: the open valve holds it under the stall pressure, and the one change is
+    # the valve. The Cv printed (rounded up), fitted, leaves the installed trap adequate.
+    from stallcheck.render import advice
+
+    r = analyse(valve={"cv": cv}, load={"minimum": 0.9})
+    assert not r.drainage.adequate and r.stall.valve_load_fraction is not None
+    line = next(m for m in advice.advise(r, "us").changes if m.key == "valve.cv")
+    printed = float(re.search(r"Cv (\d+(?:\.\d+)?) or more", line.note).group(1))
+    assert printed == line.remedy.value   # the JSON's value_si is the figure printed
+    fitted = analyse(valve={"cv": printed}, load={"minimum": 0.9})
+    assert fitted.drainage.adequate and fitted.stall.valve_load_fraction is None

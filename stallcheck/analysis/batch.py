@@ -24,7 +24,7 @@ from stallcheck.physics import devices, drainage, properties
 from stallcheck.physics import valve as valvemod
 from stallcheck.physics.solve import illinois
 from stallcheck.record import record
-from stallcheck.result import DesignPoint, Drainage, Points, Result, StallPoint, ValveResult
+from stallcheck.result import DesignPoint, Drainage, Points, Remedy, Result, StallPoint, ValveResult
 
 #: Specific heat of air [J/(kg·K)] (the unit-file conventions).
 AIR_CP = 1006.0
@@ -346,6 +346,7 @@ def _analyse(units: list[Unit], systems: list[str], tabulate: bool = True, compl
                     q.rounded(value, kind, system, atm, up=up) for i in range(n)]
         p_low, floor = _valve_bound(b, valves, p_min)
         fixes = remedies.solve(b, p_low, [d.adequate for d in drains], rounders, floor)
+        fixes = [f + _valve_remedy(valves[i], stall[i], drains[i].adequate) for i, f in enumerate(fixes)]
     else:
         fixes = [()] * n
 
@@ -608,6 +609,19 @@ def _valve_bound(b: Batch, valves, p_min):
     t_in = b.coil.inlet_design[units]
     floor[units] = t_in + (b.coil.steam_design[units] - t_in) * _aim_ratio(b, units, *_valve_terms(b, valves, units))
     return p_low, floor
+
+
+def _valve_remedy(v: ValveResult | None, s: StallPoint, adequate: bool) -> tuple[Remedy, ...]:
+    """Where a too-small valve floods a coil its drainage cannot handle: the valve that
+    stops it, its Cv rounded up to the three figures printed. A change on its own where
+    the load alone never stalls the coil in its operating range; else it does not do
+    it alone (the load's own stall remains)."""
+    if adequate or v is None or v.drain_cv is None or s.valve_load_fraction is None:
+        return ()
+    alone = not s.in_range
+    return (Remedy(key="valve.cv", kind="cv", current=v.cv, value=q.up_to_figures(v.drain_cv, 3),
+                   reason="change" if alone else "not-alone", status="change", achievable=alone,
+                   facts={"load": s.load_fraction}),)
 
 
 def _with_drain_cv(v: ValveResult, cv: float) -> ValveResult:

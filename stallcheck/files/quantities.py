@@ -628,6 +628,13 @@ def _printed_step(number: float, kind: str, system: str) -> float:
     return 10.0 ** -DISPLAY[system][kind][2]
 
 
+def up_to_figures(value: float, figures: int = 3) -> float:
+    """``value`` rounded up to ``figures`` significant figures (a flow coefficient a
+    valve is selected by: one of at least the figure does what the text says)."""
+    step = 10.0 ** (math.floor(math.log10(value)) - (figures - 1))
+    return float(f"{math.ceil(value / step - 1e-9) * step:.{figures + 1}g}")   # the figure, not its float noise
+
+
 def express(value: float, si: str, unit: str) -> float:
     """An SI value in another unit of the same dimension (``express(0.3048, "m", "ft")``)."""
     offset, scale = _line(si, unit)

@@ -122,8 +122,9 @@ def to_dict(r: Result) -> dict:
     return out
 
 
-#: SI unit of each remedy's value: pressures absolute Pa, differentials Pa, heights m.
-_SI_UNIT = {"length": "m", "pressure": "Pa", "differential": "Pa"}
+#: SI unit of each remedy's value: pressures absolute Pa, differentials Pa, heights m;
+#: a valve's flow coefficient as Cv (US gpm at 1 psi; no SI unit).
+_SI_UNIT = {"length": "m", "pressure": "Pa", "differential": "Pa", "cv": "Cv"}
 
 
 def _advice(r: Result):

@@ -350,6 +350,10 @@ REMEDIES = {
                                               "(now {current:pressure}): run hotter, it keeps the coil "
                                               "pressure up at part load; but that is at or above the supply "
                                               "({supply:pressure}), so it needs the supply raised too",
+    ("valve.cv", "change"): "a control valve of Cv {value:cv} or more (now Cv {current:.3g}): wide open it holds the "
+                            "coil above the stall pressure at full load, the {margin:differential} margin kept",
+    ("valve.cv", "not-alone"): "a control valve of Cv {value:cv} or more (now Cv {current:.3g}) stops the valve holding "
+                               "the coil under at high load, but alone it leaves the stall below {load:.0%+} load",
 }
 #: Filled into a return pressure below atmospheric (``{vacuum}`` above).
 VACUUM_RETURN = ", below atmospheric: only a vacuum return holds that,"
@@ -452,8 +456,7 @@ def stall_summary(s) -> str:
 def cv_up(value: float) -> str:
     """A flow coefficient someone will select a valve by, to three significant figures
     rounded up: a valve of at least the printed Cv does what the text says."""
-    step = 10.0 ** (math.floor(math.log10(value)) - 2)
-    up = math.ceil(value / step - 1e-9) * step
+    up = q.up_to_figures(value, 3)
     return f"{up:.{max(0, 2 - math.floor(math.log10(up)))}f}"
 
 
