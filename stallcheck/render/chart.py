@@ -2,7 +2,9 @@
 
 Marks, chosen to read without colour:
 
-    *   steam pressure the coil needs at that load
+    *   steam pressure the coil runs at: what the load needs, or what the open valve
+        gives where that is less
+    o   what the load needs, where a too-small valve holds the coil below it
     -   back pressure on the trap (return pressure plus lift)
     ~   atmospheric pressure (0 gauge), where it is not the back-pressure line
     X   the stall point
@@ -23,10 +25,12 @@ from stallcheck.files import quantities as q
 from stallcheck.result import Result
 
 #: Style names the terminal maps to colours.
-STYLES = {"*": "curve", "-": "back", "~": "atmos", "X": "stall", "D": "limit", ".": "zone", "|": "minimum"}
+STYLES = {"*": "curve", "o": "need", "-": "back", "~": "atmos", "X": "stall", "D": "limit", ".": "zone",
+          "|": "minimum"}
 
 LEGEND = [
     ("*", "steam pressure the coil needs"),
+    ("o", "what the load needs, where the open valve holds the coil lower"),
     ("-", "back pressure on the trap"),
     ("~", "atmospheric (0 gauge)"),
     ("X", "stall point"),
@@ -45,7 +49,11 @@ def _nice_step(span: float, target: int) -> float:
     return float(10 * power)
 
 
-def render(result: Result, system: str, width: int = 78, height: int = 15,
+#: Rows the chart may use unless told: 16 holds five steps of three rows each.
+HEIGHT = 16
+
+
+def render(result: Result, system: str, width: int = 78, height: int = HEIGHT,
            x_axis: str = "load") -> list[list[tuple[str, str | None]]]:
     """Draw the stall chart.
 
@@ -83,16 +91,28 @@ def render(result: Result, system: str, width: int = 78, height: int = 15,
     def col(x):
         return int(round((x - x_lo) / (x_hi - x_lo) * (plot_w - 1)))
 
+    limited = pts.valve_limited
+    needed = (np.array(q.convert_array(pts.needed_coil_pressure, "pressure", system, atm))
+              if limited.any() else pressure)
     y_lo = min(float(pressure.min()), back, 0.0)
-    y_hi = max(float(pressure.max()), back)
-    step = _nice_step(y_hi - y_lo, 5)
-    y_lo = np.floor(y_lo / step + 1e-6) * step
-    y_hi = np.ceil(y_hi / step - 1e-6) * step
-    if y_hi - y_lo < step:
-        y_hi = y_lo + step
+    y_hi = max(float(needed.max()), back)
+    # every tick on a row of its own, a whole number of rows a step (a value is never
+    # drawn a row away from its label): the usual step, widened until a row a step fits
+    for ticks in range(5, 0, -1):
+        step = _nice_step(y_hi - y_lo, ticks)
+        lo = np.floor(y_lo / step + 1e-6) * step
+        steps = max(int(round((np.ceil(y_hi / step - 1e-6) * step - lo) / step)), 1)
+        if steps <= height - 1:
+            break
+    y_lo, y_hi = lo, lo + steps * step
+    per_step = max((height - 1) // steps, 1)
+    height = steps * per_step + 1
+    # no row below a perfect vacuum: the axis stops at the row holding it
+    vacuum = q.convert(0.0, "pressure", system, atm)
+    height = min(height, int(np.floor((y_hi - vacuum) / (step / per_step) + 0.5)) + 1)
 
     def row(y):
-        return int(round((y_hi - y) / (y_hi - y_lo) * (height - 1)))
+        return min(int(round((y_hi - y) / step * per_step)), height - 1)
 
     grid = [[" "] * plot_w for _ in range(height)]
     # stalled zone: every column whose load is stalled, from the axis up to the curve
@@ -122,7 +142,13 @@ def render(result: Result, system: str, width: int = 78, height: int = 15,
         for r in range(height):
             if grid[r][cm] in " .~":
                 grid[r][cm] = "|"
-    # the curve
+    # what the load needs where the valve holds the coil lower, then the curve over it
+    if limited.any():
+        order = np.argsort(x_data)
+        need_fine = np.interp(x_fine, x_data[order], needed[order])
+        lim_fine = np.interp(x_fine, x_data[order], limited[order].astype(float)) > 0.5
+        for c in np.flatnonzero(lim_fine):
+            grid[row(need_fine[c])][c] = "o"
     for c in range(plot_w):
         grid[row(p_fine[c])][c] = "*"
     # drainage limit
@@ -142,7 +168,7 @@ def render(result: Result, system: str, width: int = 78, height: int = 15,
 
     lines: list[list[tuple[str, str | None]]] = []
     decimals = 0 if step >= 1 else (1 if step >= 0.1 else 2)
-    tick_rows = {row(y): y for y in np.arange(y_lo, y_hi + step / 2, step)}
+    tick_rows = {row(y): y for y in np.arange(y_lo, y_hi + step / 2, step) if y >= vacuum - 1e-9}
     lines.append([(f"{unit:>{label_w}}", None)])
     for r in range(height):
         text = f"{tick_rows[r]:{label_w}.{decimals}f} +" if r in tick_rows else " " * label_w + " |"
@@ -166,7 +192,7 @@ def render(result: Result, system: str, width: int = 78, height: int = 15,
         c = col(x)
         if c > 0:
             axis[c] = "+"
-        tick = f"{x:.0f}"
+        tick = f"{x:.0f}".replace("-0", "0") if abs(x) < 0.5 else f"{x:.0f}"
         start = max(0, min(c - len(tick) // 2, len(labels) - len(tick)))
         labels[start:start + len(tick)] = list(tick)
     lines.append([(" " * label_w + " +" + "".join(axis).replace(" ", "-"), None)])
@@ -175,7 +201,8 @@ def render(result: Result, system: str, width: int = 78, height: int = 15,
               if by_inlet else "load, % of design")
     lines.append([(" " * (label_w + 2) + x_name.center(plot_w).rstrip(), None)])
     used = {ch for line in grid for ch in line}
-    legend = [(m, words) for m, words in LEGEND if m in used]
+    legend = [(m, "steam pressure the coil runs at" if m == "*" and "o" in used else words)
+              for m, words in LEGEND if m in used]
     legend_runs: list[tuple[str, str | None]] = [("  ", None)]
     line_len = 2
     for mark, words in legend:

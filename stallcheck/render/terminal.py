@@ -12,7 +12,7 @@ from stallcheck.render import advice, chart, page, words
 from stallcheck.render.page import BLANK, Para, bullets, runs
 from stallcheck.result import Result
 
-CHART_COLOURS = {"curve": "bold cyan", "back": "yellow", "atmos": "dim", "stall": "bold red", "limit": "bold magenta",
+CHART_COLOURS = {"curve": "bold cyan", "need": "cyan", "back": "yellow", "atmos": "dim", "stall": "bold red", "limit": "bold magenta",
                  "zone": "red", "minimum": "magenta"}
 SEVERITY_STYLE = {"danger": "bold red", "warning": "yellow", "info": "cyan"}
 SEVERITY_WORD = {"danger": "DANGER", "warning": "WARNING", "info": "note"}
@@ -21,13 +21,14 @@ _heading = page.heading
 _para = page.para
 
 
-def chart_block(result: Result, system: str, width: int, x_axis: str = "load", height: int = 15) -> page.Pre:
+def chart_block(result: Result, system: str, width: int, x_axis: str = "load",
+                height: int = chart.HEIGHT) -> page.Pre:
     """The stall chart as preformatted lines, coloured by mark (``height``: plot rows)."""
     return page.Pre(tuple(tuple((text, CHART_COLOURS.get(style) if style else None) for text, style in line)
                           for line in chart.render(result, system, width=width, height=height, x_axis=x_axis)))
 
 
-def chart_text(result: Result, system: str, width: int, x_axis: str = "load", height: int = 15):
+def chart_text(result: Result, system: str, width: int, x_axis: str = "load", height: int = chart.HEIGHT):
     """The stall chart as a rich Text (for the full-screen ``explore``)."""
     from rich.text import Text
 
