@@ -148,20 +148,32 @@ def test_no_check_imports_pint_even_with_a_home_folder_it_cannot_write(tmp_path)
         assert run.stdout.strip() == "False", sample.name
 
 
-def test_a_spelling_not_shipped_goes_to_pint_and_is_kept(tmp_path):
-    # A unit spelling outside the shipped answers (furlongs) is pint's to read, and its
-    # answer is kept in the cache folder for the next run.
+def test_a_spelling_outside_the_grammar_is_refused_and_nothing_is_written_at_home(tmp_path):
+    # A unit pint knows but the grammar does not (furlongs) is refused, without pint
+    # being imported and without anything written to a cache folder.
     unit = tmp_path / "u.toml"
     unit.write_text(BASE_UNIT.replace('fill_head = "18 in"', 'fill_head = "0.00227 furlong"'), encoding="utf-8")
-    env = dict(os.environ, XDG_CACHE_HOME=str(tmp_path / "cache"), NO_COLOR="1")
+    env = dict(os.environ, XDG_CACHE_HOME=str(tmp_path / "cache"), HOME=str(tmp_path / "home"), NO_COLOR="1")
     code = ("import sys\nfrom stallcheck.cli import app\n"
             "from typer.testing import CliRunner\n"
-            f"r = CliRunner().invoke(app, ['check', {str(unit)!r}])\nassert r.exit_code in (0, 1), r.output\n"
+            f"r = CliRunner().invoke(app, ['check', {str(unit)!r}])\nassert r.exit_code == 2, r.output\n"
+            "assert 'furlong' in r.output and 'accepted: in, ft, mm, m' in r.output, r.output\n"
             "print('pint' in sys.modules)")
-    first = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True, check=True, env=env)
-    second = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True, check=True, env=env)
-    assert first.stdout.strip() == "True" and second.stdout.strip() == "False"
-    assert list((tmp_path / "cache" / "stallcheck").glob("units-*.json"))
+    run = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True, check=True, env=env)
+    assert run.stdout.strip() == "False"
+    assert not (tmp_path / "cache").exists() and not (tmp_path / "home").exists()
+
+
+def test_every_spelling_of_the_grammar_is_shipped():
+    # So that no run needs pint: each accepted spelling's meaning and its factor to SI.
+    import json
+
+    from stallcheck.files import quantities as q
+
+    shipped = json.loads(q.SHIPPED_ANSWERS.read_text(encoding="utf-8"))
+    for kind, spellings in q.GRAMMAR.items():
+        for spelling in spellings:
+            assert f"unit|{spelling}" in shipped, spelling
 
 
 def test_the_shipped_unit_answers_are_what_pint_says():
@@ -229,11 +241,11 @@ def test_every_text_command_takes_a_width(command, monkeypatch):
     assert max(map(len, wide.stdout.splitlines())) > 60
 
 
-def test_a_check_of_shipped_spellings_does_not_read_the_cache_file():
-    # The user's cache file (and hashlib, to name it) only where a spelling is missing.
+def test_a_check_does_not_import_the_units_library():
+    # Every spelling of the grammar is shipped with pint's answer: a check needs no pint.
     code = ("import sys, io, contextlib\nfrom stallcheck.cli import main\n"
             f"sys.argv = ['stallcheck', 'check', {str(SAMPLES[0])!r}]\n"
             "try:\n    with contextlib.redirect_stdout(io.StringIO()):\n        main()\nexcept SystemExit:\n    pass\n"
-            "from stallcheck.files import quantities as q\nprint(q._answers.data is None, 'hashlib' in sys.modules)")
+            "print('pint' in sys.modules)")
     out = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True, check=True)
-    assert out.stdout.split()[0] == "True"
+    assert out.stdout.strip() == "False"

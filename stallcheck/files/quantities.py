@@ -9,18 +9,15 @@ Gauge pressures need the site's atmospheric pressure, so they come back as a
 :class:`Pressure` that remembers whether it was gauge; :mod:`stallcheck.files.unitfile`
 resolves it once the site is known.
 
-pint is imported on first use, not with the package: ``stallcheck --help`` must stay
-fast. Its answers (what a unit spelling means, and the factors that convert it) are
-kept in the user's cache folder, so a later run that meets only spellings seen before
-does not import pint at all (see :class:`_Answers`).
+Only the spellings of a closed grammar (:data:`GRAMMAR`) are read; pint's answers for
+them (what each spelling means, and the factors that convert it) are shipped with the
+package, so a run does not import pint at all (see :class:`_Answers`).
 """
 
 from __future__ import annotations
 
-import atexit
 import json
 import math
-import os
 import re
 from functools import lru_cache
 from pathlib import Path
@@ -108,20 +105,16 @@ SHIPPED_ANSWERS = Path(__file__).resolve().parent.parent / "data" / "units.json"
 
 
 class _Answers:
-    """pint's answers kept between runs: those shipped with the package
-    (:data:`SHIPPED_ANSWERS`), then a small JSON file in the user's cache folder
-    (``$XDG_CACHE_HOME/stallcheck`` or ``~/.cache/stallcheck``) for any other spelling
-    met, named by a hash of the installed pint (its path and modification time) and of
-    our definitions, so a new pint or a changed definition starts a fresh file. It is a
-    memo of what pint said, never a table of our own: a spelling not in it goes to pint.
-    Unreadable or unwritable cache folders are passed over silently.
+    """pint's answers for every spelling of :data:`GRAMMAR` and every unit printed,
+    shipped with the package (:data:`SHIPPED_ANSWERS`; ``tests/test_cli.py`` holds
+    them to the installed pint and to the grammar), so no run imports pint. An answer
+    not shipped (a development tree whose table is behind its grammar) is asked of pint
+    and kept for the process only: nothing is written outside the output asked for.
     """
 
     def __init__(self):
         self.shipped: dict | None = None
-        self.data: dict | None = None     # the user's cache file, read on the first miss
-        self.dirty = False
-        self.file: Path | None = None
+        self.data: dict = {}
 
     def _load_shipped(self) -> dict:
         if self.shipped is None:
@@ -134,57 +127,16 @@ class _Answers:
                 pass
         return self.shipped
 
-    def _load(self) -> dict:
-        """The user's cache file (named by pint's install and our definitions)."""
-        if self.data is None:
-            import hashlib
-            import importlib.util
-
-            self.data = {}
-            try:
-                spec = importlib.util.find_spec("pint")
-                origin = spec.origin if spec else ""
-                stamp = os.stat(origin).st_mtime_ns if origin else 0
-                key = hashlib.sha1(f"{origin}|{stamp}|{_DEFINITIONS}".encode()).hexdigest()[:16]
-                base = os.environ.get("XDG_CACHE_HOME") or os.path.join(os.path.expanduser("~"), ".cache")
-                self.file = Path(base) / "stallcheck" / f"units-{key}.json"
-                kept = json.loads(self.file.read_text(encoding="utf-8"))
-                if isinstance(kept, dict):
-                    self.data = kept
-            except (OSError, ValueError):
-                pass
-        return self.data
-
     def get(self, key: str, compute, valid=lambda value: True):
-        """pint's answer for ``key``: shipped, or from the cache file, where it is there
-        and of the shape ``valid`` accepts (a file damaged or written by something else is
-        not trusted), else computed and kept."""
-        for load in (self._load_shipped, self._load):  # the user's file only on a miss
-            data = load()
+        """pint's answer for ``key``: shipped, where it is there and of the shape
+        ``valid`` accepts, else computed once in this process."""
+        for data in (self._load_shipped(), self.data):
             if key in data and valid(data[key]):
                 value = data[key]
                 return tuple(value) if isinstance(value, list) else value
         value = compute()
         self.data[key] = value
-        if not self.dirty:
-            self.dirty = True
-            atexit.register(self.save)
         return value
-
-    def save(self) -> None:
-        if not self.dirty or self.file is None:
-            return
-        import tempfile  # only when there is something new to keep
-
-        try:
-            self.file.parent.mkdir(parents=True, exist_ok=True)
-            handle, temporary = tempfile.mkstemp(dir=self.file.parent, suffix=".part")
-            with os.fdopen(handle, "w", encoding="utf-8") as out:
-                json.dump(self.data, out)
-            os.replace(temporary, self.file)
-            self.dirty = False
-        except OSError:
-            pass
 
 
 _answers = _Answers()
@@ -225,6 +177,8 @@ def _split(key: str, text, example: str) -> tuple[float, str]:
     if read == "comma":
         raise InputError(key, f"'{text}': write the decimal point as a point (1.5, not 1,5); a comma only "
                               f"separates thousands (12,000).")
+    if read == "zero":
+        raise InputError(key, f"'{text}' is a fraction over zero; write a number such as \"{example}\".")
     if read == "finite" or any(word in text.strip().lower() for word in ("nan", "inf")):
         raise InputError(key, f"'{text}' is not a finite number; write a value such as \"{example}\".")
     raise InputError(key, f"'{text}' is not '<number> <unit>'; write it as \"{example}\".")
@@ -237,7 +191,8 @@ _FRACTION = re.compile(r"^\s*(?:(\d+)[- ])?(\d+)/(\d+)\s*([^\d\s/].*?)\s*$")
 @lru_cache(maxsize=4096)
 def _read(text: str) -> tuple[float, str] | str:
     """The number and the unit (in the unit file's spelling) of a quantity string, or
-    why it cannot be read: ``"form"``, ``"comma"`` (a decimal comma) or ``"finite"``.
+    why it cannot be read: ``"form"``, ``"comma"`` (a decimal comma), ``"zero"`` (a
+    fraction over zero) or ``"finite"``.
     Cached: a file is read once to choose its units and once for its values."""
     match = _NUMBER_UNIT.match(text)
     unit_text = match.group(2) if match else ""
@@ -245,7 +200,9 @@ def _read(text: str) -> tuple[float, str] | str:
     # starting with "/", "-" or a digit, or not at all: only then is it looked for.
     if not match or unit_text[:1] in "/-" or unit_text[:1].isdigit():
         fraction = _FRACTION.match(text)
-        if fraction and int(fraction.group(3)) > 0:
+        if fraction and int(fraction.group(3)) == 0:
+            return "zero"
+        if fraction:
             whole, top, bottom, fraction_unit = fraction.groups()
             unit = typed_unit(fraction_unit)
             return int(whole or 0) + int(top) / int(bottom), _SPELLINGS.get(unit, unit)
@@ -323,10 +280,62 @@ def _line(unit: str, si: str) -> tuple[float, float]:
                                 for x in v))
 
 
+#: The closed grammar: every unit spelling each kind of quantity accepts, as the unit
+#: file writes it (after :data:`TYPED_UNITS` and :data:`_SPELLINGS`: ``kPa(g)`` is
+#: ``kPag``). Nothing else is
+#: handed to the units library, whose SI prefixes and arithmetic would read trade
+#: spellings otherwise (an "M" before a US unit is a thousand in the trade and a
+#: million to the library; "acfm" is actual cfm, not atto-cfm; "ft%" is not a length).
+#: ``Pa`` lists every pressure spelling: :func:`pressure` and :func:`differential` then
+#: take their own (a gauge pressure is not a difference, a bare psi not a pressure).
+GRAMMAR = {
+    "Pa": ("psig", "psia", "barg", "bara", "kPag", "kPaa", "psi", "bar", "mbar", "kPa", "MPa", "Pa", "atm",
+           "inH2O", "inHg", "mmHg"),
+    "K": ("degC", "degF", "K"),
+    "m": ("in", "ft", "mm", "cm", "m"),
+    "s": ("s", "ms", "min"),
+    "kg": ("kg", "t", "lb"),
+    "dimensionless": ("%",),
+    "kg/s": ("kg/h", "kg/s", "lb/h"),
+    "m**3/s": ("m3/h", "m3/s", "L/s", "gpm", "cfm"),
+}
+#: A trade multiplier letter before a US unit (M, MM): a thousand and a million in US
+#: steam and HVAC practice (MBH, M lb/h, MMBtu/h; common practice), a million and
+#: more to SI. Refused, both readings named.
+_TRADE_MULTIPLIER = re.compile(r"^(MM|M)\s*(lbs?/h(?:r)?|pph|btu/?h|bh|btuh|cfm|gpm|lb)$", re.IGNORECASE)
+#: A letter before cfm: "acfm" (actual, at the air's own density) or "scfm" (standard
+#: air, read as cfm: :data:`TYPED_UNITS`).
+_ACTUAL_CFM = re.compile(r"^a\s*cfm$", re.IGNORECASE)
+
+
+def _closed(key: str, text: str, unit_text: str, dimension: str, accepted: str, also: str | None) -> None:
+    """Refuse a unit spelling outside :data:`GRAMMAR` for the kinds asked, saying why
+    where a trade reading and the units library's differ."""
+    if any(unit_text in spellings for spellings in GRAMMAR.values()):
+        return   # a unit of the grammar: of another kind, _quantity says "not a pressure"
+    trade = _TRADE_MULTIPLIER.match(unit_text)
+    if trade:
+        times = "a thousand" if trade.group(1).upper() == "M" else "a million"
+        raise InputError(key, f"'{text}': '{trade.group(1)}' before {trade.group(2)} is {times} in US practice "
+                              f"(MBH, M lb/h) and a million or more to SI, so it is not read either way; write the "
+                              f"whole number in a plain unit; accepted: {accepted}.")
+    if _ACTUAL_CFM.match(unit_text):
+        raise InputError(key, f"'{text}': acfm is actual cubic feet a minute, at the air's own density, which "
+                              f"the unit file does not take; give the flow as standard air (cfm or scfm) or as a "
+                              f"mass flow; accepted: {accepted}.")
+    if "delta" in unit_text.lower():
+        raise InputError(key, f"'{text}' is a temperature difference, not a temperature; accepted: {accepted}.")
+    if len(unit_text) > 1 and unit_text.endswith("%"):
+        raise InputError(key, f"'{text}': a percent sign after a unit is not read; write the value and its "
+                              f"unit alone; accepted: {accepted}.")
+    raise InputError(key, f"unknown unit '{unit_text}' in '{text}'; accepted: {accepted}.")
+
+
 def _quantity(key: str, text, dimension: str, example: str, accepted: str, also: str | None = None):
     read = _read(text) if type(text) is str and len(text) <= MAX_QUANTITY_TEXT else None
     # a string read at once; anything else through _split, which says what is wrong
     value, unit_text = read if type(read) is tuple else _split(key, text, example)
+    _closed(key, text, unit_text, dimension, accepted, also)
     info = _unit_info(unit_text)
     if info is None:
         raise InputError(key, f"unknown unit '{unit_text}' in '{text}'; accepted: {accepted}.")
