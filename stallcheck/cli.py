@@ -124,7 +124,7 @@ def chart(unit: Path = UNIT_ARG, units: Optional[Units] = UNITS_OPT,
         from stallcheck.files import atomic
 
         try:
-            atomic.check_target(csv, "--csv", force)
+            atomic.check_target(csv, "--csv", force, inputs=(unit,))
         except InputError as exc:
             _fail(str(exc))
     result = _run(unit, units, method)
@@ -143,7 +143,7 @@ def chart(unit: Path = UNIT_ARG, units: Optional[Units] = UNITS_OPT,
         from stallcheck.render import chart as chartmod
 
         try:
-            atomic.write_new(csv, chartmod.points_csv(result, result.system), "--csv", force)
+            atomic.write_new(csv, chartmod.points_csv(result, result.system), "--csv", force, inputs=(unit,))
         except InputError as exc:
             _fail(str(exc))
     raise typer.Exit(result.exit_status)
@@ -183,7 +183,7 @@ def report(unit: Path = UNIT_ARG,
     targets = [("--output", output)] + [(o, p) for o, p in (("--svg", svg), ("--png", png)) if p is not None]
     try:
         for option, path in targets:
-            atomic.check_target(path, option, force)
+            atomic.check_target(path, option, force, inputs=(unit,))
     except InputError as exc:
         _fail(str(exc))
     unit_obj, result = _load(unit, units, method)
@@ -194,8 +194,8 @@ def report(unit: Path = UNIT_ARG,
     try:
         pictures = [(o, p, rep.picture(result, result.system, o[2:])) for o, p in targets[1:]]
         for option, path, data in pictures:
-            atomic.write_new(path, data, option, force)
-        atomic.write_new(output, text, "--output", force)
+            atomic.write_new(path, data, option, force, inputs=(unit,))
+        atomic.write_new(output, text, "--output", force, inputs=(unit,))
     except rep.MissingExtra as exc:
         _fail(str(exc))
     except InputError as exc:
@@ -356,14 +356,14 @@ def survey(paths: list[Path] = typer.Argument(..., help="Unit files, folders of 
     from stallcheck.analysis import survey as surveymod
     from stallcheck.files import atomic
 
-    if csv is not None:
-        try:
-            atomic.check_target(csv, "--csv", force)
-        except InputError as exc:
-            _fail(str(exc))
     found = surveymod.sources(paths)
     if not found:
         _fail("no unit files (.toml) or CSV tables (.csv) in " + ", ".join(str(p) for p in paths))
+    if csv is not None:
+        try:
+            atomic.check_target(csv, "--csv", force, inputs=found)
+        except InputError as exc:
+            _fail(str(exc))
     system = units.value if units else None
     method_ = method.value if method else None
     stream = None
@@ -419,7 +419,7 @@ def survey(paths: list[Path] = typer.Argument(..., help="Unit files, folders of 
         from stallcheck.render import survey as show
 
         try:
-            atomic.write_new(csv, show.csv_text(summaries, failures), "--csv", force)
+            atomic.write_new(csv, show.csv_text(summaries, failures), "--csv", force, inputs=found)
         except InputError as exc:
             _fail(str(exc))
     raise typer.Exit(status)

@@ -322,7 +322,7 @@ class Explorer(App):
 
     def _write(self, path: Path) -> None:
         try:
-            atomic.write_new(path, self._text(), "save", force=True)
+            atomic.write_new(path, self._text(), "save", force=True, inputs=(self.original.source,))
         except InputError as exc:
             self._say(f"not saved: {exc}")
             return
