@@ -431,26 +431,26 @@ def test_subcooling_of_5_k_before_flash_into_the_return_is_called_cool():
     # Common practice (from memory): condensate more than about 5 K below its boiling
     # point collapses the flash that meets it. Saturation at 1 atm: 373.124 K (IF97).
     t_sat = IAPWS97(P=ATM / 1e6, x=0).T
-    for below, expected in ((4.5, False), (5.5, True)):
+    for below, expected in ((4.75, False), (5.25, True)):
         r = analyse(drain={"return_line": "1 in", "return_temperature": f"{t_sat - below!r} K"})
         assert (found(r, "flash-into-cool-return") is not None) is expected, below
 
 
 def test_least_pitch_of_one_inch_in_forty_feet():
     # Common practice (from memory): 1 in of fall in 40 ft, 1/480 = 0.2083 %.
-    for pitch, expected in (("0.19 %", True), ("0.23 %", False)):
+    for pitch, expected in (("0.2 %", True), ("0.22 %", False)):
         r = analyse(drain={"return_line": "1 in", "return_pitch": pitch})
         assert (found(r, "return-line-pitch") is not None) is expected, pitch
 
 
 def test_return_velocity_limit_of_15_m_s():
     # Common practice: about 15 m/s (3,000 ft/min) in a return carrying flash. The
-    # homogeneous velocity goes as 1/d²: bores giving 13.5 and 16.5 m/s from the figure
+    # homogeneous velocity goes as 1/d²: bores giving 14.25 and 15.75 m/s from the figure
     # at 3/4 in (worked by hand from IF97 in test_return_velocity_high_... above).
     tables = dict(steam={"supply_pressure": "60 psig"}, design={"steam_pressure": "50 psig", "flow": "10000 cfm"},
                   valve={"cv": 30})
     v0 = analyse(**tables, drain={"return_line": "0.75 in"}).flash.velocity
-    for speed, expected in ((13.5, False), (16.5, True)):
+    for speed, expected in ((14.25, False), (15.75, True)):
         bore = 0.75 * INCH * math.sqrt(v0 / speed)
         r = analyse(**tables, drain={"return_line": f"{bore * 1000!r} mm"})
         assert r.flash.velocity == pytest.approx(speed, rel=1e-9)
