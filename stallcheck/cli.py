@@ -15,7 +15,7 @@ from typing import Optional
 import typer
 
 from stallcheck import __version__
-from stallcheck.errors import InputError, StallcheckError
+from stallcheck.errors import InputError, StallcheckError, printable
 
 app = typer.Typer(
     name="stallcheck",
@@ -54,7 +54,7 @@ WIDTH_OPT = typer.Option(None, "--width", min=60, max=250,
 
 
 def _fail(message: str) -> None:
-    typer.echo(f"stallcheck: {message}", err=True)
+    typer.echo(printable(f"stallcheck: {message}"), err=True)
     raise typer.Exit(2)
 
 
@@ -77,7 +77,7 @@ def _load(path: Path, units: Optional[Units], method: Optional[Method], warn: bo
         _fail(f"{path}: {exc}")
     if warn:
         for warning in result.warnings:
-            typer.echo(f"stallcheck: {result.source}: {warning}", err=True)
+            typer.echo(printable(f"stallcheck: {result.source}: {warning}"), err=True)
     return unit, result
 
 
@@ -87,7 +87,7 @@ def _show_check(result, as_json: bool, width: Optional[int] = None) -> None:
 
         sys.stdout.write(json_out.dumps(result) + "\n")
         for warning in result.warnings:
-            typer.echo(f"stallcheck: {result.source}: {warning}", err=True)
+            typer.echo(printable(f"stallcheck: {result.source}: {warning}"), err=True)
     else:
         from stallcheck.render import page, terminal
 
@@ -200,7 +200,7 @@ def report(unit: Path = UNIT_ARG,
         _fail(str(exc))
     except InputError as exc:
         _fail(str(exc))
-    typer.echo(f"wrote {output}" + "".join(f", {p}" for _, p in targets[1:]), err=True)
+    typer.echo(printable(f"wrote {output}" + "".join(f", {p}" for _, p in targets[1:])), err=True)
     raise typer.Exit(result.exit_status)
 
 
@@ -227,20 +227,21 @@ def new(file: Optional[Path] = typer.Argument(None, help="Where to write the uni
             try:
                 unit, result = _analyse_text(text)
             except InputError as exc:
-                err.print(f"  {exc.message}", highlight=False, markup=False)
+                err.print(printable(f"  {exc.message}"), highlight=False, markup=False)
                 answers.pop(exc.key, None)
                 continue
             break
         out = terminal.console()
         verdict = words.stall_summary(result.stall)
-        out.print(f"{result.unit}: {verdict}; needs {result.drainage.required}, has {result.drainage.installed} "
-                  f"({'adequate' if result.drainage.adequate else 'NOT adequate'})", highlight=False, markup=False)
+        out.print(printable(f"{result.unit}: {verdict}; needs {result.drainage.required}, has "
+                            f"{result.drainage.installed} ({'adequate' if result.drainage.adequate else 'NOT adequate'})"),
+                  highlight=False, markup=False)
         page.emit([terminal.chart_block(result, result.system, width=min(out.width, page.MAX_WIDTH) - 2)],
                   min(out.width, page.MAX_WIDTH))
         out.print("")
         out.print("The unit file will hold:", highlight=False, markup=False)
         for key, value in wizard.summary(answers):
-            out.print(f"  {key} = {value}", highlight=False, markup=False)
+            out.print(printable(f"  {key} = {value}"), highlight=False, markup=False)
         out.print("")
         path = file
         while True:
@@ -253,7 +254,7 @@ def new(file: Optional[Path] = typer.Argument(None, help="Where to write the uni
             try:
                 atomic.write_new(path, text, "FILE", force=True)
             except InputError as exc:
-                err.print(f"  {exc}", highlight=False, markup=False)
+                err.print(printable(f"  {exc}"), highlight=False, markup=False)
                 if file is not None:
                     raise typer.Exit(2)
                 path = None
@@ -264,7 +265,7 @@ def new(file: Optional[Path] = typer.Argument(None, help="Where to write the uni
         raise typer.Exit(130)
     except EOFError:
         _fail("the answers ended before the unit was complete; nothing written.")
-    typer.echo(f"wrote {path}", err=True)
+    typer.echo(printable(f"wrote {path}"), err=True)
 
 
 def _ask_all(answers: dict, system: str, err) -> None:
@@ -297,7 +298,7 @@ def _ask_all(answers: dict, system: str, err) -> None:
         try:
             value = wizard.accept(x, text, answers, system=system)
         except InputError as exc:
-            err.print(f"  {exc.message}", highlight=False, markup=False)
+            err.print(printable(f"  {exc.message}"), highlight=False, markup=False)
             continue
         order.append(x.key)
         if value is None:
@@ -411,10 +412,10 @@ def survey(paths: list[Path] = typer.Argument(..., help="Unit files, folders of 
         else:
             sys.stdout.write(show.plain(summaries, failures, system, width=out.width))
     for failure in failures:
-        typer.echo(f"stallcheck: {failure.message}", err=True)
+        typer.echo(printable(f"stallcheck: {failure.message}"), err=True)
     for summary in summaries:
         for warning in summary.warnings:
-            typer.echo(f"stallcheck: {summary.source}: {warning}", err=True)
+            typer.echo(printable(f"stallcheck: {summary.source}: {warning}"), err=True)
     if csv is not None:
         from stallcheck.render import survey as show
 
@@ -456,7 +457,7 @@ def _ask_missing(unit, given: dict) -> dict:
             try:
                 readings.parse(unit, **{field: text or None})
             except InputError as exc:
-                err.print(f"  {exc}", highlight=False)
+                err.print(printable(f"  {exc}"), highlight=False, markup=False)
                 continue
             answers[field] = text or None
             break

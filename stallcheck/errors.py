@@ -6,6 +6,20 @@ with status 2. Anything else is a bug and keeps its traceback.
 
 from __future__ import annotations
 
+import re
+
+#: Characters no text from outside may put on a terminal or into a report: C0 controls
+#: other than tab and newline (escape, carriage return, bell...), DEL and the C1
+#: controls (ECMA-48), which move the cursor, clear the screen or retitle the window.
+_CONTROL = re.compile("[\x00-\x08\x0b-\x1f\x7f-\x9f]")
+
+
+def printable(text: str) -> str:
+    """Untrusted text (a unit's name or tag, a path, a value echoed in a message) made
+    safe to print: each control character shown as its escape (``\\x1b``), all else kept."""
+    return _CONTROL.sub(lambda m: f"\\x{ord(m.group()):02x}", text)
+
+
 
 class StallcheckError(Exception):
     """Base of every error that is the user's input, not a bug."""
@@ -41,7 +55,7 @@ class InputError(StallcheckError):
             where += f", option '{self.key}'"
         elif self.key:
             where += f", key '{self.key}'"
-        return f"{where}: {self.message}"
+        return printable(f"{where}: {self.message}")
 
     def in_file(self, file: str) -> "InputError":
         """Return the same error tied to ``file``."""

@@ -13,6 +13,8 @@ gathered unit by unit; no words are built here (:mod:`stallcheck.render.words`).
 
 from __future__ import annotations
 
+import warnings
+
 import numpy as np
 
 from stallcheck.analysis import findings, remedies
@@ -106,7 +108,17 @@ def analyse_many(units: list[Unit], system: str | None = None, method: str | Non
             out[i] = error
     if good:
         batch = [units[i] for i in good]
-        for i, result in zip(good, _analyse(batch, [system or u.system for u in batch], points, complete)):
+        # a numeric warning (an overflow, a division by nothing) means a value far outside
+        # any plant got past the ranges: a refusal, never a warning on stderr
+        with warnings.catch_warnings():
+            warnings.simplefilter("error", RuntimeWarning)
+            try:
+                results = _analyse(batch, [system or u.system for u in batch], points, complete)
+            except RuntimeWarning as exc:
+                raise InputError("", f"a figure cannot be computed from these values ({exc}); check them for one "
+                                     f"far outside any plant.", file=batch[0].source if len(batch) == 1 else None) \
+                    from None
+        for i, result in zip(good, results):
             out[i] = result
     return out
 

@@ -7,7 +7,8 @@ from __future__ import annotations
 
 from stallcheck.errors import InputError
 from stallcheck.files import quantities as q
-from stallcheck.files.ranges import check_pressure_range, require_positive
+from stallcheck.files.ranges import (NARROWEST_LINE, TRAP_DIFFERENTIAL_LIMIT, check_pressure_range,
+                                     require_positive)
 from stallcheck.inputs import ARRANGEMENTS, TRAPS, CapacityPoint, Drain
 
 
@@ -27,8 +28,9 @@ def read(r, atm: float) -> Drain:
     ret = r.quantity(d, "drain", "return_pressure", q.pressure, default="0 psig").absolute(atm)
     check_pressure_range("drain.return_pressure", ret, d.get("return_pressure"))
     dpmin = r.quantity(d, "drain", "trap_min_differential", q.differential, default="0 psi")
-    if dpmin < 0:
-        raise InputError("drain.trap_min_differential", "cannot be negative.")
+    if dpmin < 0 or dpmin > TRAP_DIFFERENTIAL_LIMIT:
+        raise InputError("drain.trap_min_differential", f"\"{d['trap_min_differential']}\" is out of range; accepted: "
+                                                        "0 to 2 bar (0 to 29 psi).")
     capacity = []
     for section, row in r.rows(d, "drain", "capacity"):
         dp = r.quantity(row, section, "differential", q.differential)
@@ -57,6 +59,9 @@ def _drain_devices(r, d: dict, atm: float) -> dict:
             require_positive(f"drain.{key}", value, f", got \"{d[key]}\"")
             if value > 1.0:
                 raise InputError(f"drain.{key}", f"\"{d[key]}\" is over 1 m; check the units.")
+            if key == "return_line" and value < NARROWEST_LINE:
+                raise InputError(f"drain.{key}", f"\"{d[key]}\" is narrower than any line from a trap; accepted: "
+                                                 "5 mm (0.2 in) to 1 m.")
             out[key] = value
     if isinstance(d.get("pump_capacity"), list):
         out["pump_table"] = _pump_table(r, d, atm)

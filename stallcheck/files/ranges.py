@@ -17,6 +17,16 @@ TRIPLE_POINT_PRESSURE = 611.657
 #: Coldest entering air taken [K]: -70 °C, below the coldest outdoor air where plant is
 #: built (from memory: about -68 °C on record in inhabited places).
 COLDEST_AIR = 203.15
+#: Hottest air or water read at a unit in service [K]: 250 °C, above the saturation
+#: temperature of the highest design pressure a unit file takes (2 MPa, 212 °C; IF97).
+HOTTEST_READING = 523.15
+#: Largest differential a trap needs to open [Pa]: 2 bar (29 psi), more than any trap
+#: asks (a thermodynamic trap wants a few tenths of a bar; common practice).
+TRAP_DIFFERENTIAL_LIMIT = 2.0e5
+#: Narrowest line from a trap [m]: 5 mm, below a 1/4 in tube (common practice).
+NARROWEST_LINE = 0.005
+#: Hours in a year, a leap year's [h]: the most the load bins can hold in all.
+HOURS_A_YEAR = 8784.0
 
 
 def check_pressure_range(key: str, value: float, text) -> None:

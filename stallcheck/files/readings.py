@@ -9,7 +9,7 @@ from __future__ import annotations
 
 from stallcheck.errors import InputError
 from stallcheck.files import quantities as q
-from stallcheck.files.ranges import COLDEST_AIR, check_pressure_range
+from stallcheck.files.ranges import COLDEST_AIR, HOTTEST_READING, check_pressure_range
 from stallcheck.inputs import Unit
 from stallcheck.record import record
 
@@ -63,9 +63,9 @@ def _temperature(option: str, text) -> float | None:
     if text is None or str(text).strip() == "":
         return None
     value = q.temperature(option, str(text))
-    if value < COLDEST_AIR:
-        raise InputError(option, f"\"{text}\" is colder than any air or water a steam unit meets; accepted: "
-                                 f"-70 °C (-94 °F) and warmer.")
+    if value < COLDEST_AIR or value > HOTTEST_READING:
+        raise InputError(option, f"\"{text}\" is out of range for air or water at a steam unit; accepted: "
+                                 f"-70 °C to 250 °C (-94 °F to 482 °F).")
     return value
 
 

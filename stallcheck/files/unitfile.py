@@ -22,7 +22,7 @@ import tomli
 from stallcheck.errors import InputError
 from stallcheck.files import drainkeys
 from stallcheck.files import quantities as q
-from stallcheck.files.ranges import COLDEST_AIR, check_pressure_range, require_positive
+from stallcheck.files.ranges import COLDEST_AIR, HOURS_A_YEAR, check_pressure_range, require_positive
 from stallcheck.inputs import (
     CHARACTERISTICS,
     MEDIA,
@@ -389,7 +389,7 @@ def _costs(r: _Reader, site: dict) -> dict:
     """Hours and steam price, for yearly purge figures."""
     out: dict = {}
     if "hours_per_year" in site:
-        out["hours_per_year"] = r.number(site, "site", "hours_per_year", 0.0, 8784.0)
+        out["hours_per_year"] = r.number(site, "site", "hours_per_year", 0.0, HOURS_A_YEAR)
     if "steam_price" in site:
         out["steam_price"] = r.number(site, "site", "steam_price", 0.0, 1e6)
         if "steam_price_per" in site:
@@ -477,9 +477,9 @@ def _valve(r: _Reader) -> Valve | None:
     if ("cv" in v) == ("kv" in v):
         raise InputError("valve.cv", "give exactly one of cv or kv (a plain number).")
     if "cv" in v:
-        cv = r.number(v, "valve", "cv", 0.0, 1e5, low_open=True)
+        cv = r.number(v, "valve", "cv", 0.01, 1e5)
     else:
-        cv = CV_PER_KV * r.number(v, "valve", "kv", 0.0, 1e5, low_open=True)
+        cv = CV_PER_KV * r.number(v, "valve", "kv", 0.01, 1e5)
     char = r.choice(v, "valve", "characteristic", CHARACTERISTICS)
     rangeability = r.number(v, "valve", "rangeability", 1.0, 1000.0, default=50.0, low_open=True)
     xt = r.number(v, "valve", "xt", 0.0, 1.0, default=0.70, low_open=True)
@@ -497,7 +497,7 @@ def _load(r: _Reader, design: Design) -> Load:
     minimum = r.number(table, "load", "minimum", 0.0, 1.0, default=0.0, high_open=True)
     bins = []
     for section, b in r.rows(table, "load", "bins"):
-        hours = r.number(b, section, "hours", 0.0, 8784.0)
+        hours = r.number(b, section, "hours", 0.0, HOURS_A_YEAR)
         if varies == "inlet-temperature":
             if "inlet_temperature" not in b:
                 raise InputError(f"{section}.inlet_temperature",
@@ -512,6 +512,10 @@ def _load(r: _Reader, design: Design) -> Load:
             if "load" not in b:
                 raise InputError(f"{section}.load", "is required: bins are by load fraction where load.varies = \"flow\".")
             bins.append(LoadBin(hours=hours, load=r.number(b, section, "load", 0.0, 1.0)))
+    total = sum(b.hours for b in bins)
+    if total > HOURS_A_YEAR:
+        raise InputError("load.bins", f"hold {total:,.0f} h in all, more than a year has; accepted: at most "
+                                      f"8,784 h (a leap year) across the bins.")
     return Load(varies, minimum, tuple(bins))
 
 

@@ -3,7 +3,6 @@
 
 from __future__ import annotations
 
-import json
 
 from stallcheck.analysis.diagnosis import Diagnosis
 from stallcheck.files import quantities as q
@@ -352,4 +351,4 @@ def to_dict(d: Diagnosis) -> dict:
 
 
 def dumps(d: Diagnosis) -> str:
-    return json.dumps(to_dict(d), indent=2, ensure_ascii=False)
+    return json_out.text(to_dict(d), indent=2)

@@ -9,6 +9,7 @@ from __future__ import annotations
 
 import json
 import math
+import re
 
 from stallcheck.analysis.remedies import MARGIN
 from stallcheck.files import quantities as q
@@ -252,4 +253,28 @@ def _surge(r: Result):
 
 def dumps(r: Result) -> str:
     """The contract as indented JSON text."""
-    return json.dumps(to_dict(r), indent=2, ensure_ascii=False)
+    return text(to_dict(r), indent=2)
+
+
+#: Characters JSON allows raw in a string that a terminal still acts on: DEL and the C1
+#: controls (the C0 controls ``json`` escapes itself).
+_RAW_CONTROL = re.compile("[\x7f-\x9f]")
+
+
+def text(obj, indent: int | None = None) -> str:
+    """Strict JSON (RFC 8259): never NaN or Infinity (a figure that is not finite is
+    written as null, which the contract documents for figures not known), and no raw
+    control character, the C1 and DEL escaped as ``\\u00XX`` like the C0."""
+    out = json.dumps(_finite(obj), indent=indent, ensure_ascii=False, allow_nan=False)
+    return _RAW_CONTROL.sub(lambda m: f"\\u{ord(m.group()):04x}", out)
+
+
+def _finite(obj):
+    """``obj`` with every float that is not finite replaced by None."""
+    if isinstance(obj, float):
+        return obj if math.isfinite(obj) else None
+    if isinstance(obj, dict):
+        return {k: _finite(v) for k, v in obj.items()}
+    if isinstance(obj, (list, tuple)):
+        return [_finite(v) for v in obj]
+    return obj

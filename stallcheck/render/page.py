@@ -28,9 +28,12 @@ Run = tuple[str, "str | None"]
 
 #: Widest page printed unless a width is asked for [columns].
 MAX_WIDTH = 100
+#: Narrowest page printed: what a chart and the survey's table need [columns].
+MIN_WIDTH = 50
 
 _WORD = re.compile(r"\s*\S+\s*")
 
+from stallcheck.errors import printable
 from stallcheck.record import record
 
 
@@ -156,7 +159,9 @@ def width_for(stream: TextIO, width: int | None = None) -> int:
     else:
         given = os.environ.get("COLUMNS", "")
         columns = int(given) if given.isdigit() else 80
-    return min(columns, MAX_WIDTH)
+    # a width of nothing (COLUMNS=0, a terminal that reports none) is not known: 80;
+    # a page narrower than MIN_WIDTH cannot hold a chart or a table, so it gets that
+    return 80 if columns <= 0 else max(MIN_WIDTH, min(columns, MAX_WIDTH))
 
 
 def _is_terminal(stream: TextIO) -> bool:
@@ -171,11 +176,11 @@ def emit(blocks: Iterable, width: int | None = None, stream: TextIO | None = Non
     stream = stream or sys.stdout
     columns = width_for(stream, width)
     if not _is_terminal(stream):
-        stream.write(plain(blocks, columns))
+        stream.write(printable(plain(blocks, columns)))
         return
     from rich.console import Console
     from rich.text import Text
 
     console = Console(file=stream, highlight=False, width=columns, soft_wrap=True)
     for line in lines(blocks, columns):
-        console.print(Text.assemble(*line) if line else Text(""))
+        console.print(Text.assemble(*((printable(text), style) for text, style in line)) if line else Text(""))

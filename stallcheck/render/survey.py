@@ -4,10 +4,10 @@ from __future__ import annotations
 
 import csv
 import io
-import json
 import textwrap
 
 from stallcheck.analysis.survey import Failure, Summary
+from stallcheck.errors import printable
 from stallcheck.files import quantities as q
 from stallcheck.render import json as json_out
 from stallcheck.render import words
@@ -56,11 +56,11 @@ def _rows(summaries: list[Summary], system: str | None, width: int = 80):
             "all loads" if s.stall_fraction >= 1.0 else f"<{words.percent(s.stall_fraction)}")
         inlet = "" if s.stall_inlet_temperature is None else q.show(s.stall_inlet_temperature, "temperature", sys_)
         hours = "" if s.stalled_hours is None else f"{s.stalled_hours:,.0f} h"
-        line = [(" ".join((_cell(s.tag or s.name, unit_w, unit_r), _cell(stall, stall_w, stall_r),
+        line = [(" ".join((_cell(printable(s.tag or s.name), unit_w, unit_r), _cell(stall, stall_w, stall_r),
                            _cell(inlet, inlet_w, inlet_r), _cell(s.required, needs_w, needs_r))) + " ", None),
                 (_cell("yes" if s.adequate else "NO", ok_w, ok_r) + " ", "green" if s.adequate else "bold red"),
                 (_cell(hours, hours_w, hours_r) + " ", None)]
-        detail = [(s.name if s.tag else s.source, "dim")]
+        detail = [(printable(s.name if s.tag else s.source), "dim")]
         if s.required != s.installed:
             detail.append((f"; has {s.installed}", "dim"))
         if s.return_pattern:
@@ -144,8 +144,19 @@ def csv_text(summaries: list[Summary], failures: list[Failure]) -> str:
     writer.writerow(CSV_COLUMNS)
     for row in records(summaries, failures):
         writer.writerow(["yes" if v is True else "no" if v is False else _num(v) if isinstance(v, float)
-                         else "" if v is None else v for v in row.values()])
+                         else "" if v is None else _inert(v) if isinstance(v, str) else v for v in row.values()])
     return buffer.getvalue()
+
+
+#: First characters that make a spreadsheet read a cell as a formula (OWASP, "CSV
+#: Injection"): = + - @, and tab and carriage return.
+_FORMULA_START = ("=", "+", "-", "@", "\t", "\r")
+
+
+def _inert(text: str) -> str:
+    """A text cell a spreadsheet will not run: a leading formula character is preceded
+    by a single quote, OWASP's neutralising prefix (numbers are written as numbers)."""
+    return "'" + text if text.startswith(_FORMULA_START) else text
 
 
 def _num(value) -> str:
@@ -161,9 +172,9 @@ class JsonStream:
         out.write('{"format": 1, "results": [')
 
     def __call__(self, result) -> None:
-        self.out.write(("\n" if self.first else ",\n") + json.dumps(json_out.to_dict(result), ensure_ascii=False))
+        self.out.write(("\n" if self.first else ",\n") + json_out.text(json_out.to_dict(result)))
         self.first = False
 
     def close(self, failures: list[Failure], status: int) -> None:
-        errors = json.dumps([{"source": f.source, "message": f.message} for f in failures], ensure_ascii=False)
+        errors = json_out.text([{"source": f.source, "message": f.message} for f in failures])
         self.out.write(f'\n], "errors": {errors}, "exit_status": {status}}}\n')

@@ -368,9 +368,9 @@ def console(stderr: bool = False, width: int | None = None):
     columns unless ``width`` is given."""
     from rich.console import Console
 
-    if width is not None:
-        return Console(stderr=stderr, highlight=False, width=width)
-    c = Console(stderr=stderr, highlight=False, soft_wrap=False)
-    if c.width > page.MAX_WIDTH:
-        c = Console(stderr=stderr, highlight=False, width=page.MAX_WIDTH)
-    return c
+    import sys
+
+    # the page's own rule (a COLUMNS of nothing is not known, and no page is narrower
+    # than page.MIN_WIDTH), not rich's reading of the environment
+    return Console(stderr=stderr, highlight=False, soft_wrap=False,
+                   width=page.width_for(sys.stderr if stderr else sys.stdout, width))
