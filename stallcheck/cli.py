@@ -222,7 +222,10 @@ def new(file: Optional[Path] = typer.Argument(None, help="Where to write the uni
         system = Prompt.ask("Units for your answers", choices=["us", "si"], default="us", console=err)
         answers: dict = {}
         while True:
-            _ask_all(answers, system, err)
+            try:
+                _ask_all(answers, system, err)
+            except InputError as exc:
+                _fail(f"{exc.key}: {exc.message}")
             text = wizard.to_toml(answers)
             try:
                 unit, result = _analyse_text(text)
@@ -244,7 +247,7 @@ def new(file: Optional[Path] = typer.Argument(None, help="Where to write the uni
             out.print(printable(f"  {key} = {value}"), highlight=False, markup=False)
         out.print("")
         path = file
-        while True:
+        for _ in range(ASK_TRIES):
             if path is None:
                 default = "".join(c if c.isalnum() else "_" for c in answers["unit.name"].lower()).strip("_")
                 path = Path(Prompt.ask("Save the unit file as", default=f"{default or 'unit'}.toml", console=err))
@@ -260,6 +263,8 @@ def new(file: Optional[Path] = typer.Argument(None, help="Where to write the uni
                 path = None
                 continue
             break
+        else:
+            _fail(f"no file name accepted in {ASK_TRIES} tries; nothing written.")
     except KeyboardInterrupt:
         typer.echo("\nstallcheck: stopped; nothing written.", err=True)
         raise typer.Exit(130)
@@ -276,6 +281,7 @@ def _ask_all(answers: dict, system: str, err) -> None:
 
     skipped: set = set()
     order: list = [key for key in answers]  # what was answered, in order, for "back"
+    refused: dict = {}   # refusals in a row, by question
     if not answers:
         err.print("[dim]Type 'back' to change the answer before.[/dim]")
     while True:
@@ -299,7 +305,11 @@ def _ask_all(answers: dict, system: str, err) -> None:
             value = wizard.accept(x, text, answers, system=system)
         except InputError as exc:
             err.print(printable(f"  {exc.message}"), highlight=False, markup=False)
+            refused[x.key] = refused.get(x.key, 0) + 1
+            if refused[x.key] >= ASK_TRIES:
+                raise InputError(x.key, f"no answer accepted in {ASK_TRIES} tries; nothing written.") from None
             continue
+        refused.pop(x.key, None)
         order.append(x.key)
         if value is None:
             skipped.add(x.key)
@@ -452,16 +462,26 @@ def _ask_missing(unit, given: dict) -> dict:
     for option, field, question in QUESTIONS:
         if answers.get(field) is not None:
             continue
-        while True:
-            text = Prompt.ask(question, console=err, default="", show_default=False)
+        for _ in range(ASK_TRIES):
+            try:
+                text = Prompt.ask(question, console=err, default="", show_default=False)
+            except (EOFError, KeyboardInterrupt):
+                _fail(f"{option}: stopped with no answer (end of input); nothing was diagnosed.")
             try:
                 readings.parse(unit, **{field: text or None})
             except InputError as exc:
-                err.print(printable(f"  {exc}"), highlight=False, markup=False)
+                err.print(printable(f"  {exc.message}"), highlight=False, markup=False)
                 continue
             answers[field] = text or None
             break
+        else:
+            _fail(f"{option}: no answer accepted in {ASK_TRIES} tries; nothing was diagnosed.")
     return answers
+
+
+#: Answers refused in a row before a question gives up (exit 2): a script feeding the
+#: same bad answer must not loop forever.
+ASK_TRIES = 5
 
 
 @app.command()

@@ -278,7 +278,10 @@ def summary(answers: dict) -> list[tuple[str, str]]:
 
 
 def to_toml(answers: dict) -> str:
-    """A commented unit file (format 1) from the answers."""
+    """A commented unit file (format 1) from the answers, each text escaped as TOML
+    requires (by tomlkit: quotes, backslashes and control characters)."""
+    import tomlkit
+
     lines = ["# Unit file written by stallcheck new. Each value is commented with what it means;",
              "# stallcheck's reference (docs/reference.md) lists every key the format accepts.", "format = 1"]
     section = None
@@ -293,6 +296,6 @@ def to_toml(answers: dict) -> str:
         explain = x.explain
         if isinstance(value, Kv):
             name, explain = "kv", "full-travel flow coefficient, Kv (m³/h of water at 1 bar drop)"
-        written = f"{value:g}" if isinstance(value, float) else '"' + str(value).replace('"', '\\"') + '"'
+        written = f"{value:g}" if isinstance(value, float) else tomlkit.item(str(value)).as_string()
         lines.append(f"{name} = {written}".ljust(40) + f"# {explain}")
     return "\n".join(lines) + "\n"

@@ -128,3 +128,46 @@ def test_a_width_of_nothing_is_not_a_page_of_one_character(tmp_path, command):
                          env=env)
     assert run.returncode in (0, 1) and "Traceback" not in run.stderr, run.stderr
     assert max(len(line) for line in run.stdout.splitlines()) > 40
+
+
+def test_a_utf16_file_is_told_to_be_saved_as_utf8(tmp_path):
+    path = tmp_path / "u.toml"
+    path.write_bytes(BASE_UNIT.encode("utf-16"))
+    result = runner.invoke(app, ["check", str(path)])
+    assert result.exit_code == 2 and "save it as UTF-8" in result.output, result.output
+
+
+@pytest.mark.parametrize("stdin, says", [("", "end of input"), ("zzz\n" * 50, "no answer accepted in 5 tries")])
+def test_diagnose_questions_stop_with_status_2_not_a_verdict(tmp_path, stdin, says):
+    # Run with a real stdin (not a terminal): the end of the answers, or the same bad
+    # answer again and again, stops the questions with exit 2 and says why.
+    path = _unit(tmp_path, name="Plain", tag="P")
+    run = subprocess.run([sys.executable, "-m", "stallcheck", "diagnose", str(path), "--ask"], input=stdin,
+                         capture_output=True, text=True, timeout=60)
+    assert run.returncode == 2 and says in run.stderr and "Aborted" not in run.stderr, run.stderr
+    assert "unit file, option" not in run.stderr
+
+
+def test_new_gives_up_after_repeated_refusals_and_writes_nothing(tmp_path):
+    target = tmp_path / "w.toml"
+    run = subprocess.run([sys.executable, "-m", "stallcheck", "new", str(target)], input="\n" * 500,
+                         capture_output=True, text=True, timeout=60)
+    assert run.returncode == 2 and "no answer accepted in 5 tries" in run.stderr, run.stderr
+    assert not target.exists()
+
+
+def test_a_name_with_backslashes_quotes_and_controls_reads_back_the_same():
+    # TOML 1.0 basic strings (read back with the standard library's tomllib).
+    import tomllib
+
+    from stallcheck import wizard
+
+    name = 'Plant\\Room "B" \x1b\x7f tab\there'
+    assert tomllib.loads(wizard.to_toml({"unit.name": name}))["unit"]["name"] == name
+
+
+def test_noise_words_read_with_spaces_or_hyphens(tmp_path):
+    from stallcheck.files import readings, unitfile
+
+    unit = unitfile.load(_unit(tmp_path, name="Plain", tag="P"))
+    assert readings.parse(unit, noise="mild weather, Low_Load").noise == ("mild-weather", "low-load")

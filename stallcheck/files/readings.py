@@ -72,7 +72,9 @@ def _temperature(option: str, text) -> float | None:
 def _words(option: str, text, accepted) -> tuple[str, ...]:
     if text is None:
         return ()
-    items = [w.strip().lower() for w in str(text).replace(";", ",").split(",") if w.strip()]
+    # "mild weather", "Mild_Weather" and "mild-weather" are one answer
+    items = ["-".join(w.strip().lower().replace("_", " ").split()) for w in str(text).replace(";", ",").split(",")
+             if w.strip()]
     for w in items:
         if w not in accepted:
             raise InputError(option, f"'{w}' is not one of: {', '.join(accepted)}.")

@@ -48,7 +48,9 @@ def dumps(unit: Unit, system: str | None = None) -> str:
         return f'"{_g(q.express(value, _SI[kind], names[kind]))} {names[kind]}"'
 
     def text(s: str) -> str:
-        return '"' + s.replace("\\", "\\\\").replace('"', '\\"') + '"'
+        import tomlkit
+
+        return tomlkit.item(s).as_string()   # escaped as TOML requires: quotes, backslashes, controls
 
     d, dr, ld = unit.design, unit.drain, unit.load
     out = ["format = 1", "", "[unit]", f"name = {text(unit.name)}"]
