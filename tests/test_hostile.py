@@ -171,3 +171,29 @@ def test_noise_words_read_with_spaces_or_hyphens(tmp_path):
 
     unit = unitfile.load(_unit(tmp_path, name="Plain", tag="P"))
     assert readings.parse(unit, noise="mild weather, Low_Load").noise == ("mild-weather", "low-load")
+
+
+@pytest.mark.parametrize("args", [["check"], ["survey"], ["diagnose", "--no-ask", "--load", "0.5"]])
+def test_on_a_terminal_the_name_s_escape_sequences_are_shown_not_obeyed(tmp_path, args):
+    # A pseudo-terminal (POSIX pty): the colours are the program's own; the name's screen
+    # clear, window title and C1 introducer arrive escaped as text.
+    import pty
+
+    path = _unit(tmp_path)
+    leader, follower = pty.openpty()
+    run = subprocess.Popen([sys.executable, "-m", "stallcheck", args[0], str(path), *args[1:]],
+                           stdin=follower, stdout=follower, stderr=follower)
+    os.close(follower)
+    out = b""
+    while True:
+        try:
+            chunk = os.read(leader, 65536)
+        except OSError:
+            break
+        if not chunk:
+            break
+        out += chunk
+    os.close(leader)
+    assert run.wait(timeout=60) in (0, 1)
+    assert b"\x1b[2J" not in out and b"\x1b]0;owned" not in out and "\x9b".encode() not in out
+    assert b"\\x1b[2J" in out
