@@ -88,6 +88,15 @@ def test_stall_at_full_load_where_the_return_is_above_the_design_coil_pressure()
     assert inadequate is not None and inadequate.severity == "danger"
     # 4 psig return, below the 5 psig coil: no full-load stall
     assert found(analyse(drain={"return_pressure": "4 psig"}), "stall-at-full-load") is None
+    # with a pump-trap installed the same stall is the pump-trap's to handle: said as
+    # information, and it prescribes nothing already fitted (one story with drainage)
+    from stallcheck.render import words
+
+    pumped = analyse(drain={**PUMP, "return_pressure": "8 psig", "motive_pressure": "60 psig"})
+    f = found(pumped, "stall-at-full-load")
+    assert pumped.drainage.adequate and f.severity == "info" and "handled" in f.parts
+    assert "Fit a pump-trap" not in words.finding(f, pumped, "us")
+    assert found(pumped, "drainage-inadequate") is None
 
 
 def test_stall_in_operating_range_sits_where_coil_and_fill_head_meet_the_back_pressure():

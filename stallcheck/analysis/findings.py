@@ -63,8 +63,10 @@ def core(unit: Unit, r: Result) -> tuple[Finding, ...]:
     in_range = s.in_range
     floods = s.floods_in_range
     if s.occurs and s.load_fraction >= 1.0:
-        out.append(Finding("stall-at-full-load", "danger", ("",),
-                           {"back": r.back_pressure, "design": r.design.coil_pressure}))
+        handled = r.drainage.adequate   # a pump-trap installed: the finding says so, and is no danger
+        out.append(Finding("stall-at-full-load", "info" if handled else "danger", ("", "handled" if handled else "fit"),
+                           {"back": r.back_pressure, "design": r.design.coil_pressure,
+                            "installed": r.drainage.installed}))
     elif in_range:
         handled = r.drainage.adequate
         parts = ("", "inlet", "why") if s.inlet_temperature is not None else ("", "why")

@@ -184,6 +184,10 @@ def trap_figures(b, effective, stall, p_min, w_min, selected_limits: bool = True
     installed = capacity(sizing, b.back + sizing)
 
     breaker = np.array([e == "trap-vacuum-breaker" for e in effective])
+    # into the lift at full load; where a pump-trap works, the trap drains into its body
+    # by the fill head's gravity whenever the coil cannot discharge against the lift
+    design_dp = b.design_pressure + b.fill - b.back
+    design_dp = np.where([e == "pump-trap" for e in effective], np.maximum(design_dp, b.fill), design_dp)
     limit = _limits(b, capacity, stall, None if selected_limits else basis != "selected", breaker)
     has = np.isfinite(limit)
     at = np.where(has, limit, 0.0)
@@ -194,7 +198,7 @@ def trap_figures(b, effective, stall, p_min, w_min, selected_limits: bool = True
     for i, d in enumerate(drains):
         figures = dict(basis=str(basis[i]), bore=None if basis[i] == "table" else float(bores[i]),
                        margin=float(margin[i]), design_condensate=float(b.steam_design[i]),
-                       design_differential=float(b.design_pressure[i] + b.fill[i] - b.back[i]),
+                       design_differential=float(design_dp[i]),
                        working_load=float(w_load[i]), working_condensate=float(w_flow[i]),
                        working_differential=float(w_dp[i]), selection_differential=float(sizing[i]),
                        required_capacity=float(required[i]),

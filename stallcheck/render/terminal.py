@@ -207,6 +207,9 @@ def _devices(r: Result, system: str) -> list:
                                f"discharges there", style="red"))
         elif tr.limit_load is None:
             parts.append(_para("drainage limit: none, it keeps up at every load above zero"))
+        elif r.stall.occurs and r.stall.load_fraction >= 1.0:
+            parts.append(_para("drainage limit: the coil stalls at full load, so no trap alone discharges at any load"
+                               + (f"; the {r.drainage.installed} moves the condensate" if r.drainage.adequate else "")))
         elif r.stall.occurs and tr.limit_load <= r.stall.load_fraction + 0.005:
             parts.append(_para(f"drainage limit: at the stall point ({words.percent(tr.limit_load)} load); above it the "
                                f"trap keeps up"))

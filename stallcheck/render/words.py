@@ -59,8 +59,11 @@ POOR_TRAP = {
 FINDINGS: dict[str, dict[str, str]] = {
     "stall-at-full-load": {
         "": "The back pressure on the trap ({back:pressure} with the lift) is at or above what the coil has "
-            "at full load ({design:pressure} plus the fill head): the coil floods at every load. Fit a "
-            "pump-trap, or remove the lift and return pressure behind the trap.",
+            "at full load ({design:pressure} plus the fill head)",
+        "fit": ": the coil floods at every load. Fit a pump-trap, or remove the lift and return pressure behind "
+               "the trap.",
+        "handled": ": no trap alone could discharge at any load. The installed {installed} moves the condensate "
+                   "at every load; keep it working, and test it as its maker asks.",
     },
     "stall-in-operating-range": {
         "": "The coil stalls below {load:.0%+} load",
