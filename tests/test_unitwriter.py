@@ -100,3 +100,17 @@ def test_the_return_line_keys_round_trip(system):
     a, b = asdict(unit)["drain"], asdict(again)["drain"]
     _close(a, b)
     assert b["return_material"] == "copper" and b["check_closing_time"] == pytest.approx(0.4)
+
+
+def test_a_kv_file_edited_keeps_kv_and_reads_back():
+    # Kv = Cv / 1.156 (IEC 60534-1: Kv in m³/h at 1 bar, Cv in US gpm at 1 psi). A file
+    # that gives kv, its valve changed, keeps kv (never kv and cv together, which is refused).
+    from dataclasses import replace
+
+    from test_diagnosis import HOT_WATER
+
+    unit = unitfile.parse(HOT_WATER, "heater.toml")
+    changed = replace(unit, valve=replace(unit.valve, cv=unit.valve.cv * 1.1))
+    text = unitwriter.edit(HOT_WATER, unit, changed)
+    assert "kv = 44" in text and "cv =" not in text
+    assert unitfile.parse(text, "heater.toml").valve.cv == pytest.approx(44 * 1.156, rel=1e-12)

@@ -178,6 +178,11 @@ def edit(text: str, original: Unit, changed: Unit, system: str | None = None) ->
         table = doc.get(section)
         if table is None:
             doc[section] = table = tomlkit.table()
+        if key == "valve.cv" and "kv" in table and "cv" not in table:
+            # a file that gives Kv keeps Kv: writing cv beside it would make it unreadable
+            from stallcheck.files.unitfile import CV_PER_KV
+
+            name, new = "kv", new / CV_PER_KV
         written = table.get(name)
         value = _written(kind, new, str(written) if isinstance(written, str) else None, system, atm)
         if written is not None and hasattr(written, "trivia"):
