@@ -59,7 +59,14 @@ def analyse(**tables):
 
 
 def found(r, code):
-    """The one finding of ``code`` in a result, or None."""
+    """The one finding of ``code`` in a result, or None. Every finding of the result is
+    also put in words, in both systems, as every output does: a part or a fact its
+    template needs that a rule left out fails here."""
+    from stallcheck.render import words
+
+    for f in r.findings:
+        for system in ("us", "si"):
+            assert words.finding(f, r, system).strip(), (f.code, system)
     hits = [f for f in r.findings if f.code == code]
     assert len(hits) <= 1, hits
     return hits[0] if hits else None
@@ -149,10 +156,32 @@ def test_freeze_risk_where_the_coil_stalls_with_air_below_freezing():
     assert warm.stall.in_range and found(warm, "freeze-risk") is None
 
 
+def test_freeze_risk_where_a_too_small_valve_floods_the_coil_in_cold_air():
+    # Cv 5 where about 7 is needed: the open valve holds the coil under its stall
+    # pressure from about half load up, that is, in the coldest air. At fixed air flow
+    # the entering temperature at load f is T_out − f·(T_out − T_in,design) (the load
+    # definition); the finding spans from the design entering air up to that temperature
+    # at the valve's load (or freezing, if lower), and counts the bins' hours below it.
+    bins = [{"inlet_temperature": f"{t} degF", "hours": h} for t, h in ((5, 100), (15, 200), (25, 300), (45, 400))]
+    r = analyse(valve={"cv": 5}, load={"minimum": 0.2, "bins": bins})
+    f = found(r, "freeze-risk")
+    assert f is not None and f.severity == "danger" and "valve" in f.parts and "hours" in f.parts
+    load = r.stall.valve_load_fraction
+    upper = min(f_to_k(55 - load * 55), 273.15)
+    assert f.facts["inlet"] == pytest.approx(f_to_k(0.0)) and f.facts["upper"] == pytest.approx(upper, rel=1e-9)
+    assert f.facts["hours"] == sum(h for t, h in ((5, 100), (15, 200), (25, 300), (45, 400)) if f_to_k(t) < upper)
+    # a valve large enough: the needs-based stall alone, and no valve part
+    assert "valve" not in found(analyse(valve={"cv": 12}, load={"minimum": 0.2, "bins": bins}), "freeze-risk").parts
+
+
 def test_lift_after_a_plain_trap_in_range_and_not_after_a_pump_trap():
     r = analyse(drain={"lift": "8 ft"})
     f = found(r, "lift-after-trap")
     assert f is not None and f.severity == "warning"
+    # any lift counts, however short (common practice: never lift directly after the
+    # trap of a modulating coil): 2 ft (0.61 m) on a coil that floods in range
+    short = analyse(drain={"lift": "2 ft"})
+    assert short.stall.floods_in_range and found(short, "lift-after-trap") is not None
     assert f.facts["lift"] == pytest.approx(8 * FT, rel=1e-12)  # 1 ft = 0.3048 m exactly
     assert found(analyse(drain=PUMP), "lift-after-trap") is None
     assert found(analyse(drain={"lift": "0 ft"}), "lift-after-trap") is None
