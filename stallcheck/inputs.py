@@ -7,7 +7,7 @@ temperatures [K], lengths [m], mass flows [kg/s], volume flows [m³/s].
 
 from __future__ import annotations
 
-from dataclasses import field, replace
+from dataclasses import dataclass, field, replace
 
 MEDIA = ("air", "water", "ethylene-glycol", "propylene-glycol")
 METHODS = ("ntu", "mean-temperature")
@@ -20,10 +20,9 @@ CHARACTERISTICS = ("equal-percentage", "linear")
 #: Design Manual, 2 to 4 in NAVFAC MO-209).
 DEFAULT_MARGIN = 2.0
 
-from stallcheck.record import record
 
 
-@record
+@dataclass(frozen=True)
 class Site:
     """Where the unit is.
 
@@ -51,7 +50,7 @@ class Site:
     currency: str = ""
 
 
-@record
+@dataclass(frozen=True)
 class Design:
     """The selection point: full load.
 
@@ -88,7 +87,7 @@ class Design:
     method: str
 
 
-@record
+@dataclass(frozen=True)
 class Valve:
     """The modulating steam control valve.
 
@@ -110,7 +109,7 @@ class Valve:
     xt: float
 
 
-@record
+@dataclass(frozen=True)
 class LoadBin:
     """Operating hours at one entering temperature [K] or one load fraction [-]."""
 
@@ -119,7 +118,7 @@ class LoadBin:
     load: float | None = None
 
 
-@record
+@dataclass(frozen=True)
 class Load:
     """How the load moves.
 
@@ -137,7 +136,7 @@ class Load:
     bins: tuple[LoadBin, ...] = ()
 
 
-@record
+@dataclass(frozen=True)
 class CapacityPoint:
     """One row of a drain device's rated capacity: differential [Pa], flow [kg/s]."""
 
@@ -145,7 +144,7 @@ class CapacityPoint:
     flow: float
 
 
-@record
+@dataclass(frozen=True)
 class Drain:
     """What drains the coil.
 
@@ -230,7 +229,7 @@ class Drain:
     check_closing_time: float = 0.0
 
 
-@record
+@dataclass(frozen=True)
 class Geometry:
     """Coil and piping layout; None where the file does not say."""
 
@@ -244,7 +243,7 @@ class Geometry:
     drip_before_valve: bool | None = None
 
 
-@record
+@dataclass(frozen=True)
 class Unit:
     """One steam-heated unit, validated.
 

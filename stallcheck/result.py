@@ -7,7 +7,7 @@ prints or formats.
 
 from __future__ import annotations
 
-from dataclasses import field
+from dataclasses import dataclass, field
 from typing import Any, Mapping
 
 import numpy as np
@@ -21,10 +21,9 @@ CAUTIONS = (
     "(water-hammering) system safe - isolate, drain and cool it - before studying it.",
 )
 
-from stallcheck.record import record
 
 
-@record
+@dataclass(frozen=True)
 class Finding:
     """One thing the user should know, as facts: the words (what, why, and what to
     do) are made from them by :func:`stallcheck.render.words.finding`.
@@ -48,7 +47,7 @@ class Finding:
     facts: Mapping[str, Any] = field(default_factory=dict)
 
 
-@record
+@dataclass(frozen=True)
 class DesignPoint:
     """Full load.
 
@@ -70,7 +69,7 @@ class DesignPoint:
     medium_cp: float
 
 
-@record
+@dataclass(frozen=True)
 class StallPoint:
     """Where the trap stops discharging.
 
@@ -135,7 +134,7 @@ class StallPoint:
         return tuple((a, b) for a, b in out)
 
 
-@record
+@dataclass(frozen=True)
 class Points:
     """The unit across its load range, as arrays of equal length.
 
@@ -174,7 +173,7 @@ class Points:
         return self.coil_pressure < self.needed_coil_pressure - 1e-6
 
 
-@record
+@dataclass(frozen=True)
 class Drainage:
     """Installed against required arrangement, and why (as codes and SI facts; the
     words are made by :func:`stallcheck.render.words.drainage_reasons`).
@@ -203,7 +202,7 @@ class Drainage:
     facts: Mapping[str, Any] = field(default_factory=dict)
 
 
-@record
+@dataclass(frozen=True)
 class ValveResult:
     """Control valve figures.
 
@@ -243,7 +242,7 @@ class ValveResult:
     drain_cv: float | None = None
 
 
-@record
+@dataclass(frozen=True)
 class TrapFigures:
     """What the trap must pass, what it can, and where it falls short.
 
@@ -303,7 +302,7 @@ class TrapFigures:
         return self.installed_capacity >= self.required_capacity * (1 - 1e-9)
 
 
-@record
+@dataclass(frozen=True)
 class PumpTrapFigures:
     """A pump-trap's duty, where one is installed or required.
 
@@ -345,7 +344,7 @@ class PumpTrapFigures:
     capacity_basis: str = ""
 
 
-@record
+@dataclass(frozen=True)
 class PurgeFigures:
     """A constant purge's steam and cost.
 
@@ -378,7 +377,7 @@ class PurgeFigures:
     currency: str
 
 
-@record
+@dataclass(frozen=True)
 class FlashFigures:
     """Flash steam at full load, at the trap outlet and where it reaches the return.
 
@@ -421,7 +420,7 @@ PATTERNS = ("intermittent", "annular", "bubbly", "stratified wavy", "stratified 
 RISER_SLUGGING = ("slug", "churn")
 
 
-@record
+@dataclass(frozen=True)
 class LinePoint:
     """The flow in the line from the trap at one load.
 
@@ -459,7 +458,7 @@ class LinePoint:
         return self.riser in RISER_SLUGGING
 
 
-@record
+@dataclass(frozen=True)
 class ReturnLineFigures:
     """The two-phase flow in the line from the trap, where its bore is given.
 
@@ -497,7 +496,7 @@ class ReturnLineFigures:
         return min(self.points, key=lambda p: PATTERNS.index(p.taitel_dukler))
 
 
-@record
+@dataclass(frozen=True)
 class SurgeFigures:
     """Hydraulic shock where a moving column of condensate is stopped.
 
@@ -547,7 +546,7 @@ class SurgeFigures:
         return self.surge < self.density * self.wave_speed * self.velocity * (1 - 1e-12)
 
 
-@record
+@dataclass(frozen=True)
 class Remedy:
     """One single change that lets the installed drainage drain the unit, or, where it
     already does, how far one value can go before it stops doing so.
@@ -590,7 +589,7 @@ class Remedy:
     facts: Mapping[str, Any] = field(default_factory=dict)
 
 
-@record
+@dataclass(frozen=True)
 class Result:
     """Everything ``check`` reports about one unit.
 

@@ -11,16 +11,15 @@ a supply above the coil pressure) as it is given.
 from __future__ import annotations
 
 import re
-from dataclasses import field
+from dataclasses import dataclass, field
 from typing import Callable
 
 from stallcheck.errors import InputError
 from stallcheck.files import quantities as q
 from stallcheck.inputs import ARRANGEMENTS, CHARACTERISTICS, MEDIA, TRAPS
-from stallcheck.record import record
 
 
-@record
+@dataclass(frozen=True)
 class Question:
     """One value the unit needs.
 

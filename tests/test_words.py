@@ -79,10 +79,8 @@ def _stallcheck_imports(path: Path) -> set[str]:
 def test_the_folders_keep_the_pipeline_in_one_direction():
     # files -> inputs -> physics -> analysis -> result -> render; commands on top.
     allowed = {
-        "physics": ("stallcheck.physics", "stallcheck.errors", "stallcheck.inputs", "stallcheck.result",
-                    "stallcheck.record"),
-        "files": ("stallcheck.files", "stallcheck.errors", "stallcheck.inputs", "stallcheck.physics.constants",
-                  "stallcheck.record"),
+        "physics": ("stallcheck.physics", "stallcheck.errors", "stallcheck.inputs", "stallcheck.result"),
+        "files": ("stallcheck.files", "stallcheck.errors", "stallcheck.inputs", "stallcheck.physics.constants"),
     }
     for folder, ok in allowed.items():
         for path in (PACKAGE / folder).glob("*.py"):

@@ -13,6 +13,7 @@ gathered unit by unit; no words are built here (:mod:`stallcheck.render.words`).
 
 from __future__ import annotations
 
+from dataclasses import dataclass
 import warnings
 
 import numpy as np
@@ -25,7 +26,6 @@ from stallcheck.physics import coil as coilmod
 from stallcheck.physics import devices, drainage, properties
 from stallcheck.physics import valve as valvemod
 from stallcheck.physics.solve import illinois
-from stallcheck.record import record
 from stallcheck.result import DesignPoint, Drainage, Points, Remedy, Result, StallPoint, ValveResult
 
 #: Specific heat of air [J/(kg·K)] (the unit-file conventions).
@@ -184,7 +184,7 @@ def _freezing(design) -> float:
 # --- the batch ------------------------------------------------------------------------
 
 
-@record(frozen=False)
+@dataclass
 class Batch:
     """Units as columns: one array element per unit, SI. Built by :func:`columns`."""
 

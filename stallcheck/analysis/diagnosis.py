@@ -12,6 +12,7 @@ symptoms on a different unit rank differently.
 
 from __future__ import annotations
 
+from dataclasses import dataclass
 import numpy as np
 
 from stallcheck import analysis
@@ -25,7 +26,6 @@ from stallcheck.physics import coil as coilmod
 from stallcheck.physics import properties
 from stallcheck.physics.constants import GRAVITY
 from stallcheck.physics.devices import MOTIVE_MARGIN, RATING_SHARE, TrapCapacity
-from stallcheck.record import record
 from stallcheck.result import Result
 
 #: Gauge and model agree within the larger of this [Pa] (about 1.5 psi) ...
@@ -34,7 +34,7 @@ AGREE_ABSOLUTE = 10e3
 AGREE_RELATIVE = 0.10
 #: An outlet this far below the set point is "not made" [K].
 OUTLET_SHORTFALL = 3.0
-@record
+@dataclass(frozen=True)
 class Cause:
     """One likely cause and its weight on each fact."""
 
@@ -111,7 +111,7 @@ BREAKER_VACUUM = 3386.389
 
 
 
-@record
+@dataclass(frozen=True)
 class RankedCause:
     """A cause with its score and the facts for and against it (the codes of
     ``Diagnosis.facts``, in the order of the cause's weights)."""
@@ -122,7 +122,7 @@ class RankedCause:
     against: tuple[str, ...]
 
 
-@record
+@dataclass(frozen=True)
 class Diagnosis:
     """The operating point the readings imply, and the ranked causes.
 

@@ -10,14 +10,13 @@ from __future__ import annotations
 
 import os
 import sys
-from dataclasses import fields
+from dataclasses import dataclass, fields
 from pathlib import Path
 from typing import Callable, Iterable, Iterator
 
 from stallcheck import analysis
 from stallcheck.errors import InputError, StallcheckError
 from stallcheck.files import csvunits, unitfile
-from stallcheck.record import record
 from stallcheck.result import SEVERITIES, Result
 
 #: Units analysed together: enough to spread the steam-table calls, few enough to keep
@@ -30,7 +29,7 @@ PARALLEL_FROM = 2000
 MAX_JOBS = 8
 
 
-@record
+@dataclass(frozen=True)
 class Summary:
     """One unit's line in the survey table (SI units, as in the result).
 
@@ -93,7 +92,7 @@ def _worst_pattern(r: Result) -> str | None:
     return None if r.return_line is None else r.return_line.worst.taitel_dukler
 
 
-@record
+@dataclass(frozen=True)
 class Failure:
     """A unit that could not be read or analysed, with the message naming its key."""
 

@@ -16,6 +16,7 @@ package, so a run does not import pint at all (see :class:`_Answers`).
 
 from __future__ import annotations
 
+from dataclasses import dataclass
 import json
 import math
 import re
@@ -24,7 +25,6 @@ from pathlib import Path
 
 from stallcheck.errors import InputError
 from stallcheck.physics.constants import GRAVITY, STANDARD_AIR_DENSITY, STANDARD_ATMOSPHERE  # noqa: F401 (re-exported)
-from stallcheck.record import record
 
 # Pressure spellings. Gauge and absolute are separate units in the registry so the
 # parsed unit tells which was written.
@@ -142,7 +142,7 @@ class _Answers:
 _answers = _Answers()
 
 
-@record
+@dataclass(frozen=True)
 class Pressure:
     """A pressure as written: its value in Pa and whether it was gauge.
 
@@ -495,7 +495,7 @@ def fraction(key: str, text) -> float:
     return _magnitude(key, text, q, "dimensionless")
 
 
-@record
+@dataclass(frozen=True)
 class Flow:
     """A flow as written: mass [kg/s] or volume [m³/s]."""
 

@@ -7,11 +7,11 @@ outlet reading above the steam temperature) are made in :mod:`stallcheck.analysi
 
 from __future__ import annotations
 
+from dataclasses import dataclass
 from stallcheck.errors import InputError
 from stallcheck.files import quantities as q
 from stallcheck.files.ranges import COLDEST_AIR, HOTTEST_READING, check_pressure_range
 from stallcheck.inputs import Unit
-from stallcheck.record import record
 
 #: When the noise happens.
 NOISE = ("start-up", "low-load", "mild-weather", "valve-opens", "all-the-time", "none")
@@ -19,7 +19,7 @@ NOISE = ("start-up", "low-load", "mild-weather", "valve-opens", "all-the-time", 
 TRAP_OUTLET = ("cold", "hot-passing", "blowing-steam")
 
 
-@record
+@dataclass(frozen=True)
 class Readings:
     """What the plant engineer saw; None where not read.
 

@@ -35,12 +35,12 @@ References
 
 from __future__ import annotations
 
+from dataclasses import dataclass
 import numpy as np
 
-from stallcheck.record import record
 
 
-@record
+@dataclass(frozen=True)
 class CoilModel:
     """Design point of one coil or of many (every field then an array of the same shape),
     enough to find the steam temperature at any load.

@@ -21,9 +21,9 @@ counts only where gravity leaves the trap a working differential of at least
 
 from __future__ import annotations
 
+from dataclasses import dataclass
 from stallcheck.physics.constants import GRAVITY
 from stallcheck.physics.traps import SELECTION_DIFFERENTIAL
-from stallcheck.record import record
 
 #: A stall counts only where the stall pressure exceeds the coil pressure by more than
 #: this [Pa] (0.1 mbar, far below what any gauge reads): on a coil whose pressure curve
@@ -54,7 +54,7 @@ def back_pressure(return_pressure, lift, density):
     return return_pressure + head(lift, density)
 
 
-@record
+@dataclass(frozen=True)
 class Requirement:
     """The drainage a unit needs and why.
 

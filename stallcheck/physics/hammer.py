@@ -16,12 +16,12 @@ SI throughout: pressures [Pa], lengths [m], velocities [m/s], flows [kg/s].
 
 from __future__ import annotations
 
+from dataclasses import dataclass
 import math
 from functools import lru_cache
 
 from stallcheck.physics import properties
 from stallcheck.physics.constants import GRAVITY
-from stallcheck.record import record
 
 #: Young's modulus of pipe materials [Pa]: carbon steel 200 GPa, copper 117 GPa
 #: (Wylie & Streeter, *Fluid Transients in Systems*, 1993, Table 2.1; from memory).
@@ -122,7 +122,7 @@ def standard_wall(bore: float) -> float:
     return min(SCHEDULE_40, key=lambda row: abs(row[1] - bore))[2]
 
 
-@record
+@dataclass(frozen=True)
 class Pattern:
     """The two-phase flow pattern in a line at one load.
 

@@ -11,14 +11,14 @@ JSON contract, so the three never say different things.
 
 from __future__ import annotations
 
+from dataclasses import dataclass
 from stallcheck.analysis.remedies import MARGIN
 from stallcheck.files import quantities as q
-from stallcheck.record import record
 from stallcheck.render import words
 from stallcheck.result import Remedy, Result
 
 
-@record
+@dataclass(frozen=True)
 class Line:
     """One remedy as printed: its key, its note in words, and the remedy itself."""
 
@@ -33,7 +33,7 @@ def lines(r: Result, system: str) -> tuple[Line, ...]:
                  for m in r.remedies)
 
 
-@record
+@dataclass(frozen=True)
 class Advice:
     """What to do for one unit, ready to print.
 

@@ -3,10 +3,10 @@
 
 from __future__ import annotations
 
+from dataclasses import dataclass
 
 from stallcheck.analysis.diagnosis import Diagnosis
 from stallcheck.files import quantities as q
-from stallcheck.record import record
 from stallcheck.render import json as json_out
 from stallcheck.render.page import BLANK, Para, bullets, runs
 from stallcheck.render.page import heading as _heading
@@ -216,7 +216,7 @@ def drain_context(r: Result) -> dict:
     return {"drain_advice": drain, "freeze_advice": freeze, "required_words": required}
 
 
-@record
+@dataclass(frozen=True)
 class Said:
     """A ranked cause in words."""
 

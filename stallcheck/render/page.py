@@ -17,6 +17,7 @@ so a page reads the same both ways.
 
 from __future__ import annotations
 
+from dataclasses import dataclass
 import os
 import re
 import shutil
@@ -34,10 +35,9 @@ MIN_WIDTH = 50
 _WORD = re.compile(r"\s*\S+\s*")
 
 from stallcheck.errors import printable
-from stallcheck.record import record
 
 
-@record
+@dataclass(frozen=True)
 class Para:
     """Text wrapped with every line indented ``indent`` columns; the first line starts
     with ``prefix`` instead of the indent where one is given (a bullet, a number, a
@@ -48,7 +48,7 @@ class Para:
     prefix: tuple[Run, ...] = ()
 
 
-@record
+@dataclass(frozen=True)
 class Pre:
     """Lines printed as they are (each a sequence of runs), never wrapped."""
 
