@@ -18,7 +18,6 @@ from __future__ import annotations
 
 from dataclasses import dataclass
 import math
-from functools import lru_cache
 
 from stallcheck.physics import properties
 from stallcheck.physics.constants import GRAVITY
@@ -168,58 +167,119 @@ def flow_pattern(condensate: float, fraction: float, pressure: float, bore: floa
     ----------
     .. [1] Taitel, Y., Dukler, A. E. (1976). A model for predicting flow regime
        transitions in horizontal and near horizontal gas-liquid flow. AIChE J. 22(1),
-       47-55.
+       47-55 (:func:`taitel_dukler`, written out here with its inclination term).
     .. [2] Mandhane, J. M., Gregory, G. A., Aziz, K. (1974). A flow pattern map for
-       gas-liquid flow in horizontal pipes. Int. J. Multiphase Flow 1, 537-553.
-    .. [3] Bell, C. and contributors, ``fluids``: ``fluids.two_phase``.
+       gas-liquid flow in horizontal pipes. Int. J. Multiphase Flow 1, 537-553 (as the
+       ``fluids`` library implements it: ``fluids.two_phase``).
     """
     if fraction <= NO_FLASH or condensate <= 0:
         return Pattern(LIQUID, LIQUID)
-    Mandhane_Gregory_Aziz_regime, Taitel_Dukler_regime = _maps()
+    from fluids.two_phase import Mandhane_Gregory_Aziz_regime
+
     x = min(fraction, 1.0 - 1e-6)
     rho_l, rho_g = float(properties.liquid_density(pressure)), float(properties.vapour_density(pressure))
     mu_l, mu_g = float(properties.liquid_viscosity(pressure)), float(properties.vapour_viscosity(pressure))
     sigma = float(properties.surface_tension(pressure))
-    td = Taitel_Dukler_regime(m=condensate, x=x, rhol=rho_l, rhog=rho_g, mul=mu_l, mug=mu_g, D=bore,
-                              angle=angle)[0]
+    area = math.pi * bore ** 2 / 4.0
+    td = taitel_dukler(condensate * (1.0 - x) / (rho_l * area), condensate * x / (rho_g * area), rho_l, rho_g,
+                       mu_l, mu_g, bore, -math.radians(angle))
     mga = Mandhane_Gregory_Aziz_regime(m=condensate, x=x, rhol=rho_l, rhog=rho_g, mul=mu_l, mug=mu_g,
                                        sigma=sigma, D=bore)[0]
     return Pattern(td, mga)
 
 
-@lru_cache(maxsize=1)
-def _maps():
-    """The two maps from ``fluids.two_phase``. Taitel & Dukler's curves are B-splines
-    that ``fluids`` evaluates with SciPy's ``splev`` on CPython, whose import costs
-    about 0.4 s, more than a whole check; ``fluids`` ships the same evaluation in pure
-    Python (``fluids.numerics.py_splev``, what it uses on PyPy), taken here instead.
-    ``tests/test_hammer.py`` holds the two to the same patterns over the maps.
+#: Wave-growth sheltering coefficient of Taitel & Dukler's stratified-wavy transition
+#: (Jeffreys' s, 0.01 in the paper).
+SHELTERING = 0.01
 
-    ``fluids``'s package ``__init__`` imports every one of its modules (about 17 ms
-    more than the five the maps need), so the maps' modules are loaded under a package
-    shell that is not executed, and the shell is then dropped from ``sys.modules``: a
-    later ``import fluids`` runs the package as usual and finds these modules loaded.
+
+def taitel_dukler(u_ls: float, u_gs: float, rho_l: float, rho_g: float, mu_l: float, mu_g: float, bore: float,
+                  inclination: float) -> str:
+    r"""Taitel & Dukler's (1976) flow pattern in a horizontal or near-horizontal pipe,
+    from the momentum balance of stratified flow with the pipe's inclination.
+
+    With the liquid's and the gas's superficial pressure gradients from Blasius'
+    friction (C = 0.046, n = 0.2 turbulent; 16 and 1 laminar, below Re 2,000),
+
+    .. math::
+        X^2 = \frac{(dp/dx)_{Ls}}{(dp/dx)_{Gs}},\qquad
+        Y = \frac{(\rho_L - \rho_G)\,g\sin\alpha}{(dp/dx)_{Gs}}
+
+    the stratified liquid level h̃ = h_L/D solves (eq. 7)
+
+    .. math::
+        X^2\left[(\tilde u_L\tilde D_L)^{-n}\tilde u_L^2\frac{\tilde S_L}{\tilde A_L}\right]
+        - \left[(\tilde u_G\tilde D_G)^{-m}\tilde u_G^2\left(\frac{\tilde S_G}{\tilde A_G}
+        + \frac{\tilde S_i}{\tilde A_L} + \frac{\tilde S_i}{\tilde A_G}\right)\right] - 4Y = 0
+
+    and the transitions follow: stratified flow is lost where
+    F²·ũ_G²·S̃_i/((1 − h̃)²·Ã_G) ≥ 1 (A; F the gas Froude number,
+    √(ρ_G/(ρ_L − ρ_G))·u_Gs/√(D·g·cos α)); then annular below h̃ = 0.5 (B), else
+    intermittent, or dispersed bubble where T² ≥ 8Ã_G/(S̃_i·ũ_L²·(ũ_L·D̃_L)^−n),
+    T² = (dp/dx)_Ls/((ρ_L − ρ_G)·g·cos α) (D); stratified flow is wavy where
+    K ≥ 2/(√ũ_L·ũ_G·√s), s = :data:`SHELTERING`, K = F·√Re_Ls (C).
+
+    Parameters
+    ----------
+    u_ls, u_gs : float
+        Superficial velocities of liquid and gas. [m/s]
+    rho_l, rho_g : float  [kg/m³]
+    mu_l, mu_g : float  [Pa·s]
+    bore : float  [m]
+    inclination : float
+        α, positive where the pipe falls in the direction of flow (the paper's sign).
+        [rad]
+
+    Returns
+    -------
+    str
+        ``stratified smooth``, ``stratified wavy``, ``intermittent``, ``annular`` or
+        ``bubbly`` (dispersed bubble).
+
+    References
+    ----------
+    .. [1] Taitel, Y., Dukler, A. E. (1976). AIChE J. 22(1), 47-55.
     """
-    import importlib
-    import importlib.util
-    import sys
+    g = GRAVITY
+    drho = rho_l - rho_g
 
-    if "fluids" in sys.modules:
-        two_phase = importlib.import_module("fluids.two_phase")
-    else:
-        sys.modules["fluids"] = importlib.util.module_from_spec(importlib.util.find_spec("fluids"))
-        try:
-            two_phase = importlib.import_module("fluids.two_phase")
-        finally:
-            del sys.modules["fluids"]
-    two_phase.splev = sys.modules["fluids.numerics"].py_splev
-    return two_phase.Mandhane_Gregory_Aziz_regime, two_phase.Taitel_Dukler_regime
+    def gradient(rho, u, mu):
+        re = rho * u * bore / mu
+        c, n = (16.0, 1.0) if re < 2000.0 else (0.046, 0.2)
+        return 4.0 * c / bore * re ** -n * rho * u * u / 2.0, n
 
+    dp_l, n = gradient(rho_l, u_ls, mu_l)
+    dp_g, m = gradient(rho_g, u_gs, mu_g)
+    x2, y = dp_l / dp_g, drho * g * math.sin(inclination) / dp_g
 
-def flow_pattern_td(m: float, x: float, bore: float, angle: float, rhol: float, rhog: float, mul: float,
-                    mug: float) -> str:
-    """Taitel & Dukler's pattern alone, through :func:`_maps` (for the tests)."""
-    return _maps()[1](m=m, x=x, rhol=rhol, rhog=rhog, mul=mul, mug=mug, D=bore, angle=angle)[0]
+    def geometry(h):
+        c = 2.0 * h - 1.0
+        root = math.sqrt(max(1.0 - c * c, 0.0))
+        a_l = 0.25 * (math.pi - math.acos(c) + c * root)
+        a_g = 0.25 * (math.acos(c) - c * root)
+        s_l, s_g = math.pi - math.acos(c), math.acos(c)
+        u_l, u_g = (math.pi / 4.0) / a_l, (math.pi / 4.0) / a_g
+        return a_l, a_g, s_l, s_g, root, u_l, u_g, 4.0 * a_l / s_l, 4.0 * a_g / (s_g + root)
+
+    def balance(h):
+        a_l, a_g, s_l, s_g, s_i, u_l, u_g, d_l, d_g = geometry(h)
+        return (x2 * (u_l * d_l) ** -n * u_l * u_l * s_l / a_l
+                - (u_g * d_g) ** -m * u_g * u_g * (s_g / a_g + s_i / a_l + s_i / a_g) - 4.0 * y)
+
+    lo, hi = 1e-6, 1.0 - 1e-6   # the balance falls from +inf at no liquid to -inf at no gas
+    for _ in range(60):
+        mid = 0.5 * (lo + hi)
+        lo, hi = (mid, hi) if balance(mid) > 0.0 else (lo, mid)
+    h = 0.5 * (lo + hi)
+    a_l, a_g, s_l, s_g, s_i, u_l, u_g, d_l, d_g = geometry(h)
+    froude2 = rho_g / drho * u_gs * u_gs / (bore * g * math.cos(inclination))
+    if froude2 * u_g * u_g * s_i / ((1.0 - h) ** 2 * a_g) >= 1.0:
+        if h < 0.5:
+            return "annular"
+        t2 = dp_l / (drho * g * math.cos(inclination))
+        return "bubbly" if t2 >= 8.0 * a_g / (s_i * u_l * u_l * (u_l * d_l) ** -n) else "intermittent"
+    k = math.sqrt(froude2) * math.sqrt(rho_l * u_ls * bore / mu_l)
+    return "stratified wavy" if k >= 2.0 / (math.sqrt(u_l) * u_g * math.sqrt(SHELTERING)) else "stratified smooth"
 
 
 def wave_speed(bulk_modulus: float, density: float, bore: float, wall: float, youngs_modulus: float) -> float:
