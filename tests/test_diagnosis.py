@@ -136,9 +136,29 @@ SCENARIOS = {
 
 @pytest.mark.parametrize("cause", sorted(SCENARIOS))
 def test_each_cause_ranks_first_on_its_evidence(cause):
+    # A consequence (a coil split by frost) ranks after the cause to act on (the stall
+    # that left water in it): its scenario lists it, below the stall.
     text, extra, given = SCENARIOS[cause]
     d = _diagnose(text, extra, **given)
+    if cause in diagnosis.CONSEQUENCES:
+        ranking = _ranking(d)
+        assert cause in ranking and ranking[0] == "stall" and ranking.index(cause) > 0, ranking
+        return
     assert _ranking(d)[0] == cause, _ranking(d)
+
+
+def test_the_cause_to_act_on_leads_a_consequence_and_a_cause_with_a_fact_against_it():
+    # A pump-trap lifting 10 ft, the coil gauge under the back pressure, a cold trap and
+    # freezing air: the installed pump-trap not pumping is the cause to act on; the
+    # generic stall (its drainage covers the stall: a fact against it) and the frost
+    # damage (a consequence) follow.
+    text = BASE_UNIT.replace('arrangement = "trap"', 'arrangement = "pump-trap"').replace('lift = "0 ft"',
+                                                                                         'lift = "10 ft"')
+    d = _diagnose(text, 'motive_pressure = "50 psig"\n', inlet_temperature="20 degF", coil_pressure="2 psig",
+                  trap_outlet="cold", noise="low-load")
+    ranking = _ranking(d)
+    assert ranking[0] == "pump-trap-not-pumping", ranking
+    assert ranking.index("stall") < ranking.index("freeze-damage") == len(ranking) - 1
 
 
 def test_every_cause_has_a_scenario():

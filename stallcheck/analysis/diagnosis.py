@@ -311,11 +311,19 @@ def _surge_facts(r: Result) -> dict:
     return {f"{who}_surge_large": sh.surge >= LARGE_SURGE}
 
 
+#: Causes that are consequences of another (a coil split by frost is the result of a
+#: coil that held water): listed after every cause to act on, whatever their score.
+CONSEQUENCES = frozenset({"freeze-damage"})
+
+
 def rank(facts: dict) -> tuple[RankedCause, ...]:
     """Score every cause on the facts that hold; best first, unsupported causes left out.
 
-    Ties go to the cause with more supporting facts, then to the code's alphabetical
-    order (so the result never depends on the table's order alone).
+    The order: causes to act on before consequences (:data:`CONSEQUENCES`); causes with
+    no fact against them before those with one (a fact against a cause is evidence
+    the engineer should look elsewhere first); then by score, then by the number of
+    supporting facts, then by the code's alphabetical order (so the result never
+    depends on the table's order alone).
     """
     out = []
     for cause in CAUSES:
@@ -328,4 +336,5 @@ def rank(facts: dict) -> tuple[RankedCause, ...]:
             continue
         against = tuple(f for f, w in held if w < 0)
         out.append(RankedCause(cause.code, score, support, against))
-    return tuple(sorted(out, key=lambda c: (-c.score, -len(c.evidence), c.code)))
+    return tuple(sorted(out, key=lambda c: (c.code in CONSEQUENCES, bool(c.against), -c.score, -len(c.evidence),
+                                            c.code)))
