@@ -101,12 +101,15 @@ class Valve:
         Ratio of largest to smallest controllable Cv. [-]
     xt : float
         Pressure-differential ratio factor at choked flow (IEC 60534-2-1). [-]
+    given_as : str
+        ``"cv"`` or ``"kv"``: the coefficient the file gave, which every output quotes.
     """
 
     cv: float
     characteristic: str
     rangeability: float
     xt: float
+    given_as: str = "cv"
 
 
 @dataclass(frozen=True)

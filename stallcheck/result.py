@@ -227,6 +227,9 @@ class ValveResult:
         that holds it the remedies' margin above it at full load, exact (printed
         rounded up); None where the valve does not stall the coil, or no valve on
         this supply can keep it draining. [-]
+    given_as : str
+        ``"cv"`` or ``"kv"``: the coefficient the unit file gave (every figure here is
+        Cv; the words quote the file's own, Kv = Cv/1.156).
     """
 
     cv: float
@@ -240,6 +243,7 @@ class ValveResult:
     rangeability: float
     characteristic: str
     drain_cv: float | None = None
+    given_as: str = "cv"
 
 
 @dataclass(frozen=True)

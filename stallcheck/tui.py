@@ -45,10 +45,13 @@ LABELS = {"lift": "lift", "return": "return", "fill": "fill head", "design": "de
 
 
 def value_of(unit: Unit, knob: str) -> float | None:
-    """The present value of a knob (SI; the Cv as a number; None where the unit has no valve)."""
+    """The present value of a knob (SI; the valve's coefficient as the file gives it, Cv or
+    Kv; None where the unit has no valve)."""
+    coefficient = None
+    if unit.valve is not None:
+        coefficient = unit.valve.cv / q.CV_PER_KV if unit.valve.given_as == "kv" else unit.valve.cv
     return {"lift": unit.drain.lift, "return": unit.drain.return_pressure, "fill": unit.drain.fill_head,
-            "design": unit.design.steam_pressure, "cv": unit.valve.cv if unit.valve else None,
-            "minimum": unit.load.minimum}[knob]
+            "design": unit.design.steam_pressure, "cv": coefficient, "minimum": unit.load.minimum}[knob]
 
 
 def nudged(unit: Unit, knob: str, sign: int, system: str) -> Unit:
@@ -77,7 +80,7 @@ def shown(value: float | None, kind: str, system: str, atm: float) -> str:
     if value is None:
         return "—"
     if kind == "cv":
-        return f"{value:.3g}"
+        return f"{value:.3g}"   # as the file gives it: Kv for a Kv file (see value_of)
     if kind == "fraction":
         return f"{value:.0%}"
     return q.show(value, kind, system, atm)
@@ -90,6 +93,8 @@ def differences(original: Unit, unit: Unit, system: str) -> list[str]:
     for knob, (key, kind, _) in KNOBS.items():
         a, b = value_of(original, knob), value_of(unit, knob)
         if a != b:
+            if knob == "cv" and unit.valve is not None and unit.valve.given_as == "kv":
+                key = "valve.kv"
             out.append(f"{key}: {shown(a, kind, system, atm)} -> {shown(b, kind, system, atm)}")
     return out
 
@@ -244,7 +249,9 @@ class Explorer(App):
             line = Text()
             for k in row:
                 line.append(f"{KEYS[k]} ", style="bold")
-                line.append(f"{LABELS[k]} {shown(value_of(self.unit, k), KNOBS[k][1], system, atm)}   ")
+                label = "Kv" if k == "cv" and self.unit.valve is not None and self.unit.valve.given_as == "kv" \
+                    else LABELS[k]
+                line.append(f"{label} {shown(value_of(self.unit, k), KNOBS[k][1], system, atm)}   ")
             line.rstrip()
             lines.append(line)
         # "drain.lift: 0.0 ft -> 1.0 ft" shortened to "lift 0.0 ft -> 1.0 ft"

@@ -36,7 +36,7 @@ def _apply(data: dict, key: str, printed: str, source: str):
 
 
 #: The Cv a valve remedy prints.
-VALVE_FIGURE = re.compile(r"Cv (\d+(?:\.\d+)?) or more")
+VALVE_FIGURE = re.compile(r"(Cv|Kv) (\d+(?:\.\d+)?) or more")
 
 
 def _printed_figure(note: str) -> str:
@@ -112,8 +112,11 @@ def _follow_every_figure(data: dict, source: str) -> int:
         if m.status in ("impossible", "any"):
             assert m.achievable is False, m.key
         if m.key == "valve.cv":
-            # a too-small valve that floods the coil: the Cv printed, rounded up, is the value
-            assert m.value == float(VALVE_FIGURE.search(m.note).group(1)) >= r.valve.drain_cv, m.note
+            # a too-small valve that floods the coil: the coefficient printed, rounded up, is
+            # the value (a Kv file reads Kv; Cv = 1.156 Kv, IEC 60534-1)
+            name, number = VALVE_FIGURE.search(m.note).groups()
+            cv = float(number) * (1.156 if name == "Kv" else 1.0)
+            assert (m.value == cv if name == "Cv" else cv >= m.value) and cv >= r.valve.drain_cv, m.note
         elif m.value is not None:
             # the figure kept is the figure printed: safe rounding at the printed step
             printed = _printed_figure(m.note)
@@ -136,10 +139,11 @@ def _follow_every_figure(data: dict, source: str) -> int:
         if m.key == "valve.cv":
             # fitted at the Cv printed: the open valve holds the coil the margin above the
             # stall pressure at full load (or no longer limits it), and the unit drains
-            cv = VALVE_FIGURE.search(m.note).group(1)
+            name, cv = VALVE_FIGURE.search(m.note).groups()
             edited = {k: (dict(v) if isinstance(v, dict) else v) for k, v in data.items()}
             edited["valve"].pop("kv", None)
-            edited["valve"]["cv"] = float(cv)
+            edited["valve"].pop("cv", None)
+            edited["valve"][name.lower()] = float(cv)
             again = analysis.analyse(unitfile.from_data(edited, source))
             v = again.valve
             assert v.capacity_ok or v.limited_coil_pressure - again.stall.threshold_pressure >= 1000.0 * (1 - 1e-9)

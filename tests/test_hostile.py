@@ -197,3 +197,14 @@ def test_on_a_terminal_the_name_s_escape_sequences_are_shown_not_obeyed(tmp_path
     assert run.wait(timeout=60) in (0, 1)
     assert b"\x1b[2J" not in out and b"\x1b]0;owned" not in out and "\x9b".encode() not in out
     assert b"\\x1b[2J" in out
+
+
+def test_a_kv_file_reads_kv_in_every_figure_of_the_valve(tmp_path):
+    # IEC 60534-1: Kv (m³/h of water at 1 bar) = Cv / 1.156. A unit file that gives kv
+    # sees Kv in the valve section, the findings and what to do; never a Cv.
+    text = BASE_UNIT.replace("cv = 10", "kv = 4")   # too small: floods the coil
+    path = tmp_path / "kv.toml"
+    path.write_text(text, encoding="utf-8")
+    result = runner.invoke(app, ["check", str(path)])
+    assert result.exit_code in (0, 1), result.output
+    assert "Kv 4 installed" in result.output and "Cv" not in result.output, result.output

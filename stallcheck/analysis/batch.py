@@ -500,7 +500,7 @@ def _valves(b: Batch, coil_p, steam_flow):
             limited_load_fraction=None if ok[k] else float(limited_f[k]),
             limited_coil_pressure=None if ok[k] else float(limited_p[k]),
             min_controllable_load=float(min_load[k]), rangeability=float(rangeability[k]),
-            characteristic=str(characteristic[k]))
+            characteristic=str(characteristic[k]), given_as=b.units[i].valve.given_as)
     return results, opening
 
 
@@ -633,14 +633,14 @@ def _valve_remedy(v: ValveResult | None, s: StallPoint, adequate: bool) -> tuple
     alone = not s.in_range
     return (Remedy(key="valve.cv", kind="cv", current=v.cv, value=q.up_to_figures(v.drain_cv, 3),
                    reason="change" if alone else "not-alone", status="change", achievable=alone,
-                   facts={"load": s.load_fraction}),)
+                   facts={"load": s.load_fraction, "given_as": v.given_as}),)
 
 
 def _with_drain_cv(v: ValveResult, cv: float) -> ValveResult:
     """The valve's figures with the least Cv that keeps the coil draining at full load."""
     return ValveResult(v.cv, v.required_cv_design, v.opening_design, v.capacity_ok, v.choked_at_design,
                        v.limited_load_fraction, v.limited_coil_pressure, v.min_controllable_load, v.rangeability,
-                       v.characteristic, cv if np.isfinite(cv) else None)
+                       v.characteristic, cv if np.isfinite(cv) else None, v.given_as)
 
 
 def _valve_limited_grid(b: Batch, valves, grid, opening):

@@ -637,6 +637,11 @@ def _printed_step(number: float, kind: str, system: str) -> float:
     return 10.0 ** -DISPLAY[system][kind][2]
 
 
+#: Kv → Cv (IEC 60534-1: Cv = 1.156 Kv; Kv in m³/h of water at 1 bar, Cv in US gpm at
+#: 1 psi).
+CV_PER_KV = 1.156
+
+
 def up_to_figures(value: float, figures: int = 3) -> float:
     """``value`` rounded up to ``figures`` significant figures (a flow coefficient a
     valve is selected by: one of at least the figure does what the text says)."""

@@ -39,8 +39,7 @@ from stallcheck.inputs import (
 
 #: Largest unit file read [bytes]. A unit file is a page of text.
 MAX_FILE_BYTES = 1_000_000
-#: Kv → Cv (IEC 60534-1: Cv = 1.156 Kv).
-CV_PER_KV = 1.156
+CV_PER_KV = q.CV_PER_KV
 
 _KNOWN = {
     "": {"format", "unit", "site", "design", "steam", "valve", "load", "drain", "geometry"},
@@ -485,7 +484,7 @@ def _valve(r: _Reader) -> Valve | None:
     char = r.choice(v, "valve", "characteristic", CHARACTERISTICS)
     rangeability = r.number(v, "valve", "rangeability", 1.0, 1000.0, default=50.0, low_open=True)
     xt = r.number(v, "valve", "xt", 0.0, 1.0, default=0.70, low_open=True)
-    return Valve(cv, char, rangeability, xt)
+    return Valve(cv, char, rangeability, xt, "cv" if "cv" in v else "kv")
 
 
 def _load(r: _Reader, design: Design) -> Load:

@@ -84,7 +84,8 @@ def dumps(unit: Unit, system: str | None = None) -> str:
             "", "[steam]", f"supply_pressure = {val(unit.supply_pressure, 'pressure')}"]
     if unit.valve is not None:
         v = unit.valve
-        out += ["", "[valve]", f"cv = {_g(v.cv)}", f'characteristic = "{v.characteristic}"',
+        coefficient = f"kv = {_g(v.cv / q.CV_PER_KV)}" if v.given_as == "kv" else f"cv = {_g(v.cv)}"
+        out += ["", "[valve]", coefficient, f'characteristic = "{v.characteristic}"',
                 f"rangeability = {_g(v.rangeability)}", f"xt = {_g(v.xt)}"]
     out += ["", "[load]", f'varies = "{ld.varies}"', f"minimum = {_g(ld.minimum)}"]
     for b in ld.bins:
@@ -180,9 +181,7 @@ def edit(text: str, original: Unit, changed: Unit, system: str | None = None) ->
             doc[section] = table = tomlkit.table()
         if key == "valve.cv" and "kv" in table and "cv" not in table:
             # a file that gives Kv keeps Kv: writing cv beside it would make it unreadable
-            from stallcheck.files.unitfile import CV_PER_KV
-
-            name, new = "kv", new / CV_PER_KV
+            name, new = "kv", new / q.CV_PER_KV
         written = table.get(name)
         value = _written(kind, new, str(written) if isinstance(written, str) else None, system, atm)
         if written is not None and hasattr(written, "trivia"):

@@ -60,7 +60,8 @@ def markdown(unit: Unit, r: Result, system: str, version: str, date: str, pictur
     ]
     if unit.valve is not None:
         v = unit.valve
-        rows.append(("Control valve", f"Cv {v.cv:.3g}, {v.characteristic}, rangeability {v.rangeability:g}"))
+        rows.append(("Control valve", f"{words.coefficient(v.cv, v.given_as)}, {v.characteristic}, rangeability "
+                                      f"{v.rangeability:g}"))
     out += ["## The unit", "", "| | |", "|---|---|"] + [f"| {a} | {b} |" for a, b in rows] + [""]
 
     out += ["## Method and assumptions", ""] + [f"- {a}" for a in r.assumptions] + [""]
@@ -126,7 +127,8 @@ def _figures(r: Result, show) -> list[str]:
     rows = []
     v = r.valve
     if v is not None:
-        rows.append(("Valve Cv needed at design", f"{v.required_cv_design:.3g} of {v.cv:.3g} "
+        rows.append(("Valve needs at design", f"{words.coefficient(v.required_cv_design, v.given_as, needed=True)} "
+                     f"of {words.coefficient(v.cv, v.given_as)} "
                      f"({'more than fully open' if v.opening_design > 1 else f'{v.opening_design:.0%} open'})"))
         if not v.capacity_ok:
             rows.append(("Valve-limited", f"{words.percent(v.limited_load_fraction, up=False)} of design load at "

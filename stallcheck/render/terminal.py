@@ -138,8 +138,9 @@ def report(result: Result, system: str, width: int = 80) -> list:
     if v is not None:
         parts.append(_heading("Control valve"))
         opening = "more than fully open" if v.opening_design > 1 else f"{v.opening_design:.0%} open"
-        parts.append(_para(f"Cv {v.cv:.3g} installed ({v.characteristic}, rangeability {v.rangeability:g}); "
-                          f"Cv {v.required_cv_design:.3g} needed at design, {opening}"
+        parts.append(_para(f"{words.coefficient(v.cv, v.given_as)} installed ({v.characteristic}, rangeability "
+                           f"{v.rangeability:g}); {words.coefficient(v.required_cv_design, v.given_as, needed=True)} "
+                           f"needed at design, {opening}"
                           + ("; choked" if v.choked_at_design else "")))
         if not v.capacity_ok:
             parts.append(_para(f"too small: wide open it holds {p(v.limited_coil_pressure)} and delivers "

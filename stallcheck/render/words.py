@@ -103,27 +103,27 @@ FINDINGS: dict[str, dict[str, str]] = {
                "VA HVAC Design Manual).",
     },
     "valve-too-small": {
-        "": "The valve needs Cv {required_cv:cv} at design but has Cv {cv:.3g}: wide open it holds the coil "
+        "": "The valve needs {coef} {required_cv:cv} at design but has {coef} {cv:.3g}: wide open it holds the coil "
             "at {limited_pressure:pressure} and delivers {limited_load:.0%-} of the design load.",
         "fit": " Fit a larger valve or raise the supply pressure.",
         "floods": " That is under the stall pressure of {stall_pressure:pressure}: the coil floods {from_load:where}, "
                   "however well it is trapped, because the valve holds it down.",
-        "fix": " A valve of Cv {drain_cv:cv} or more keeps it draining at full load (the {margin:differential} "
-               "margin kept); Cv {fit_cv:cv} or more also delivers the design load.",
+        "fix": " A valve of {coef} {drain_cv:cv} or more keeps it draining at full load (the {margin:differential} "
+               "margin kept); {coef} {fit_cv:cv} or more also delivers the design load.",
         "no-fix": " No valve on this supply keeps it draining: the stall pressure is above what the supply can "
                   "hold the coil at; lower the back pressure or fit a pump-trap.",
     },
     "valve-oversized": {
-        "": "At design the valve is only {opening:.0%} open (Cv {required_cv:cv} needed of {cv:.3g}): it "
+        "": "At design the valve is only {opening:.0%} open ({coef} {required_cv:cv} needed of {cv:.3g}): it "
             "works near its seat at low load, where it hunts and cycles the coil pressure. A smaller valve "
             "controls better.",
     },
     "valve-low-load-control": {
-        "": "Below about {load:.0%+} load the valve needs less than its smallest controllable Cv "
-            "(Cv/rangeability = {smallest_cv:.2g}): it opens and shuts instead of modulating, and each "
+        "": "Below about {load:.0%+} load the valve needs less than its smallest controllable {coef} "
+            "({coef}/rangeability = {smallest_cv:.2g}): it opens and shuts instead of modulating, and each "
             "opening can drive condensate as a slug. Use a smaller valve, or two valves in sequence (1/3 "
             "and 2/3).",
-        "minor": "Below about {load:.0%+} load the valve cannot modulate (Cv/rangeability = {smallest_cv:.2g}) "
+        "minor": "Below about {load:.0%+} load the valve cannot modulate ({coef}/rangeability = {smallest_cv:.2g}) "
                  "and will cycle.",
     },
     "method-below-set-point": {
@@ -353,9 +353,9 @@ REMEDIES = {
                                               "(now {current:pressure}): run hotter, it keeps the coil "
                                               "pressure up at part load; but that is at or above the supply "
                                               "({supply:pressure}), so it needs the supply raised too",
-    ("valve.cv", "change"): "a control valve of Cv {value:cv} or more (now Cv {current:.3g}): wide open it holds the "
+    ("valve.cv", "change"): "a control valve of {coef} {value:cv} or more (now {coef} {current:.3g}): wide open it holds the "
                             "coil above the stall pressure at full load, the {margin:differential} margin kept",
-    ("valve.cv", "not-alone"): "a control valve of Cv {value:cv} or more (now Cv {current:.3g}) stops the valve holding "
+    ("valve.cv", "not-alone"): "a control valve of {coef} {value:cv} or more (now {coef} {current:.3g}) stops the valve holding "
                                "the coil under at high load, but alone it leaves the stall below {load:.0%+} load",
 }
 #: Filled into a return pressure below atmospheric (``{vacuum}`` above).
@@ -408,11 +408,33 @@ def finding(f, r, system: str) -> str:
     parts = FINDINGS[f.code]
     atm = r.atmospheric_pressure
     facts = f.facts
+    if f.code.startswith("valve-"):
+        facts = coefficients(facts, r.valve.given_as, VALVE_FACTS)
     if f.code == "drainage-inadequate":
         facts = dict(facts, reason=drainage_reasons(r.drainage, system, atm)[0])
     elif f.code == "trap-type-modulating":
         facts = dict(facts, poor=POOR_TRAP[facts["trap"]])
     return "".join(fill(parts[name], facts, system, atm) for name in f.parts)
+
+
+#: The flow-coefficient facts of the valve findings: Cv, quoted as the file gave it.
+VALVE_FACTS = ("required_cv", "cv", "drain_cv", "fit_cv", "smallest_cv")
+
+
+def coefficients(facts: Mapping[str, Any], given_as: str, keys) -> dict:
+    """``facts`` with the flow coefficients among ``keys`` in the coefficient the unit
+    file gave (Kv = Cv/1.156) and its name under ``coef``: a Kv file reads Kv."""
+    out = dict(facts, coef="Kv" if given_as == "kv" else "Cv")
+    if given_as == "kv":
+        out.update({k: out[k] / q.CV_PER_KV for k in keys if out.get(k) is not None})
+    return out
+
+
+def coefficient(cv: float, given_as: str, needed: bool = False) -> str:
+    """A flow coefficient (SI Cv) as the unit file gave it: ``"Kv 60"`` or ``"Cv 69.4"``;
+    a ``needed`` one rounded up to three figures (a valve of it does the job)."""
+    value = cv / q.CV_PER_KV if given_as == "kv" else cv
+    return f"{'Kv' if given_as == 'kv' else 'Cv'} {cv_up(value) if needed else f'{value:.3g}'}"
 
 
 def down_to(minimum: float) -> str:
@@ -428,6 +450,8 @@ def remedy(m, system: str, atmospheric: float, minimum: float) -> str:
              **m.facts}
     if "vacuum" in facts:
         facts["vacuum"] = VACUUM_RETURN if facts["vacuum"] else ""
+    if m.kind == "cv":
+        facts = coefficients(facts, m.facts.get("given_as", "cv"), ("value", "current"))
     return fill(REMEDIES[key, m.reason], facts, system, atmospheric)
 
 
