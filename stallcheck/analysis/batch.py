@@ -13,8 +13,8 @@ gathered unit by unit; no words are built here (:mod:`stallcheck.render.words`).
 
 from __future__ import annotations
 
-from dataclasses import dataclass
 import warnings
+from dataclasses import dataclass
 
 import numpy as np
 

@@ -390,10 +390,7 @@ class _Fill(string.Formatter):
             return q.show(q.rounded(value, spec, self.system, self.atmospheric, up=up), spec, self.system,
                           self.atmospheric)
         places = int(spec[1:-1])
-        scale = 10.0 ** places * (100.0 if spec.endswith("%") else 1.0)
-        steps = value * scale
-        steps = round(steps) if abs(steps - round(steps)) < 1e-9 else (math.ceil(steps) if up else math.floor(steps))
-        return format(steps / scale, spec)
+        return format(_round_at(value, 10.0 ** places * (100.0 if spec.endswith("%") else 1.0), up), spec)
 
 
 def fill(template: str, facts: Mapping[str, Any], system: str, atmospheric: float) -> str:
@@ -459,9 +456,15 @@ def percent(fraction: float, up: bool = True) -> str:
     """A load fraction [-] as a whole percent rounded up (a stall point, a load below
     which something fails: it starts no lower than printed) or down (a load delivered):
     the same figure wherever the result prints it."""
-    steps = fraction * 100.0
+    return f"{_round_at(fraction, 100.0, up):.0%}"
+
+
+def _round_at(value: float, scale: float, up: bool) -> float:
+    """``value`` rounded up (or down) to a step of 1/``scale``; a value already on a step
+    (to the last bits) stays there."""
+    steps = value * scale
     steps = round(steps) if abs(steps - round(steps)) < 1e-9 else (math.ceil(steps) if up else math.floor(steps))
-    return f"{steps:.0f}%"
+    return steps / scale
 
 
 def safe(value: float, kind: str, system: str, atmospheric: float, up: bool) -> str:
