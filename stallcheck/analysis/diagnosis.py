@@ -13,6 +13,7 @@ symptoms on a different unit rank differently.
 from __future__ import annotations
 
 from dataclasses import dataclass
+
 import numpy as np
 
 from stallcheck import analysis

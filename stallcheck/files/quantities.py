@@ -16,10 +16,10 @@ package, so a run does not import pint at all (see :class:`_Answers`).
 
 from __future__ import annotations
 
-from dataclasses import dataclass
 import json
 import math
 import re
+from dataclasses import dataclass
 from functools import lru_cache
 from pathlib import Path
 

@@ -8,6 +8,7 @@ outlet reading above the steam temperature) are made in :mod:`stallcheck.analysi
 from __future__ import annotations
 
 from dataclasses import dataclass
+
 from stallcheck.errors import InputError
 from stallcheck.files import quantities as q
 from stallcheck.files.ranges import COLDEST_AIR, HOTTEST_READING, check_pressure_range

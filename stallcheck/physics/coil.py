@@ -36,8 +36,8 @@ References
 from __future__ import annotations
 
 from dataclasses import dataclass
-import numpy as np
 
+import numpy as np
 
 
 @dataclass(frozen=True)

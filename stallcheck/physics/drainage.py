@@ -22,6 +22,7 @@ counts only where gravity leaves the trap a working differential of at least
 from __future__ import annotations
 
 from dataclasses import dataclass
+
 from stallcheck.physics.constants import GRAVITY
 from stallcheck.physics.traps import SELECTION_DIFFERENTIAL
 

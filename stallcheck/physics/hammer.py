@@ -16,8 +16,8 @@ SI throughout: pressures [Pa], lengths [m], velocities [m/s], flows [kg/s].
 
 from __future__ import annotations
 
-from dataclasses import dataclass
 import math
+from dataclasses import dataclass
 
 from stallcheck.physics import properties
 from stallcheck.physics.constants import GRAVITY

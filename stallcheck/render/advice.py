@@ -12,6 +12,7 @@ JSON contract, so the three never say different things.
 from __future__ import annotations
 
 from dataclasses import dataclass
+
 from stallcheck.analysis.remedies import MARGIN
 from stallcheck.files import quantities as q
 from stallcheck.render import words

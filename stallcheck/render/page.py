@@ -17,11 +17,11 @@ so a page reads the same both ways.
 
 from __future__ import annotations
 
-from dataclasses import dataclass
 import os
 import re
 import shutil
 import sys
+from dataclasses import dataclass
 from typing import Iterable, TextIO
 
 #: A run of text and its style (a rich style string, or None for none).
