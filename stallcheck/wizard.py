@@ -16,6 +16,7 @@ from typing import Callable
 
 from stallcheck.errors import InputError
 from stallcheck.files import quantities as q
+from stallcheck.files.ranges import ELEVATION_RANGE
 from stallcheck.inputs import ARRANGEMENTS, CHARACTERISTICS, MEDIA, TRAPS
 
 
@@ -139,7 +140,7 @@ def typed(question: Question, text: str) -> str:
         low = text.lower()
         if low in question.choices:
             return low
-        word = CHOICE_WORDS.get(low)
+        word = CHOICE_WORDS.get(low, "-".join(low.replace("_", " ").split()))   # "trap vacuum breaker"
         return word if word in question.choices else text
     if question.kind == "number" and text.endswith("%"):
         try:
@@ -161,11 +162,22 @@ def typed(question: Question, text: str) -> str:
     return f"{number} {q.typed_unit(unit)}"
 
 
+#: The defaults offered for a liquid (water or glycol) instead of the air coil's: a
+#: heating-water converter (invented figures of the usual size).
+LIQUID_EXAMPLES = {
+    "design.flow": {"us": "90 gpm", "si": "20 m3/h"},
+    "design.inlet_temperature": {"us": "160 degF", "si": "70 degC"},
+    "design.outlet_temperature": {"us": "180 degF", "si": "82 degC"},
+}
+
+
 def suggestion(question: Question, system: str, answers: dict) -> str | None:
     """The default offered for a question: its example in the chosen units, moved to
     follow earlier answers where it would contradict them (a supply above the coil
     pressure given, a set point above the entering temperature given)."""
     example = question.example.get(system) or None
+    if answers.get("design.medium", "air") != "air" and question.key in LIQUID_EXAMPLES:
+        example = LIQUID_EXAMPLES[question.key][system]   # a water or glycol heater, not an air coil
     if question.key == "steam.supply_pressure" and "design.steam_pressure" in answers:
         match = _TYPED.match(str(answers["design.steam_pressure"]))
         step = {"psig": 10.0, "psia": 10.0, "barg": 0.7, "bara": 0.7, "bar(g)": 0.7, "bar(a)": 0.7,
@@ -193,6 +205,8 @@ def accept(question: Question, text: str, answers: dict, atmospheric: float = q.
     InputError
         Naming the key and what is accepted.
     """
+    if question.kind == "length" and (text or "").strip() in ("0", "0.0"):
+        text = f"0 {question.example[system].split()[-1]}"   # "0 if none": no unit needed for nothing
     text = typed(question, text)
     key = question.key
     if not text:
@@ -255,11 +269,11 @@ def accept(question: Question, text: str, answers: dict, atmospheric: float = q.
                 raise InputError(key, f"must be above the coil pressure ({answers['design.steam_pressure']}).")
         return text
     if kind == "elevation":
-        if not -500.0 <= q.length(key, text) <= 6000.0:
-            raise InputError(key, "is out of range; accepted: -500 m to 6000 m (-1640 ft to 19,680 ft).")
+        if not ELEVATION_RANGE[0] <= q.length(key, text) <= ELEVATION_RANGE[1]:
+            raise InputError(key, "is out of range; accepted: -500 m to 9000 m (-1,640 ft to 29,527 ft).")
         return text
     if kind == "length":
-        if not 0.0 <= q.length(key, text) <= 100.0:
+        if not 0.0 <= q.length(key, text) <= 100.0:   # (a bare 0 is typed as 0 in the example's unit)
             raise InputError(key, "is out of range; accepted: 0 to 100 m.")
         return text
     raise ValueError(f"unknown question kind {kind}")

@@ -224,3 +224,35 @@ def test_the_summary_before_writing_lists_every_answer(tmp_path):
                 "valve.characteristic", "load.minimum", "drain.arrangement", "drain.trap", "drain.fill_head",
                 "drain.lift", "drain.return_pressure"):
         assert f"  {key} = " in shown, key
+
+
+def test_a_liquid_gets_liquid_defaults_that_are_accepted_and_analyse_sensibly():
+    # After "water" the offered flow and temperatures are a heating-water converter's,
+    # not the air coil's (6,000 cfm of water at 0 °F would be refused, or a load of
+    # over a gigawatt): taking every default gives a unit of a sensible size.
+    from stallcheck import analysis
+
+    answers = {"unit.name": "Converter", "design.medium": "water"}
+    for x in wizard.asked(answers):
+        if x.key in answers or x.optional:
+            continue
+        answers[x.key] = wizard.accept(x, wizard.suggestion(x, "us", answers), answers, system="us")
+    r = analysis.analyse(unitfile.parse(wizard.to_toml(answers), "new.toml"))
+    # 90 gpm heated 20 degF: about 0.9 MMBtu/h, 264 kW (water 8.34 lb/gal, cp 1 Btu/(lb·degF))
+    assert 200e3 < r.design.load < 350e3
+
+
+def test_typed_answers_of_nothing_and_spaced_choices_and_the_elevation_range_agree_with_the_file():
+    q = {x.key: x for x in wizard.QUESTIONS}
+    assert wizard.accept(q["drain.lift"], "0", {}, system="si") == "0 m"        # "(0 if none)"
+    assert wizard.accept(q["drain.lift"], "0", {}, system="us") == "0 ft"
+    assert wizard.accept(q["drain.arrangement"], "trap vacuum breaker", {}) == "trap-vacuum-breaker"
+    # the same elevation range as a unit file's: 7,000 m taken by both, 9,500 m by neither
+    assert wizard.accept(q["site.elevation"], "7000 m", {}) == "7000 m"
+    with pytest.raises(InputError):
+        wizard.accept(q["site.elevation"], "9500 m", {})
+    from conftest import BASE_UNIT
+
+    unitfile.parse(BASE_UNIT.replace("[design]", '[site]\nelevation = "7000 m"\n[design]'), "u.toml")
+    with pytest.raises(InputError, match="site.elevation"):
+        unitfile.parse(BASE_UNIT.replace("[design]", '[site]\nelevation = "9500 m"\n[design]'), "u.toml")

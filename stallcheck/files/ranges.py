@@ -25,6 +25,10 @@ HOTTEST_READING = 523.15
 TRAP_DIFFERENTIAL_LIMIT = 2.0e5
 #: Narrowest line from a trap [m]: 5 mm, below a 1/4 in tube (common practice).
 NARROWEST_LINE = 0.005
+#: Site elevations taken [m]: from the shore of the Dead Sea (about -430 m) to above
+#: any inhabited place (common practice, from memory); the standard atmosphere (ISO
+#: 2533) holds throughout.
+ELEVATION_RANGE = (-500.0, 9000.0)
 #: Hours in a year, a leap year's [h]: the most the load bins can hold in all.
 HOURS_A_YEAR = 8784.0
 

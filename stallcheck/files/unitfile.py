@@ -22,7 +22,8 @@ import tomli
 from stallcheck.errors import InputError
 from stallcheck.files import drainkeys
 from stallcheck.files import quantities as q
-from stallcheck.files.ranges import COLDEST_AIR, HOURS_A_YEAR, check_pressure_range, require_positive
+from stallcheck.files.ranges import (COLDEST_AIR, ELEVATION_RANGE, HOURS_A_YEAR, check_pressure_range,
+                                     require_positive)
 from stallcheck.inputs import (
     CHARACTERISTICS,
     MEDIA,
@@ -425,8 +426,9 @@ def _where(r: _Reader, site: dict | None) -> Site:
     if "elevation" in site:
         r.vote(site["elevation"])
         z = q.length("site.elevation", site["elevation"])
-        if not -500 <= z <= 9000:
-            raise InputError("site.elevation", f"\"{site['elevation']}\" is out of range; accepted: -500 m to 9000 m.")
+        if not ELEVATION_RANGE[0] <= z <= ELEVATION_RANGE[1]:
+            raise InputError("site.elevation", f"\"{site['elevation']}\" is out of range; accepted: -500 m to 9000 m "
+                                               f"(-1,640 ft to 29,527 ft).")
         p = q.atmosphere_at(z)
         return Site(p, f"{p / 1000:.2f} kPa (standard atmosphere at {z:.0f} m)")
 
