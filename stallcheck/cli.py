@@ -350,8 +350,10 @@ PROGRESS_FROM = 300
 def survey(paths: list[Path] = typer.Argument(..., help="Unit files, folders of them (searched recursively) "
                                               "and CSV tables of units.", show_default=False, metavar="PATH..."),
            units: Optional[Units] = UNITS_OPT, method: Optional[Method] = METHOD_OPT,
-           json: bool = typer.Option(False, "--json", help="Print every unit's result contract and the errors "
-                                     "as one JSON object, and nothing else."),
+           json: bool = typer.Option(False, "--json", help="Print JSON Lines, one a unit as it is done: the "
+                                     "check --json fields (without the chart's points), then the errors and "
+                                     "an end line; nothing else."),
+           points: bool = typer.Option(False, "--points", help="With --json: include each unit's chart points."),
            csv: Optional[Path] = typer.Option(None, "--csv", help="Also write the survey table to this CSV file.",
                                               metavar="OUT.csv"),
            force: bool = typer.Option(False, "--force", help="Let --csv replace an existing file."),
@@ -381,7 +383,7 @@ def survey(paths: list[Path] = typer.Argument(..., help="Unit files, folders of 
     if json:
         from stallcheck.render.survey import JsonStream
 
-        stream = JsonStream(sys.stdout)
+        stream = JsonStream(sys.stdout, points=points)
     # the number of units sizes the progress bar and decides the processes
     total = surveymod.count(found) if sys.stderr.isatty() or (jobs is None and not json) else 0
     progress = None
@@ -403,7 +405,7 @@ def survey(paths: list[Path] = typer.Argument(..., help="Unit files, folders of 
     try:
         summaries, failures = surveymod.run(
             found, system=system, method=method_, each=stream, advance=advance if progress else None,
-            jobs=1 if json else surveymod.jobs_for(total, jobs), searched=True)
+            jobs=1 if json else surveymod.jobs_for(total, jobs), searched=True, points=points)
     except StallcheckError as exc:
         _fail(str(exc))
     finally:

@@ -51,11 +51,13 @@ def test_survey_names_every_bad_file_and_goes_on(tmp_path):
     good.write_text(BASE_UNIT, encoding="utf-8")
     result = runner.invoke(app, ["survey", str(FOLDER), str(good), "--json"])
     assert result.exit_code == 2
-    data = json.loads(result.stdout)
-    assert len(data["results"]) == 1 and data["results"][0]["unit"] == "Test coil"
-    named = {Path(e["source"]).name for e in data["errors"]}
+    lines = [json.loads(line) for line in result.stdout.splitlines()]
+    results = [line for line in lines if line["record"] == "result"]
+    errors = [line for line in lines if line["record"] == "error"]
+    assert len(results) == 1 and results[0]["unit"] == "Test coil"
+    named = {Path(e["source"]).name for e in errors}
     assert named == {f.name for f in FILES}
-    for e in data["errors"]:
+    for e in errors:
         expected = EXPECTED[Path(e["source"]).name]
         assert expected["says"] in e["message"]
     assert "Traceback" not in result.output

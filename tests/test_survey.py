@@ -146,13 +146,28 @@ def test_mixed_good_and_bad_inputs(tmp_path):
     assert "Traceback" not in result.output
 
 
-def test_survey_json_lists_results_and_errors(tmp_path):
+def _lines(stdout: str) -> list[dict]:
+    """survey --json: JSON Lines (https://jsonlines.org), one strict JSON object a line."""
+    return [json.loads(line) for line in stdout.splitlines()]
+
+
+def test_survey_json_lists_results_and_errors_one_a_line(tmp_path):
     folder = _mixed_folder(tmp_path)
     result = runner.invoke(app, ["survey", str(folder), "--json"])
-    data = json.loads(result.stdout)
-    assert len(data["results"]) == 4 and len(data["errors"]) == 2
-    assert data["exit_status"] == 2 == result.exit_code
-    assert all("stall" in r and "drainage" in r for r in data["results"])
+    lines = _lines(result.stdout)
+    assert all(line["format"] == 2 for line in lines)
+    results = [line for line in lines if line["record"] == "result"]
+    errors = [line for line in lines if line["record"] == "error"]
+    assert len(results) == 4 and len(errors) == 2 and lines[-1]["record"] == "end"
+    assert lines[-1] == {"units": 6, "errors": 2, "exit_status": 2, "format": 2, "record": "end"}
+    assert result.exit_code == 2
+    assert all("stall" in r and "drainage" in r and "points" not in r for r in results)
+    # the chart's points only where asked, the same as check --json gives them
+    with_points = _lines(runner.invoke(app, ["survey", str(folder), "--json", "--points"]).stdout)
+    first = next(line for line in with_points if line["record"] == "result")
+    assert len(first["points"]) == 101
+    check = json.loads(runner.invoke(app, ["check", first["source"], "--json"]).stdout)
+    assert first["points"] == check["points"] and first["stall"] == check["stall"]
 
 
 def test_survey_exit_status_all_fine(tmp_path):

@@ -243,7 +243,7 @@ def jobs_for(units: int, jobs: int | None = None) -> int:
 def run(paths: Iterable[str | Path], system: str | None = None, method: str | None = None,
         each: Callable[[Result], None] | None = None,
         advance: Callable[[int], None] | None = None, jobs: int | None = None,
-        searched: bool = False) -> tuple[list[Summary], list[Failure]]:
+        searched: bool = False, points: bool = True) -> tuple[list[Summary], list[Failure]]:
     """Survey every unit the paths hold.
 
     Parameters
@@ -263,6 +263,9 @@ def run(paths: Iterable[str | Path], system: str | None = None, method: str | No
         same whatever the number.
     searched : bool
         The paths are already the files :func:`sources` found for the survey.
+    points : bool
+        Where ``each`` is given: tabulate each result across the load range (the chart's
+        points); without, every other figure is the same and the work about halves.
 
     Returns
     -------
@@ -290,7 +293,7 @@ def run(paths: Iterable[str | Path], system: str | None = None, method: str | No
     chunks = _chunks(_items(files), BATCH)
     if workers == 1:
         for chunk in chunks:
-            take(_work(chunk, system, method, each is not None, each is not None))
+            take(_work(chunk, system, method, each is not None, each is not None and points))
     else:
         _in_parallel(chunks, workers, system, method, take)
     summaries.sort(key=Summary.badness)

@@ -163,18 +163,35 @@ def _num(value) -> str:
     return "" if value is None else f"{value:.6g}"
 
 
-class JsonStream:
-    """Writes ``{"format": 1, "results": [...], "errors": [...]}`` a result at a time."""
+#: The format of ``survey --json``: JSON Lines (2; format 1 was one JSON document).
+SURVEY_FORMAT = 2
 
-    def __init__(self, out):
+
+class JsonStream:
+    """``survey --json``: JSON Lines, one object a line, each written (and flushed) as
+    its unit is done, in order: ``{"record": "result", ...}`` with the fields of
+    ``check --json`` (its chart ``points`` only where asked), then one
+    ``{"record": "error", "source", "message"}`` per unit that could not be read, then
+    ``{"record": "end", "units", "errors", "exit_status"}``. Every line carries
+    ``"format": 2``."""
+
+    def __init__(self, out, points: bool = False):
         self.out = out
-        self.first = True
-        out.write('{"format": 1, "results": [')
+        self.points = points
+        self.count = 0
+
+    def _line(self, record: str, fields: dict) -> None:
+        self.out.write(json_out.text({**fields, "format": SURVEY_FORMAT, "record": record}) + "\n")
+        self.out.flush()
 
     def __call__(self, result) -> None:
-        self.out.write(("\n" if self.first else ",\n") + json_out.text(json_out.to_dict(result)))
-        self.first = False
+        contract = json_out.to_dict(result)
+        if not self.points:
+            contract.pop("points", None)
+        self._line("result", contract)
+        self.count += 1
 
     def close(self, failures: list[Failure], status: int) -> None:
-        errors = json_out.text([{"source": f.source, "message": f.message} for f in failures])
-        self.out.write(f'\n], "errors": {errors}, "exit_status": {status}}}\n')
+        for f in failures:
+            self._line("error", {"source": f.source, "message": f.message})
+        self._line("end", {"units": self.count + len(failures), "errors": len(failures), "exit_status": status})
