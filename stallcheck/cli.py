@@ -53,8 +53,13 @@ WIDTH_OPT = typer.Option(None, "--width", min=60, max=250,
                          help="Columns to print in (60 to 250). Default: the terminal's, at most 100.")
 
 
+def _say(message: str) -> None:
+    """One line to stderr, its outside text made printable (:func:`errors.printable`)."""
+    typer.echo(printable(message), err=True)
+
+
 def _fail(message: str) -> None:
-    typer.echo(printable(f"stallcheck: {message}"), err=True)
+    _say(f"stallcheck: {message}")
     raise typer.Exit(2)
 
 
@@ -77,7 +82,7 @@ def _load(path: Path, units: Optional[Units], method: Optional[Method], warn: bo
         _fail(f"{path}: {exc}")
     if warn:
         for warning in result.warnings:
-            typer.echo(printable(f"stallcheck: {result.source}: {warning}"), err=True)
+            _say(f"stallcheck: {result.source}: {warning}")
     return unit, result
 
 
@@ -87,7 +92,7 @@ def _show_check(result, as_json: bool, width: Optional[int] = None) -> None:
 
         sys.stdout.write(json_out.dumps(result) + "\n")
         for warning in result.warnings:
-            typer.echo(printable(f"stallcheck: {result.source}: {warning}"), err=True)
+            _say(f"stallcheck: {result.source}: {warning}")
     else:
         from stallcheck.render import page, terminal
 
@@ -200,7 +205,7 @@ def report(unit: Path = UNIT_ARG,
         _fail(str(exc))
     except InputError as exc:
         _fail(str(exc))
-    typer.echo(printable(f"wrote {output}" + "".join(f", {p}" for _, p in targets[1:])), err=True)
+    _say(f"wrote {output}" + "".join(f", {p}" for _, p in targets[1:]))
     raise typer.Exit(result.exit_status)
 
 
@@ -270,7 +275,7 @@ def new(file: Optional[Path] = typer.Argument(None, help="Where to write the uni
         raise typer.Exit(130)
     except EOFError:
         _fail("the answers ended before the unit was complete; nothing written.")
-    typer.echo(printable(f"wrote {path}"), err=True)
+    _say(f"wrote {path}")
 
 
 def _ask_all(answers: dict, system: str, err) -> None:
@@ -424,10 +429,10 @@ def survey(paths: list[Path] = typer.Argument(..., help="Unit files, folders of 
         else:
             sys.stdout.write(show.plain(summaries, failures, system, width=out.width))
     for failure in failures:
-        typer.echo(printable(f"stallcheck: {failure.message}"), err=True)
+        _say(f"stallcheck: {failure.message}")
     for summary in summaries:
         for warning in summary.warnings:
-            typer.echo(printable(f"stallcheck: {summary.source}: {warning}"), err=True)
+            _say(f"stallcheck: {summary.source}: {warning}")
     if csv is not None:
         from stallcheck.render import survey as show
 

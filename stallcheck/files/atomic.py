@@ -78,17 +78,16 @@ def _create(temporary: str, path: Path, option: str) -> None:
     a hard link, which the system refuses where the name is taken, then the temporary
     name removed. Where the folder cannot hold hard links, the name is claimed with an
     exclusive create and the file renamed onto it."""
+    taken = InputError(option, "exists (another process wrote it meanwhile); nothing was replaced.", file=str(path))
     try:
         os.link(temporary, path)
     except FileExistsError:
-        raise InputError(option, "exists (another process wrote it meanwhile); nothing was replaced.",
-                         file=str(path)) from None
+        raise taken from None
     except OSError:
         try:
             os.close(os.open(path, os.O_CREAT | os.O_EXCL | os.O_WRONLY, 0o600))
         except FileExistsError:
-            raise InputError(option, "exists (another process wrote it meanwhile); nothing was replaced.",
-                             file=str(path)) from None
+            raise taken from None
         os.replace(temporary, path)
         return
     os.unlink(temporary)

@@ -308,9 +308,10 @@ _TRADE_MULTIPLIER = re.compile(r"^(MM|M)\s*(lbs?/h(?:r)?|pph|btu/?h|bh|btuh|cfm|
 _ACTUAL_CFM = re.compile(r"^a\s*cfm$", re.IGNORECASE)
 
 
-def _closed(key: str, text: str, unit_text: str, dimension: str, accepted: str, also: str | None) -> None:
-    """Refuse a unit spelling outside :data:`GRAMMAR` for the kinds asked, saying why
-    where a trade reading and the units library's differ."""
+def _closed(key: str, text: str, unit_text: str, accepted: str) -> None:
+    """Refuse a unit spelling outside :data:`GRAMMAR`, saying why where a trade reading
+    and the units library's differ (a spelling of another kind is left to the
+    dimension check, which says "not a pressure")."""
     if any(unit_text in spellings for spellings in GRAMMAR.values()):
         return   # a unit of the grammar: of another kind, _quantity says "not a pressure"
     trade = _TRADE_MULTIPLIER.match(unit_text)
@@ -335,7 +336,7 @@ def _quantity(key: str, text, dimension: str, example: str, accepted: str, also:
     read = _read(text) if type(text) is str and len(text) <= MAX_QUANTITY_TEXT else None
     # a string read at once; anything else through _split, which says what is wrong
     value, unit_text = read if type(read) is tuple else _split(key, text, example)
-    _closed(key, text, unit_text, dimension, accepted, also)
+    _closed(key, text, unit_text, accepted)
     info = _unit_info(unit_text)
     if info is None:
         raise InputError(key, f"unknown unit '{unit_text}' in '{text}'; accepted: {accepted}.")
@@ -464,10 +465,8 @@ def differential(key: str, text) -> float:
 
 def temperature(key: str, text) -> float:
     """Parse a temperature [K]: ``degC``, ``degF`` or ``K``; a temperature difference
-    (``delta_degC``) is not a temperature."""
-    q, unit = _quantity(key, text, "K", "50 degF", "degC, degF, K")
-    if "delta" in unit:
-        raise InputError(key, f"'{text}' is a temperature difference, not a temperature; accepted: degC, degF, K.")
+    (``delta_degC``) is not a temperature (the grammar refuses it, :func:`_closed`)."""
+    q, _ = _quantity(key, text, "K", "50 degF", "degC, degF, K")
     return _magnitude(key, text, q, "K")
 
 

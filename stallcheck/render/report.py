@@ -82,9 +82,8 @@ def markdown(unit: Unit, r: Result, system: str, version: str, date: str, pictur
         out.append(f"**Stalls below {words.percent(s.load_fraction)} load**{inlet}: coil pressure {show(s.coil_pressure, 'pressure')}, "
                    f"steam {show(s.steam_temperature, 'temperature')}, condensate {show(s.condensate, 'mass_flow')}.")
     if s.valve_load_fraction is not None:
-        out.append(f"The control valve, wide open, holds the coil at {show(s.valve_coil_pressure, 'pressure')} at "
-                   f"full load, under the stall pressure of {show(s.threshold_pressure, 'pressure')}: it floods "
-                   f"{words.valve_stall_loads(s.valve_load_fraction, s.load_fraction if s.in_range else 0.0)}.")
+        sentence = words.valve_floods(s, system, atm)
+        out.append(sentence[:1].upper() + sentence[1:] + ".")
     if r.stalled_hours is not None:
         out.append(f"Stalled {r.stalled_hours:,.0f} h of the {r.total_hours:,.0f} h in the load bins.")
     out.append("")

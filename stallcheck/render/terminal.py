@@ -117,10 +117,7 @@ def report(result: Result, system: str, width: int = 80) -> list:
             parts.append(_para(f"below the minimum load of {r.minimum_load:.0%}: it never runs there.",
                                style="green"))
     if s.valve_load_fraction is not None:
-        parts.append(_para(f"the control valve, wide open, holds the coil at {p(s.valve_coil_pressure)} at full "
-                           f"load, under the stall pressure of {p(s.threshold_pressure)}: it floods "
-                           f"{words.valve_stall_loads(s.valve_load_fraction, s.load_fraction if s.in_range else 0.0)}"
-                           f" (see control valve)", style="red"))
+        parts.append(_para(f"{words.valve_floods(s, system, atm)} (see control valve)", style="red"))
     if r.stalled_hours is not None:
         parts.append(_para(f"stalled {r.stalled_hours:,.0f} h of {r.total_hours:,.0f} h in the load bins"))
     parts.append(BLANK)

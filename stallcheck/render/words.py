@@ -473,6 +473,15 @@ def safe(value: float, kind: str, system: str, atmospheric: float, up: bool) -> 
     return _Fill(system, atmospheric).safe(value, kind, up)
 
 
+def valve_floods(s, system: str, atmospheric: float) -> str:
+    """Where a too-small valve floods the coil, in one sentence (no full stop), for the
+    stall point section of every presenter."""
+    return (f"the control valve, wide open, holds the coil at "
+            f"{q.show(s.valve_coil_pressure, 'pressure', system, atmospheric)} at full load, under the stall "
+            f"pressure of {q.show(s.threshold_pressure, 'pressure', system, atmospheric)}: it floods "
+            f"{valve_stall_loads(s.valve_load_fraction, s.load_fraction if s.in_range else 0.0)}")
+
+
 def stall_summary(s) -> str:
     """Where a unit stalls, in a few words, for one-line verdicts (``new``, ``explore``):
     the same load, rounded the same way, as the stall point section."""
