@@ -40,6 +40,12 @@ class Site:
         The quantity of steam the price is for (set wherever a price is). [kg]
     currency : str
         The price's currency, as written (shown beside costs).
+    elevation : float or None
+        The elevation given in the file, where given. [m]
+    pressure_given : bool
+        True where the file gives the atmospheric pressure itself.
+    weather : WeatherYear or None
+        The site's hourly weather year, where the file names one.
     """
 
     atmospheric_pressure: float
@@ -48,6 +54,48 @@ class Site:
     steam_price: float | None = None
     steam_price_per: float | None = None
     currency: str = ""
+    elevation: float | None = None
+    pressure_given: bool = False
+    weather: "WeatherYear | None" = None
+
+
+@dataclass(frozen=True, eq=False)
+class WeatherYear:
+    """A year of hourly weather at a station, as read from an EPW or TMY3 file.
+
+    Attributes
+    ----------
+    path : str
+        The file as the unit file names it (relative to the unit file, or absolute).
+    resolved : str
+        The file's absolute path.
+    form : str
+        ``"epw"`` or ``"tmy3"``.
+    station : str
+        The station's name, state and country as the file gives them.
+    elevation : float or None
+        The station's elevation. [m]
+    dry_bulb : numpy.ndarray
+        Dry-bulb temperature of each hour, in the file's order. [K]
+    month : numpy.ndarray
+        Month of each hour, 1 to 12. [-]
+    hour : numpy.ndarray
+        Hour of the day each hour begins at, 0 to 23, local standard time. [-]
+    design_996, design_990 : float or None
+        The heating 99.6 % and 99 % dry bulbs the file itself states (an EPW
+        ``DESIGN CONDITIONS`` line), where it does. [K]
+    """
+
+    path: str
+    resolved: str
+    form: str
+    station: str
+    elevation: float | None
+    dry_bulb: object
+    month: object
+    hour: object
+    design_996: float | None = None
+    design_990: float | None = None
 
 
 @dataclass(frozen=True)
@@ -132,11 +180,29 @@ class Load:
     minimum : float
         Lowest load fraction the unit runs at. [-]
     bins : tuple of LoadBin
+    outdoor_air_minimum : float
+        With a weather file: the least share of outdoor air in what enters the coil
+        (1: all outdoor air). [-]
+    return_air_temperature : float or None
+        The air mixed with the outdoor air (required where the share is below 1). [K]
+    mixed_air_temperature : float or None
+        The mixed temperature an economiser holds by opening the outdoor air beyond
+        its minimum, where it does. [K]
+    season : tuple of int
+        Months the unit runs (1 to 12); empty: all year.
+    daily_hours : tuple of (int, int) or None
+        The hour of the day it starts and the hour it stops (0 to 24, local standard
+        time; a stop before the start runs past midnight); None: all day.
     """
 
     varies: str
     minimum: float
     bins: tuple[LoadBin, ...] = ()
+    outdoor_air_minimum: float = 1.0
+    return_air_temperature: float | None = None
+    mixed_air_temperature: float | None = None
+    season: tuple[int, ...] = ()
+    daily_hours: tuple[int, int] | None = None
 
 
 @dataclass(frozen=True)

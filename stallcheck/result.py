@@ -365,7 +365,7 @@ class PurgeFigures:
     hours, yearly_mass, yearly_cost : float or None
         Hours a year, steam bled a year [kg], and its cost [currency].
     hours_basis : str
-        ``"bins"``, ``"site"`` or ``""`` (no hours known).
+        ``"bins"``, ``"weather"``, ``"site"`` or ``""`` (no hours known).
     currency : str
     """
 
@@ -379,6 +379,82 @@ class PurgeFigures:
     yearly_cost: float | None
     hours_basis: str
     currency: str
+
+
+@dataclass(frozen=True, eq=False)
+class YearFigures:
+    """A year of the site's hourly weather run through the unit.
+
+    Attributes
+    ----------
+    file, form, station : str
+        The weather file as the unit file names it, ``"epw"`` or ``"tmy3"``, and the
+        station it gives.
+    station_elevation : float or None
+        The station's elevation the file gives. [m]
+    hours : int
+        Hours in the file. [h]
+    scheduled : int
+        Hours in the unit's season and daily hours. [h]
+    no_load : int
+        Scheduled hours whose entering air needs no heat (at or above the set point). [h]
+    operating : int
+        Scheduled hours with a load: the hours the unit runs. [h]
+    below_minimum : int
+        Of those, hours asking less than the minimum load (run at the minimum). [h]
+    above_full : int
+        Of those, hours colder than the design entering temperature (run at full load,
+        the air leaving short of its set point). [h]
+    stalled : int
+        Operating hours stalled. [h]
+    stalled_freezing : int
+        Stalled hours with the air entering the coil below 0 °C. [h]
+    longest_freezing_run : int
+        The longest run of consecutive stalled freezing hours, in the file's order. [h]
+    dry_bulb_996, dry_bulb_990 : float
+        The file's heating design dry bulbs: the temperatures at or below which 0.4 %
+        and 1 % of its hours lie. [K]
+    entering_996 : float
+        The air entering the coil at the 99.6 % condition (mixed where it mixes). [K]
+    design_inlet : float
+        The design entering temperature, for comparison. [K]
+    stated_996, stated_990 : float or None
+        The heating design dry bulbs the file itself states, where it does. [K]
+    bands : tuple of (float, float or None, int, int)
+        Operating hours by load band: the band's lower and upper load fraction [-]
+        (the last band, from 1.0 with no upper end, holds the hours at or above full
+        load), its hours and its stalled hours. [h]
+    entering, running, stalled_hours : numpy.ndarray
+        Each hour's entering temperature [K], whether the unit runs, and whether it
+        runs stalled (for pictures of the year).
+    month : numpy.ndarray
+        Each hour's month, 1 to 12.
+    """
+
+    file: str
+    form: str
+    station: str
+    station_elevation: float | None
+    hours: int
+    scheduled: int
+    no_load: int
+    operating: int
+    below_minimum: int
+    above_full: int
+    stalled: int
+    stalled_freezing: int
+    longest_freezing_run: int
+    dry_bulb_996: float
+    dry_bulb_990: float
+    entering_996: float
+    design_inlet: float
+    stated_996: float | None
+    stated_990: float | None
+    bands: tuple[tuple[float, float | None, int, int], ...]
+    entering: Any = None
+    running: Any = None
+    stalled_hours: Any = None
+    month: Any = None
 
 
 @dataclass(frozen=True)
@@ -634,6 +710,7 @@ class Result:
     remedies: tuple[Remedy, ...] = ()
     return_line: ReturnLineFigures | None = None
     surge: SurgeFigures | None = None
+    year: YearFigures | None = None
     warnings: tuple[str, ...] = ()
     #: Load below which the mean-temperature method, with the flow varying, would ask
     #: for steam colder than the set point, and the set point is used instead [-]

@@ -19,6 +19,7 @@ from dataclasses import dataclass
 import numpy as np
 
 from stallcheck.analysis import findings, remedies
+from stallcheck.analysis import year as yearmod
 from stallcheck.errors import InputError, StallcheckError
 from stallcheck.files import quantities as q
 from stallcheck.inputs import Unit
@@ -376,14 +377,22 @@ def _analyse(units: list[Unit], systems: list[str], tabulate: bool = True, compl
                             valve_opening=None if opening is None or valves[i] is None else opening[i],
                             needed_coil_pressure=needed[i])
         s = stall[i]
-        bins_load, bins_hours = _bin_loads(u, b.coil, i)
-        stalled_hours, total_hours = _hours(u, s.load_fraction or 0.0, bins_load, bins_hours, s.valve_load_fraction)
+        year = None
+        if u.site.weather is not None:
+            year, bins_load = yearmod.figures(u, b.coil.take(i), s.load_fraction or 0.0, s.valve_load_fraction)
+            bins_hours, hours_basis = np.ones(bins_load.size), "weather"
+            stalled_hours, total_hours = float(year.stalled), float(year.operating)
+        else:
+            bins_load, bins_hours = _bin_loads(u, b.coil, i)
+            hours_basis = "bins"
+            stalled_hours, total_hours = _hours(u, s.load_fraction or 0.0, bins_load, bins_hours,
+                                                s.valve_load_fraction)
         pump = devices.pump_trap_figures(u, drains[i].required, s, float(b.back[i]), float(b.supply[i]))
         line = devices.return_line_figures(u, float(b.steam_design[i]), float(b.design_pressure[i]), s,
                                            float(w_min[i]), float(p_min[i]))
         shock = devices.surge_figures(u, pump, float(b.back[i]), float(b.steam_design[i]))
         purge = devices.purge_figures(u, b.one(i), float(b.back[i]), float(b.design_pressure[i]),
-                                      float(p_min[i]), bins_load, bins_hours)
+                                      float(p_min[i]), bins_load, bins_hours, hours_basis)
         result = Result(
             unit=u.name, tag=u.tag, source=u.source, system=systems[i], method=u.design.method,
             varies=u.load.varies, medium=u.design.medium, minimum_load=u.load.minimum,
@@ -394,7 +403,7 @@ def _analyse(units: list[Unit], systems: list[str], tabulate: bool = True, compl
             total_hours=total_hours, drainage=drains[i], valve=valves[i], findings=(),
             assumptions=_assumptions(u, bool(clipped[i]), traps[i]) if complete else (), trap=traps[i],
             pump_trap=pump, purge=purge, flash=flashes[i], remedies=fixes[i], warnings=u.warnings, return_line=line,
-            surge=shock,
+            surge=shock, year=year,
             set_point_floor_load=float(floor_load[i]))
         # The rules read the finished result; their findings complete it before anyone
         # else sees it (set in place: a copy of every result costs a survey 10 % more).

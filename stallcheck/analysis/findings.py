@@ -8,13 +8,13 @@ Codes are stable (scripts filter on them); the README lists them with their sour
 from __future__ import annotations
 
 from stallcheck.analysis import layout, remedies
+from stallcheck.files import quantities as q
 from stallcheck.inputs import Unit
 from stallcheck.physics import coil as coilmod
-from stallcheck.physics.constants import VELOCITY_LIMIT
+from stallcheck.physics.constants import FREEZING, VELOCITY_LIMIT
 from stallcheck.physics.devices import MOTIVE_MARGIN, RATING_SHARE
 from stallcheck.result import Finding, Result
 
-FREEZING = 273.15
 #: Temperatures this close to freezing count as at it, not below [K]: the same unit
 #: written in °F and in °C differs by rounding in the last digits.
 _AT = 1e-6
@@ -47,6 +47,11 @@ VALVE_LEAST_OPENING = 0.5
 #: [-] (common practice, from memory: a single valve is expected to control down to
 #: about 10 % load; below that, two valves in sequence).
 CONTROL_FLOOR = 0.10
+#: A weather station this far above or below the site's stated elevation (or, with none
+#: stated, sea level) is reported [m]: 50 m moves the standard atmosphere by about
+#: 0.6 kPa (0.09 psi, ISO 2533), as much as a low-pressure gauge's smallest division
+#: (1/10 psi; common practice).
+ELEVATION_AGREEMENT = 50.0
 
 
 def core(unit: Unit, r: Result) -> tuple[Finding, ...]:
@@ -120,6 +125,7 @@ def core(unit: Unit, r: Result) -> tuple[Finding, ...]:
     out.extend(_devices(unit, r))
     out.extend(_return_line(unit, r))
     out.extend(layout.rules(unit, r))
+    out.extend(_climate(unit, r))
     order = {"danger": 0, "warning": 1, "info": 2}
     return tuple(sorted(out, key=lambda f: order[f.severity]))
 
@@ -223,6 +229,28 @@ def _return_line(unit: Unit, r: Result) -> list[Finding]:
     return out
 
 
+def _climate(unit: Unit, r: Result) -> list[Finding]:
+    """Findings from the site's weather year: a design warmer than the site's heating
+    design condition, and a station whose elevation disagrees with the site's."""
+    y = r.year
+    if y is None:
+        return []
+    out: list[Finding] = []
+    design = unit.design.inlet_temperature
+    if design > y.entering_996 + _AT:
+        mixed = unit.load.outdoor_air_minimum < 1.0
+        out.append(Finding("design-warmer-than-site", "warning", ("", "mixed" if mixed else "outdoor", "why"),
+                           {"design": design, "dry_bulb": y.dry_bulb_996, "entering": y.entering_996,
+                            "hours": y.above_full, "file": y.file}))
+    if y.station_elevation is not None and not unit.site.pressure_given:
+        site = unit.site.elevation
+        if abs(y.station_elevation - (site or 0.0)) > ELEVATION_AGREEMENT:
+            out.append(Finding("site-elevation-differs", "info", ("", "given" if site is not None else "none", "fix"),
+                               {"station": y.station_elevation, "site": site, "name": y.station,
+                                "dp": abs(q.atmosphere_at(site or 0.0) - q.atmosphere_at(y.station_elevation))}))
+    return out
+
+
 def _freeze_exposure(unit: Unit, r: Result) -> Finding | None:
     """The freeze-risk finding where the coil stalls with entering air below freezing."""
     s = r.stall
@@ -236,7 +264,9 @@ def _freeze_exposure(unit: Unit, r: Result) -> Finding | None:
                 unit.design.method, r.varies, unit.design.inlet_temperature, unit.design.outlet_temperature,
                 r.design.steam_temperature, unit.design.ua_flow_exponent), s.valve_load_fraction)), FREEZING)
             facts["upper"] = upper
-            if unit.load.bins:
+            if r.year is not None:
+                parts += _year_hours(r, facts)
+            elif unit.load.bins:
                 facts["hours"] = sum(b.hours for b in unit.load.bins if b.inlet_temperature is not None
                                      and b.inlet_temperature < upper - _AT)
                 parts.append("hours")
@@ -254,10 +284,18 @@ def _freeze_exposure(unit: Unit, r: Result) -> Finding | None:
             return None
         parts = ["", "design", "why"]
         facts["inlet"] = unit.design.inlet_temperature
-    if unit.load.bins and r.varies == "inlet-temperature":
+    if r.year is not None:
+        parts += _year_hours(r, facts)
+    elif unit.load.bins and r.varies == "inlet-temperature":
         facts["hours"] = sum(b.hours for b in unit.load.bins
                              if b.inlet_temperature is not None
                              and s.inlet_temperature <= b.inlet_temperature < FREEZING - _AT)
         parts.append("hours")
     parts.append("drained" if r.drainage.adequate else "drain")
     return Finding("freeze-risk", "danger" if not r.drainage.adequate else "info", tuple(parts), facts)
+
+
+def _year_hours(r: Result, facts: dict) -> list[str]:
+    """The weather year's stalled freezing hours and longest run, into ``facts``."""
+    facts.update(hours=r.year.stalled_freezing, run=r.year.longest_freezing_run)
+    return ["year"] if r.year.stalled_freezing else ["year-none"]

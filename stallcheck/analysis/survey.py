@@ -16,7 +16,7 @@ from typing import Callable, Iterable, Iterator
 
 from stallcheck import analysis
 from stallcheck.errors import InputError, StallcheckError
-from stallcheck.files import csvunits, unitfile
+from stallcheck.files import csvunits, unitfile, weather
 from stallcheck.result import SEVERITIES, Result
 
 #: Units analysed together: enough to spread the steam-table calls, few enough to keep
@@ -54,6 +54,12 @@ class Summary:
     return_pattern : str or None
         The worst flow pattern in the line from the trap (Taitel & Dukler), where the
         line is described.
+    hours_from : str or None
+        ``"weather"`` or ``"bins"``: where ``stalled_hours`` comes from.
+    freezing_hours : int or None
+        With a weather file: stalled hours with the air entering below freezing. [h]
+    dry_bulb_996 : float or None
+        With a weather file: its 99.6 % heating dry bulb. [K]
     """
 
     source: str
@@ -71,6 +77,9 @@ class Summary:
     exit_status: int
     warnings: tuple[str, ...] = ()
     return_pattern: str | None = None
+    hours_from: str | None = None
+    freezing_hours: int | None = None
+    dry_bulb_996: float | None = None
 
     @classmethod
     def of(cls, r: Result) -> "Summary":
@@ -79,7 +88,10 @@ class Summary:
         return cls(r.source, r.unit, r.tag, r.system, s.load_fraction if s.occurs else None,
                    s.inlet_temperature if s.occurs else None, r.drainage.required, r.drainage.installed,
                    r.drainage.adequate, r.stalled_hours, top.code if top else None,
-                   top.severity if top else None, r.exit_status, r.warnings, _worst_pattern(r))
+                   top.severity if top else None, r.exit_status, r.warnings, _worst_pattern(r),
+                   "weather" if r.year is not None else "bins" if r.stalled_hours is not None else None,
+                   None if r.year is None else r.year.stalled_freezing,
+                   None if r.year is None else r.year.dry_bulb_996)
 
     def badness(self) -> tuple:
         """Sort key, worst first: failing units, then the worst finding, inadequate
@@ -138,6 +150,8 @@ def _search(folder: str) -> list[tuple[str, str]]:
         for name in files:
             if name.lower().endswith((".toml", ".csv")):
                 full = os.path.join(root, name)
+                if name.lower().endswith(".csv") and weather.is_weather(full):
+                    continue  # a weather file the units name, not a table of units
                 found.append((full, _real(full) if os.path.islink(full) else os.path.join(real_root, name)))
     found.sort(key=lambda entry: os.path.normcase(entry[0]).split(os.sep))
     return found
@@ -184,7 +198,7 @@ def _unit(item):
         try:
             if isinstance(data, InputError):
                 raise data
-            return unitfile.from_data(data, source, line)
+            return unitfile.from_data(data, source, line, folder=Path(source).parent)
         except InputError as exc:
             return Failure(f"{source}:{line}", str(exc))
     try:

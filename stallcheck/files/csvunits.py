@@ -25,12 +25,13 @@ MAX_CSV_BYTES = 100 * MAX_FILE_BYTES
 
 #: Keys whose values are plain numbers, whole numbers, true/false, or words.
 NUMBERS = {"valve.cv", "valve.kv", "valve.rangeability", "valve.xt", "load.minimum", "design.ua_flow_exponent",
-           "drain.capacity_margin", "site.hours_per_year", "site.steam_price"}
+           "drain.capacity_margin", "site.hours_per_year", "site.steam_price", "load.outdoor_air_minimum"}
 WHOLE = {"format", "geometry.coils_per_trap"}
 FLAGS = {"geometry.distributing_tubes", "geometry.pitched_to_return", "geometry.drop_vented",
          "geometry.drip_before_valve"}
 WORDS = {"unit.name", "unit.tag", "design.medium", "design.method", "valve.characteristic", "load.varies",
-         "drain.arrangement", "drain.trap", "geometry.tubes", "geometry.supply_feed", "site.currency"}
+         "drain.arrangement", "drain.trap", "geometry.tubes", "geometry.supply_feed", "site.currency",
+         "site.weather", "load.season", "load.daily_hours"}
 _TRUE = {"true", "yes", "1"}
 _FALSE = {"false", "no", "0"}
 

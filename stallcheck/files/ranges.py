@@ -29,6 +29,10 @@ NARROWEST_LINE = 0.005
 #: any inhabited place (common practice, from memory); the standard atmosphere (ISO
 #: 2533) holds throughout.
 ELEVATION_RANGE = (-500.0, 9000.0)
+#: Return air a unit mixes with outdoor air [K]: 5 °C to 40 °C, the air of a heated
+#: space (common practice: 18 to 27 °C is usual; the range leaves room for warehouses
+#: and process rooms).
+RETURN_AIR_RANGE = (278.15, 313.15)
 #: Hours in a year, a leap year's [h]: the most the load bins can hold in all.
 HOURS_A_YEAR = 8784.0
 

@@ -22,8 +22,8 @@ import tomli
 from stallcheck.errors import InputError
 from stallcheck.files import drainkeys
 from stallcheck.files import quantities as q
-from stallcheck.files.ranges import (COLDEST_AIR, ELEVATION_RANGE, HOURS_A_YEAR, check_pressure_range,
-                                     require_positive)
+from stallcheck.files.ranges import (COLDEST_AIR, ELEVATION_RANGE, HOURS_A_YEAR, RETURN_AIR_RANGE,
+                                     check_pressure_range, require_positive)
 from stallcheck.inputs import (
     CHARACTERISTICS,
     MEDIA,
@@ -46,12 +46,13 @@ _KNOWN = {
     "": {"format", "unit", "site", "design", "steam", "valve", "load", "drain", "geometry"},
     "unit": {"name", "tag"},
     "site": {"elevation", "atmospheric_pressure", "hours_per_year", "steam_price", "steam_price_per",
-             "currency"},
+             "currency", "weather"},
     "design": {"medium", "concentration", "flow", "inlet_temperature", "outlet_temperature",
                "steam_pressure", "ua_flow_exponent", "method"},
     "steam": {"supply_pressure"},
     "valve": {"cv", "kv", "characteristic", "rangeability", "xt"},
-    "load": {"varies", "minimum", "bins"},
+    "load": {"varies", "minimum", "bins", "outdoor_air_minimum", "return_air_temperature",
+             "mixed_air_temperature", "season", "daily_hours"},
     "load.bins": {"inlet_temperature", "hours", "load"},
     "drain": {"arrangement", "trap", "fill_head", "lift", "return_pressure",
               "trap_min_differential", "capacity", "capacity_margin", "trap_orifice",
@@ -139,11 +140,12 @@ def load(path: str | Path) -> Unit:
         For anything in the file that cannot be accepted; names file and key.
     """
     text = read_text(path)
-    return parse(text, source=str(path))
+    return parse(text, source=str(path), folder=Path(path).parent)
 
 
-def parse(text: str, source: str = "unit file") -> Unit:
-    """Validate the text of a unit file (see :func:`load`)."""
+def parse(text: str, source: str = "unit file", folder: str | Path | None = None) -> Unit:
+    """Validate the text of a unit file (see :func:`load`); a weather file it names is
+    found relative to ``folder`` (default: the folder of ``source``)."""
     try:
         data = tomli.loads(text)
     except RecursionError:
@@ -159,7 +161,7 @@ def parse(text: str, source: str = "unit file") -> Unit:
         raise InputError("", f"is not valid TOML: {detail}.", file=source,
                          line=int(match.group(1)) if match else None) from None
     try:
-        return _build(data, source)
+        return _build(data, source, Path(source).parent if folder is None else folder)
     except InputError as exc:
         exc = exc.in_file(source)
         if exc.line is None and exc.message.startswith("unknown key"):
@@ -167,7 +169,7 @@ def parse(text: str, source: str = "unit file") -> Unit:
         raise exc from None
 
 
-def from_data(data: dict, source: str, line: int | None = None) -> Unit:
+def from_data(data: dict, source: str, line: int | None = None, folder: str | Path | None = None) -> Unit:
     """Validate a unit already read into nested tables (a CSV row, say).
 
     Parameters
@@ -178,9 +180,13 @@ def from_data(data: dict, source: str, line: int | None = None) -> Unit:
         The file it came from, for messages.
     line : int, optional
         The line it came from; the unit's source is then ``"file:line"``.
+    folder : str or Path, optional
+        Where a weather file it names is found from; default the folder of ``source``
+        (a CSV table's, for its rows).
     """
     try:
-        return _build(data, source if line is None else f"{source}:{line}")
+        return _build(data, source if line is None else f"{source}:{line}",
+                      Path(source).parent if folder is None else folder)
     except InputError as exc:
         exc = exc.in_file(source)
         exc.line = line
@@ -337,7 +343,7 @@ def _kind(value) -> str:
 # --- the file ------------------------------------------------------------------------
 
 
-def _build(data: dict, source: str) -> Unit:
+def _build(data: dict, source: str, folder: str | Path | None = None) -> Unit:
     r = _Reader(data)
     r.unknown(data, "")
     fmt = data.get("format")
@@ -354,7 +360,7 @@ def _build(data: dict, source: str) -> Unit:
     if not isinstance(tag, str):
         raise InputError("unit.tag", "takes a string, such as \"AHU-2 PHC\".")
 
-    site = _site(r)
+    site = _site(r, folder)
     atm = site.atmospheric_pressure
     design = _design(r, atm)
     steam = r.table("steam")
@@ -366,7 +372,7 @@ def _build(data: dict, source: str) -> Unit:
                          f"design.steam_pressure; the valve needs a pressure drop to pass steam. "
                          f"Raise the supply or lower the design steam pressure.")
     valve = _valve(r)
-    load = _load(r, design)
+    load = _load(r, design, site.weather is not None)
     drain = drainkeys.read(r, atm)
     geometry = _geometry(r)
     system = "us" if r.us_votes > r.si_votes else "si"
@@ -381,10 +387,29 @@ def _build(data: dict, source: str) -> Unit:
                 system=system, defaults=tuple(r.defaults), warnings=tuple(r.warnings))
 
 
-def _site(r: _Reader) -> Site:
+def _site(r: _Reader, folder: str | Path | None) -> Site:
     site = r.table("site", required=False)
     where = _where(r, site)
-    return Site(where.atmospheric_pressure, where.basis, **_costs(r, site or {}))
+    return Site(where.atmospheric_pressure, where.basis, **_costs(r, site or {}), elevation=where.elevation,
+                pressure_given=where.pressure_given, weather=_weather(site or {}, folder))
+
+
+def _weather(site: dict, folder: str | Path | None):
+    """The weather year ``site.weather`` names (a path relative to the unit file), or None."""
+    if "weather" not in site:
+        return None
+    text = site["weather"]
+    if not isinstance(text, str) or not text.strip():
+        raise InputError("site.weather", "takes the path of an EPW or TMY3 CSV weather file, relative to the "
+                                         "unit file, such as \"weather/station.epw\".")
+    from stallcheck.files import weather
+
+    path = Path(folder or ".") / text
+    try:
+        return weather.read(path, as_written=text)
+    except InputError as exc:
+        where = f"\"{text}\"" + (f", line {exc.line}" if exc.line is not None else "")
+        raise InputError("site.weather", f"{where}: {exc.message}") from None
 
 
 def _costs(r: _Reader, site: dict) -> dict:
@@ -422,7 +447,7 @@ def _where(r: _Reader, site: dict | None) -> Site:
         if not 30e3 <= p.pascal <= 110e3:
             raise InputError("site.atmospheric_pressure",
                              f"\"{site['atmospheric_pressure']}\" is out of range; accepted: 30 to 110 kPaa.")
-        return Site(p.pascal, f"{p.pascal / 1000:.2f} kPa (given)")
+        return Site(p.pascal, f"{p.pascal / 1000:.2f} kPa (given)", pressure_given=True)
     if "elevation" in site:
         r.vote(site["elevation"])
         z = q.length("site.elevation", site["elevation"])
@@ -430,7 +455,7 @@ def _where(r: _Reader, site: dict | None) -> Site:
             raise InputError("site.elevation", f"\"{site['elevation']}\" is out of range; accepted: -500 m to 9000 m "
                                                f"(-1,640 ft to 29,527 ft).")
         p = q.atmosphere_at(z)
-        return Site(p, f"{p / 1000:.2f} kPa (standard atmosphere at {z:.0f} m)")
+        return Site(p, f"{p / 1000:.2f} kPa (standard atmosphere at {z:.0f} m)", elevation=z)
 
 
 def _design(r: _Reader, atm: float) -> Design:
@@ -489,7 +514,7 @@ def _valve(r: _Reader) -> Valve | None:
     return Valve(cv, char, rangeability, xt, "cv" if "cv" in v else "kv")
 
 
-def _load(r: _Reader, design: Design) -> Load:
+def _load(r: _Reader, design: Design, weather: bool) -> Load:
     table = r.table("load", required=False) or {}
     default_varies = "inlet-temperature" if design.medium == "air" else "flow"
     if "varies" not in table:
@@ -519,7 +544,87 @@ def _load(r: _Reader, design: Design) -> Load:
     if total > HOURS_A_YEAR:
         raise InputError("load.bins", f"hold {total:,.0f} h in all, more than a year has; accepted: at most "
                                       f"8,784 h (a leap year) across the bins.")
-    return Load(varies, minimum, tuple(bins))
+    year = _year_keys(r, table, design, varies, weather)
+    return Load(varies, minimum, tuple(bins), **year)
+
+
+#: Keys of [load] that shape the weather year: they take effect only with site.weather.
+_WEATHER_KEYS = ("outdoor_air_minimum", "return_air_temperature", "mixed_air_temperature", "season", "daily_hours")
+_MONTHS = ("jan", "feb", "mar", "apr", "may", "jun", "jul", "aug", "sep", "oct", "nov", "dec")
+_HOUR = re.compile(r"^\s*(\d{1,2}):00\s*-\s*(\d{1,2}):00\s*$")
+
+
+def _year_keys(r: _Reader, table: dict, design: Design, varies: str, weather: bool) -> dict:
+    """Outdoor-air share, mixing and schedule, for the hours of a weather year."""
+    given = [key for key in _WEATHER_KEYS if key in table]
+    if not weather:
+        if given:
+            raise InputError(f"load.{given[0]}", "takes effect only with a weather file (site.weather); load "
+                                                 "bins give the coil's entering temperature itself.")
+        return {}
+    if design.medium != "air" or varies != "inlet-temperature":
+        raise InputError("site.weather", "gives the outdoor air entering an air coil whose load varies with its "
+                                         "entering temperature (medium = \"air\", load.varies = "
+                                         "\"inlet-temperature\"); this unit's load does not.")
+    out: dict = {}
+    share = r.number(table, "load", "outdoor_air_minimum", 0.0, 1.0, default=1.0, low_open=True)
+    out["outdoor_air_minimum"] = share
+    if share < 1.0:
+        if "return_air_temperature" not in table:
+            raise InputError("load.return_air_temperature", "is required where load.outdoor_air_minimum is below "
+                                                            "1: the temperature of the air mixed with the outdoor air.")
+        t_return = r.quantity(table, "load", "return_air_temperature", q.temperature)
+        low, high = RETURN_AIR_RANGE
+        if not low <= t_return <= high:
+            raise InputError("load.return_air_temperature",
+                             f"\"{table['return_air_temperature']}\" is out of range; accepted: 5 °C to 40 °C "
+                             f"(41 °F to 104 °F), air returned from a heated space.")
+        out["return_air_temperature"] = t_return
+        if "mixed_air_temperature" in table:
+            t_mixed = r.quantity(table, "load", "mixed_air_temperature", q.temperature)
+            if not COLDEST_AIR <= t_mixed < t_return:
+                raise InputError("load.mixed_air_temperature",
+                                 f"\"{table['mixed_air_temperature']}\" is not below the return air "
+                                 f"(load.return_air_temperature); an economiser mixes outdoor air into it to "
+                                 f"reach a colder set point.")
+            out["mixed_air_temperature"] = t_mixed
+    else:
+        for key in ("return_air_temperature", "mixed_air_temperature"):
+            if key in table:
+                raise InputError(f"load.{key}", "takes effect only where load.outdoor_air_minimum is below 1 "
+                                                "(the coil takes all outdoor air without it).")
+    if "season" in table:
+        out["season"] = _season(table["season"])
+    if "daily_hours" in table:
+        out["daily_hours"] = _daily_hours(table["daily_hours"])
+    return out
+
+
+def _season(text) -> tuple[int, ...]:
+    """``"Oct-Apr"`` or ``"Nov-Mar, Jun"`` → the months, 1 to 12 (a range may wrap the new year)."""
+    accepted = ("accepted: months by their first three letters, a range or a list, such as \"Oct-Apr\" or "
+                "\"Nov-Mar, Jun\".")
+    if not isinstance(text, str) or not text.strip():
+        raise InputError("load.season", f"takes the months the unit runs as text; {accepted}")
+    months: list[int] = []
+    for part in text.split(","):
+        ends = [end.strip().lower()[:3] for end in part.split("-")]
+        if len(ends) not in (1, 2) or any(end not in _MONTHS for end in ends):
+            raise InputError("load.season", f"\"{text}\" is not a season; {accepted}")
+        first, last = _MONTHS.index(ends[0]), _MONTHS.index(ends[-1])
+        span = (last - first) % 12
+        months += [(first + k) % 12 + 1 for k in range(span + 1)]
+    return tuple(sorted(set(months)))
+
+
+def _daily_hours(text) -> tuple[int, int]:
+    """``"06:00-18:00"`` → (6, 18): the hours of the day the unit runs (whole hours)."""
+    match = _HOUR.match(text) if isinstance(text, str) else None
+    if not match or int(match.group(1)) > 24 or int(match.group(2)) > 24 or match.group(1) == match.group(2):
+        raise InputError("load.daily_hours", f"{text!r} is not a span of hours; accepted: whole hours, start "
+                                             f"and stop, such as \"06:00-18:00\" or \"22:00-06:00\" (past "
+                                             f"midnight); local standard time, as in the weather file.")
+    return int(match.group(1)) % 24, int(match.group(2)) % 24 or 24
 
 
 def _geometry(r: _Reader) -> Geometry | None:

@@ -251,3 +251,39 @@ def design_steam_temperature_for(coil: CoilModel, load, temperature):
         mean = coil.mean_design + (t - coil.mean_design) / f ** (1.0 - n)
     out = np.where(coil.by_inlet, linear, np.where(coil.by_ntu, by_ntu, mean))
     return np.where((f <= 0.0) | (t <= outlet), np.nan, out)
+
+
+def entering_air(outdoor, share: float = 1.0, return_air: float | None = None, mixed: float | None = None):
+    """Temperature of the air entering a coil from the outdoor air [K].
+
+    Parameters
+    ----------
+    outdoor : float or ndarray
+        Outdoor dry bulb. [K]
+    share : float
+        Least outdoor-air share of the mixture (1: all outdoor air). [-]
+    return_air : float, optional
+        The air mixed with it (needed where ``share`` < 1). [K]
+    mixed : float, optional
+        The mixed temperature an economiser holds by opening the outdoor air beyond its
+        least share, where it does. [K]
+
+    Notes
+    -----
+    Adiabatic mixing of two air streams at one pressure, with cp taken equal:
+    T_mix = s·T_outdoor + (1 − s)·T_return. With an economiser, where the least share
+    leaves the mixture warmer than its set point, more outdoor air brings it to the set
+    point, or, all outdoor air still being warmer, to the outdoor temperature.
+
+    References
+    ----------
+    .. [1] ASHRAE Handbook—Fundamentals (2017), ch. 1, "Adiabatic mixing of two
+       streams of moist air".
+    """
+    t = np.asarray(outdoor, dtype=float)
+    if share >= 1.0 or return_air is None:
+        return t
+    least = share * t + (1.0 - share) * return_air
+    if mixed is None:
+        return least
+    return np.where(least <= mixed, least, np.maximum(mixed, t))

@@ -16,3 +16,6 @@ STANDARD_AIR_DENSITY = 1.204
 #: slugs [m/s] (about 50 ft/s; common practice, from memory: lines carrying flash are
 #: sized for 15 m/s or less).
 VELOCITY_LIMIT = 15.0
+#: Freezing point of water at atmospheric pressure [K]: 0 °C (273.15 K; ITS-90 puts the
+#: ice point 0.01 K below the triple point). Air below it freezes condensate held in a coil.
+FREEZING = 273.15

@@ -297,13 +297,15 @@ def pump_trap_figures(unit: Unit, required: str, stall: StallPoint, back: float,
 
 
 def purge_figures(unit: Unit, state: State, back: float, design_pressure: float, p_min: float,
-                  bin_loads: np.ndarray | None, bin_hours: np.ndarray | None) -> PurgeFigures | None:
+                  bin_loads: np.ndarray | None, bin_hours: np.ndarray | None,
+                  hours_basis: str = "bins") -> PurgeFigures | None:
     """Steam a constant purge bleeds, and its yearly cost (None without a purge size).
 
     ``state`` gives the unit's coil pressure and condensate at loads; ``p_min`` [Pa] is
     its coil pressure at the minimum load. The purge discharges with the condensate,
     against the back pressure. Yearly steam:
-    from the load bins where given (each bin at its own coil pressure), else from
+    from the load bins where given (each bin at its own coil pressure; the hours of a
+    weather year are bins of an hour each, ``hours_basis`` ``"weather"``), else from
     ``site.hours_per_year`` at the full-load rate (an upper bound).
     """
     dr = unit.drain
@@ -324,7 +326,7 @@ def purge_figures(unit: Unit, state: State, back: float, design_pressure: float,
         rates = purgemod.bled(size, p_bins, back)
         hours = float(bin_hours[running].sum())
         yearly = float((rates * bin_hours * 3600.0)[running].sum())
-        basis = "bins"
+        basis = hours_basis
     elif unit.site.hours_per_year is not None:
         hours = unit.site.hours_per_year
         yearly = design_rate * hours * 3600.0

@@ -82,6 +82,8 @@ def to_dict(r: Result) -> dict:
         },
         "stalled_hours": r.stalled_hours,
         "total_hours": r.total_hours,
+        "hours_from": _hours_from(r),
+        "weather": _weather(r),
         "points": points,
         "drainage": {
             "installed": r.drainage.installed,
@@ -133,6 +135,32 @@ def _advice(r: Result):
     return {"mode": a.mode, "fit": a.fit, "margin_kpa": q.kpa(MARGIN),
             "text": list(a.lead) + [f"{m.key}: {m.note}" for m in a.changes]
             + [f"{m.key}: {m.note}" for m in a.cannot] + list(a.notes)}
+
+
+def _hours_from(r: Result) -> str | None:
+    """Where ``stalled_hours`` and ``total_hours`` come from: ``"weather"`` (the weather
+    file's operating hours), ``"bins"`` (the load bins), or None (no hours)."""
+    if r.year is not None:
+        return "weather"
+    return "bins" if r.stalled_hours is not None else None
+
+
+def _weather(r: Result):
+    y = r.year
+    if y is None:
+        return None
+    return {
+        "file": y.file, "format": y.form, "station": y.station, "station_elevation_m": y.station_elevation,
+        "hours_in_file": y.hours, "hours_scheduled": y.scheduled, "hours_no_load": y.no_load,
+        "hours_operating": y.operating, "hours_below_minimum_load": y.below_minimum,
+        "hours_above_full_load": y.above_full, "hours_stalled": y.stalled,
+        "hours_stalled_freezing": y.stalled_freezing, "longest_stalled_freezing_run_h": y.longest_freezing_run,
+        "heating_dry_bulb_996_c": q.celsius(y.dry_bulb_996), "heating_dry_bulb_990_c": q.celsius(y.dry_bulb_990),
+        "entering_at_996_c": q.celsius(y.entering_996),
+        "stated_dry_bulb_996_c": q.celsius(y.stated_996), "stated_dry_bulb_990_c": q.celsius(y.stated_990),
+        "load_bands": [{"load_from": lower, "load_to": upper, "hours": hours, "stalled_hours": stalled}
+                       for lower, upper, hours, stalled in y.bands],
+    }
 
 
 def _trap(r: Result):

@@ -7,6 +7,7 @@ import io
 
 from stallcheck.files import quantities as q
 from stallcheck.inputs import Unit
+from stallcheck.physics.constants import FREEZING
 from stallcheck.render import advice, chart, page, terminal, words
 from stallcheck.result import Result
 
@@ -85,8 +86,12 @@ def markdown(unit: Unit, r: Result, system: str, version: str, date: str, pictur
         sentence = words.valve_floods(s, system, atm)
         out.append(sentence[:1].upper() + sentence[1:] + ".")
     if r.stalled_hours is not None:
-        out.append(f"Stalled {r.stalled_hours:,.0f} h of the {r.total_hours:,.0f} h in the load bins.")
+        sentence = words.stalled_hours(r)
+        out.append(sentence[:1].upper() + sentence[1:] + ".")
     out.append("")
+    year = terminal.year_section(r, system, 78)
+    if year:
+        out += ["## The site's year", "", "```text", page.plain(year[1:], 78).rstrip(), "```", ""]
 
     dn = r.drainage
     out += ["## Verdict", "",
@@ -160,6 +165,37 @@ def _figures(r: Result, show) -> list[str]:
     return ["## Valve and drain figures", "", "| | |", "|---|---|"] + [f"| {a} | {b} |" for a, b in rows] + [""]
 
 
+def _year_picture(ax, r: Result, system: str) -> None:
+    """The weather year on ``ax``: operating hours by entering temperature, stalled hours
+    shaded, with freezing and the design entering temperature marked."""
+    import numpy as np
+
+    y = r.year
+    entering = np.asarray(q.convert_array(y.entering[y.running], "temperature", system), dtype=float)
+    stalled = y.stalled_hours[y.running]
+    step = 2.0 if system == "si" else 4.0
+    if entering.size:
+        edges = np.arange(np.floor(entering.min() / step) * step, entering.max() + step, step)
+    else:
+        edges = np.array([0.0, step])
+    all_hours, _ = np.histogram(entering, edges)
+    stalled_hours, _ = np.histogram(entering[stalled], edges)
+    unit = q.label("temperature", system)
+    ax.bar(edges[:-1], all_hours - stalled_hours, width=step, align="edge", color="tab:blue", alpha=0.6,
+           label="hours the trap drains")
+    ax.bar(edges[:-1], stalled_hours, width=step, align="edge", bottom=all_hours - stalled_hours, color="tab:red",
+           alpha=0.7, label="hours stalled")
+    ax.axvline(q.convert(FREEZING, "temperature", system), color="tab:cyan", lw=1.2, ls="--",
+               label="freezing")
+    ax.axvline(q.convert(y.design_inlet, "temperature", system), color="black", lw=1.2, label="design entering air")
+    ax.set_xlabel(f"air entering the coil, {unit}")
+    ax.set_ylabel("hours a year")
+    ax.set_title(f"The site's year: {y.file} ({y.stalled:,} h stalled, {y.stalled_freezing:,} h below freezing)",
+                 fontsize=9)
+    ax.grid(True, alpha=0.3)
+    ax.legend(loc="upper left", fontsize=8)
+
+
 def picture(r: Result, system: str, fmt: str) -> bytes:
     """The stall chart drawn with matplotlib, as SVG or PNG bytes.
 
@@ -182,7 +218,11 @@ def picture(r: Result, system: str, fmt: str) -> bytes:
     pressure = q.convert_array(pts.coil_pressure, "pressure", system, atm)
     back = q.convert(r.back_pressure, "pressure", system, atm)
     unit = q.label("pressure", system)
-    fig, ax = plt.subplots(figsize=(7.5, 4.5), dpi=120)
+    if r.year is None:
+        fig, ax = plt.subplots(figsize=(7.5, 4.5), dpi=120)
+    else:
+        fig, (ax, year_ax) = plt.subplots(2, 1, figsize=(7.5, 8.5), dpi=120, height_ratios=(1.1, 1.0))
+        _year_picture(year_ax, r, system)
     ax.plot(load, pressure, color="tab:blue", lw=2, label="steam pressure the coil needs")
     ax.axhline(back, color="tab:orange", lw=1.5, ls="--", label="back pressure on the trap")
     ax.axhline(0.0, color="grey", lw=0.8, ls=":", label="atmospheric (0 gauge)")

@@ -63,6 +63,8 @@ def _rows(summaries: list[Summary], system: str | None, width: int = 80):
         detail = [(printable(s.name if s.tag else s.source), "dim")]
         if s.required != s.installed:
             detail.append((f"; has {s.installed}", "dim"))
+        if s.freezing_hours:
+            detail.append((f"; {s.freezing_hours:,} h stalled below freezing", "red"))
         if s.return_pattern:
             detail.append((f"; return line {s.return_pattern}",
                            "yellow" if s.return_pattern == "intermittent" else "dim"))
@@ -123,7 +125,7 @@ def plain(summaries: list[Summary], failures: list[Failure], system: str | None,
 
 CSV_COLUMNS = ("source", "name", "tag", "stall_load_fraction", "stall_inlet_temperature_c", "required",
                "installed", "adequate", "stalled_hours", "top_finding", "top_severity", "exit_status", "error",
-               "return_line_pattern")
+               "return_line_pattern", "hours_from", "stalled_freezing_hours", "heating_dry_bulb_996_c")
 
 
 def records(summaries: list[Summary], failures: list[Failure]) -> list[dict]:
@@ -131,7 +133,8 @@ def records(summaries: list[Summary], failures: list[Failure]) -> list[dict]:
     known), the failures last with their messages under ``error``."""
     out = [dict(zip(CSV_COLUMNS, (s.source, s.name, s.tag, s.stall_fraction, q.celsius(s.stall_inlet_temperature),
                                   s.required, s.installed, s.adequate, s.stalled_hours, s.top_code,
-                                  s.top_severity, s.exit_status, None, s.return_pattern)))
+                                  s.top_severity, s.exit_status, None, s.return_pattern, s.hours_from,
+                                  s.freezing_hours, q.celsius(s.dry_bulb_996))))
            for s in summaries]
     out += [dict.fromkeys(CSV_COLUMNS) | {"source": f.source, "exit_status": 2, "error": f.message} for f in failures]
     return out

@@ -8,6 +8,7 @@ without loading rich at all).
 from __future__ import annotations
 
 from stallcheck.files import quantities as q
+from stallcheck.physics.constants import FREEZING
 from stallcheck.render import advice, chart, page, words
 from stallcheck.render.page import BLANK, Para, bullets, runs
 from stallcheck.result import Result
@@ -119,8 +120,9 @@ def report(result: Result, system: str, width: int = 80) -> list:
     if s.valve_load_fraction is not None:
         parts.append(_para(f"{words.valve_floods(s, system, atm)} (see control valve)", style="red"))
     if r.stalled_hours is not None:
-        parts.append(_para(f"stalled {r.stalled_hours:,.0f} h of {r.total_hours:,.0f} h in the load bins"))
+        parts.append(_para(words.stalled_hours(r)))
     parts.append(BLANK)
+    parts += year_section(r, system, width)
 
     dr = r.drainage
     verdict = runs(f"  installed {dr.installed}, required {dr.required}: ",
@@ -280,6 +282,67 @@ def _devices(r: Result, system: str) -> list:
                                f"{q.show_about(VELOCITY_LIMIT, 'velocity', system)})"))
         parts.append(BLANK)
     return parts
+
+
+#: Marks of the year's table: an hour the trap drains, an hour stalled.
+YEAR_MARKS = {"drains": "=", "stalled": "#"}
+
+
+def year_section(r: Result, system: str, width: int = 80) -> list:
+    """The site's weather year: hours run and stalled, freeze exposure, the heating
+    design condition, and a table of the hours by load band (stalled hours marked)."""
+    y = r.year
+    if y is None:
+        return []
+
+    def t(k):
+        return q.show(k, "temperature", system)
+
+    where = f"{y.file}: {y.station}" if y.station else y.file
+    elevation = (f", {q.convert(y.station_elevation, 'length', system):,.0f} {q.label('length', system)}"
+                 if y.station_elevation is not None else "")
+    parts = [_heading("The site's year"), _para(f"{where} ({y.form.upper()}{elevation}), {y.hours:,} h")]
+    off = y.hours - y.scheduled
+    parts.append(_para(f"runs {y.operating:,} h; {y.no_load:,} h need no heat"
+                       + (f", {off:,} h are outside its season and hours" if off else "")))
+    freezing = (f"; {y.stalled_freezing:,} h of them with the air entering below {t(FREEZING)}, "
+                f"{y.longest_freezing_run:,} h at a stretch at the longest" if y.stalled_freezing else
+                f"; none with the air entering below {t(FREEZING)}")
+    parts.append(_para(f"stalled {y.stalled:,} h{freezing}", style="red" if y.stalled_freezing else None))
+    stated = (f" (the file states {t(y.stated_996)} and {t(y.stated_990)})" if y.stated_996 is not None
+              and y.stated_990 is not None else "")
+    parts.append(_para(f"heating design dry bulb from its hours: 99.6 % {t(y.dry_bulb_996)}, 99 % "
+                       f"{t(y.dry_bulb_990)}{stated}"))
+    mixed = (f"; at 99.6 % the mixed air enters at {t(y.entering_996)}"
+             if abs(y.entering_996 - y.dry_bulb_996) > 1e-9 else "")
+    parts.append(_para(f"design entering air {t(y.design_inlet)}{mixed}; {y.above_full:,} h colder (full load, "
+                       f"the air leaving short of its set point)"
+                       + (f"; {y.below_minimum:,} h ask less than the minimum load and run at it"
+                          if y.below_minimum else "")))
+    parts.append(_year_table(y, width))
+    parts += [_para(f"{YEAR_MARKS['drains']} hours the trap drains   {YEAR_MARKS['stalled']} hours stalled"),
+              _para(words.TYPICAL_YEAR + ".", style="dim"), BLANK]
+    return parts
+
+
+def _year_table(y, width: int) -> page.Pre:
+    """Operating hours by load band as text bars, stalled hours marked."""
+    label_width, count_width = 10, 9
+    room = max(10, min(width, 100) - 2 - label_width - count_width - 1)
+    most = max((hours for _, _, hours, _ in y.bands), default=0) or 1
+    lines = []
+    for lower, upper, hours, stalled in y.bands:
+        band = f"{lower * 100:.0f}-{upper:.0%}" if upper is not None else f"{lower:.0%}+"
+        drains = hours - stalled
+        bar_stalled = round(stalled / most * room)
+        bar_drains = round(drains / most * room)
+        if stalled and not bar_stalled:
+            bar_stalled = 1
+        if drains and not bar_drains:
+            bar_drains = 1
+        lines.append(((f"  {band:>{label_width - 2}}", None), (f"{hours:>{count_width - 2},} h ", None),
+                      (YEAR_MARKS["stalled"] * bar_stalled, "red"), (YEAR_MARKS["drains"] * bar_drains, None)))
+    return page.Pre(tuple(lines))
 
 
 def line_summary(r: Result) -> list:

@@ -84,11 +84,33 @@ FINDINGS: dict[str, dict[str, str]] = {
         "valve": "from {inlet:temperature-} up to {upper:temperature+}, where the valve holds the coil under",
         "why": "): condensate held in the tubes can freeze and split them.",
         "hours": " The load bins put {hours:,.0f} h a year in that band.",
+        "year": " In the weather year it runs stalled with the air below freezing {hours:,.0f} h, {run:,.0f} h "
+                "at a stretch at the longest.",
+        "year-none": " No operating hour of the weather year falls there; a colder year than the typical one "
+                     "can.",
         "drained": " The installed {installed} drains it; test it before each winter, and keep a low-limit "
                    "(freezestat) on the leaving air.",
         "drain": " Drain it so it cannot hold water at any load (a pump-trap, or a vacuum breaker where "
                  "gravity suffices), and consider a preheat coil or face-and-bypass control with the steam "
                  "valve held open.",
+    },
+    "design-warmer-than-site": {
+        "": "The coil was selected for air entering at {design:temperature}, warmer than this site's heating "
+            "design condition: ",
+        "outdoor": "the weather file's 99.6 % dry bulb is {dry_bulb:temperature}",
+        "mixed": "the weather file's 99.6 % dry bulb, {dry_bulb:temperature}, enters the coil mixed at "
+                 "{entering:temperature}",
+        "why": ". Colder than its design for {hours:,.0f} h of the year's operating hours, the coil runs at full "
+               "load with the air leaving below its set point, and steam held short in freezing air puts the "
+               "tubes at risk. Check the selection with air entering at {entering:temperature-} (more coil or "
+               "more steam pressure), then check the stall point again.",
+    },
+    "site-elevation-differs": {
+        "": "The weather file's station ({name}) is at {station:length}",
+        "given": ", but site.elevation is {site:length}",
+        "none": ", but the unit file gives no elevation, so gauge readings are taken at sea level (101.325 kPa)",
+        "fix": ": the atmosphere differs by {dp:differential}. Give the site's own elevation in site.elevation "
+               "(the station's, {station:length}, where the unit is near it and at about its height).",
     },
     "lift-after-trap": {
         "": "Condensate is lifted {lift:length} straight after the trap of a coil that stalls: the lift adds "
@@ -432,6 +454,20 @@ def coefficient(cv: float, given_as: str, needed: bool = False) -> str:
     a ``needed`` one rounded up to three figures (a valve of it does the job)."""
     value = cv / q.CV_PER_KV if given_as == "kv" else cv
     return f"{'Kv' if given_as == 'kv' else 'Cv'} {cv_up(value) if needed else f'{value:.3g}'}"
+
+
+def stalled_hours(r) -> str | None:
+    """How many hours a year the unit runs stalled, and out of what (None without hours)."""
+    if r.stalled_hours is None:
+        return None
+    if r.year is not None:
+        return f"stalled {r.stalled_hours:,.0f} h of the {r.total_hours:,.0f} h it runs in the weather year"
+    return f"stalled {r.stalled_hours:,.0f} h of the {r.total_hours:,.0f} h in the load bins"
+
+
+#: Said wherever hours from a weather file are shown.
+TYPICAL_YEAR = ("hours from a typical year are typical, not a guarantee: a colder or longer winter stalls "
+                "the coil longer")
 
 
 def down_to(minimum: float) -> str:
