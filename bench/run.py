@@ -8,7 +8,7 @@ Prints medians of ``--repeat`` runs (default 3), interleaved with their floors:
 * ``stallcheck --help`` against ``python -c pass``;
 * ``stallcheck check`` of a steam-and-air and a steam-and-water sample unit against
   ``python -c "import numpy, typer, rich"`` (the floor of any command that prints a
-  result);
+  result); the weather sample against itself without its weather file;
 * ``stallcheck explore`` to its first screen, in a pseudo-terminal, against the same
   floor; and one what-if (a key's analysis and redraw), timed inside the app;
 * ``stallcheck survey`` of ``--units`` invented units (default 10,000 and 100,000), from
@@ -38,6 +38,7 @@ from pathlib import Path
 ROOT = Path(__file__).resolve().parent.parent
 SAMPLE = ROOT / "sample_units" / "us_outdoor_air_preheat.toml"
 WATER = ROOT / "sample_units" / "si_water_heater.toml"
+WEATHER = ROOT / "sample_units" / "us_makeup_air_greensboro.toml"
 BAD = ROOT / "tests" / "bad_units" / "64_return_hotter_than_boiling.toml"  # refused after the steam tables
 ENV = dict(os.environ, NO_COLOR="1")
 # Measure the program as installed, with its modules compiled once: some machines set
@@ -106,7 +107,7 @@ def to_csv(units: list[dict]) -> str:
 
 #: Targets (issue: a check in a third of a second): ratio to the floor, ms per unit or
 #: per what-if, MB at the largest survey.
-TARGETS = {"check": 1.5, "refusal": 1.5, "explore": 2.0, "what-if": 30.0, "survey CSV": 0.15,
+TARGETS = {"check": 1.5, "weather": 1.5, "refusal": 1.5, "explore": 2.0, "what-if": 30.0, "survey CSV": 0.15,
            "survey TOML": 0.4, "memory": 200.0}
 
 
@@ -160,6 +161,15 @@ def first_screen(cmd: list[str], marker: bytes = b"stall point") -> float:
         os.close(fd)
 
 
+def _without_weather() -> Path:
+    """The weather sample with its weather file and schedule taken out (a temporary file)."""
+    keep = [line for line in WEATHER.read_text(encoding="utf-8").splitlines()
+            if not line.startswith(("weather =", "season =", "daily_hours ="))]
+    path = Path(tempfile.gettempdir()) / "stallcheck-bench-no-weather.toml"
+    path.write_text("\n".join(keep) + "\n", encoding="utf-8")
+    return path
+
+
 def ratios(repeat: int) -> None:
     py = sys.executable
     floor = [py, "-c", "import numpy, typer, rich"]
@@ -168,6 +178,8 @@ def ratios(repeat: int) -> None:
         ("check, steam and air", [py, "-m", "stallcheck", "check", str(SAMPLE)], "floor", floor, "check"),
         ("check, steam and water", [py, "-m", "stallcheck", "check", str(WATER)], "floor", floor, "check"),
         ("refusal of a bad file", [py, "-m", "stallcheck", "check", str(BAD)], "floor", floor, "refusal"),
+        ("check with weather", [py, "-m", "stallcheck", "check", str(WEATHER)], "without",
+         [py, "-m", "stallcheck", "check", str(_without_weather())], "weather"),
     ]
     for name, cmd, floor_name, floor_cmd, target in pairs:
         run(cmd), run(floor_cmd)  # warm-up: compiled modules and the units cache in place

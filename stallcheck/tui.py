@@ -329,7 +329,7 @@ class Explorer(App):
 
     def _write(self, path: Path) -> None:
         try:
-            atomic.write_new(path, self._text(), "save", force=True, inputs=(self.original.source,))
+            atomic.write_new(path, self._text(path.parent), "save", force=True, inputs=(self.original.source,))
         except InputError as exc:
             self._say(f"not saved: {exc}")
             return
@@ -337,16 +337,17 @@ class Explorer(App):
         self.kept = self.unit
         self._say(f"saved {path}")
 
-    def _text(self) -> str:
+    def _text(self, folder: Path) -> str:
         """The user's file with only the changed values rewritten; a unit with no file
-        behind it (or one that cannot be read now) is written whole."""
+        behind it (or one that cannot be read now) is written whole. ``folder``: where
+        it is saved (a weather file is named from there)."""
         from stallcheck.files import unitfile
 
         try:
             text = unitfile.read_text(self.original.source)
         except InputError:
-            return unitwriter.dumps(self.unit, self.system)
-        return unitwriter.edit(text, self.original, self.unit, self.system)
+            return unitwriter.dumps(self.unit, self.system, folder)
+        return unitwriter.edit(text, self.original, self.unit, self.system, folder)
 
     def _say(self, message: str) -> None:
         self.message = message

@@ -7,6 +7,7 @@ from iapws import IAPWS97
 
 from stallcheck import analysis
 from stallcheck.files import quantities, unitfile
+from stallcheck.physics import atmosphere
 from stallcheck.physics import drainage, properties
 
 PSI = 6894.757
@@ -37,8 +38,8 @@ def test_return_temperatures_below_atmospheric_boiling():
 
 def test_standard_atmosphere_table():
     # Published: ICAO/ISO 2533 standard atmosphere table, 1500 m: 84.56 kPa; 3000 m: 70.12 kPa.
-    assert quantities.atmosphere_at(1500.0) / 1000 == pytest.approx(84.56, abs=0.02)
-    assert quantities.atmosphere_at(3000.0) / 1000 == pytest.approx(70.12, abs=0.02)
+    assert atmosphere.pressure_at(1500.0) / 1000 == pytest.approx(84.56, abs=0.02)
+    assert atmosphere.pressure_at(3000.0) / 1000 == pytest.approx(70.12, abs=0.02)
 
 
 def test_back_pressure_above_design_pressure_stalls_everywhere():

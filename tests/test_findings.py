@@ -14,6 +14,7 @@ from __future__ import annotations
 
 import copy
 import math
+from pathlib import Path
 
 import pytest
 from iapws import IAPWS97
@@ -504,3 +505,74 @@ def test_surge_near_the_rating_at_80_percent():
         rating = peak / share
         f = found(analyse(drain={**tables, "return_rating": f"{rating / 1000!r} kPaa"}), "hydraulic-shock")
         assert (f.severity if f else None) == expected, share
+
+
+# --- the site's weather year -------------------------------------------------------------------
+
+#: NREL's TMY3 year for Greensboro NC (USAF 723170), dry bulb only, as the sample ships it.
+GREENSBORO = str(Path(__file__).resolve().parent.parent / "sample_units" / "weather"
+                 / "greensboro_723170_tmy3_drybulb.csv")
+
+
+def greensboro_hours():
+    """The year's dry bulbs [°C] and the station's elevation [m], read with the csv module."""
+    import csv
+
+    with open(GREENSBORO, newline="", encoding="utf-8") as handle:
+        rows = list(csv.reader(handle))
+    return [float(row[2]) for row in rows[2:]], float(rows[0][6])
+
+
+def test_a_coil_selected_warmer_than_the_sites_996_condition_is_told_so():
+    # ASHRAE Handbook—Fundamentals: the 99.6 % heating dry bulb has 0.4 % of the hours
+    # at or below it; by hand, the 36th coldest of 8,760 hours.
+    hours, _ = greensboro_hours()
+    t996 = sorted(hours)[35] + 273.15
+    r = analyse(site={"weather": GREENSBORO, "elevation": "273 m"}, design={"inlet_temperature": "20 degF"})
+    f = found(r, "design-warmer-than-site")
+    assert f is not None and f.severity == "warning" and f.parts == ("", "outdoor", "why")
+    assert f.facts["dry_bulb"] == pytest.approx(t996) and f.facts["entering"] == pytest.approx(t996)
+    assert f.facts["design"] == pytest.approx(f_to_k(20.0))
+    # the hours colder than the design, counted by hand (the unit runs all year)
+    assert f.facts["hours"] == sum(1 for t in hours if t + 273.15 < f_to_k(20.0))
+    # a selection colder than the 99.6 % condition: nothing to say
+    assert found(analyse(site={"weather": GREENSBORO, "elevation": "273 m"},
+                         design={"inlet_temperature": "10 degF"}), "design-warmer-than-site") is None
+    # mixed air: the condition is the air entering the coil, 30 % outdoor air at the 99.6 %
+    # dry bulb with return air at 20 °C (adiabatic mixing, ASHRAE Fundamentals ch. 1)
+    mixed = analyse(site={"weather": GREENSBORO, "elevation": "273 m"}, design={"inlet_temperature": "53 degF"},
+                    load={"outdoor_air_minimum": 0.3, "return_air_temperature": "20 degC"})
+    g = found(mixed, "design-warmer-than-site")
+    assert g is not None and g.parts[1] == "mixed"
+    assert g.facts["entering"] == pytest.approx(0.3 * t996 + 0.7 * 293.15)
+
+
+@pytest.mark.parametrize("side", (0.95, 1.05))
+def test_a_station_more_than_50_m_from_the_sites_elevation_is_noted(side):
+    # 50 m moves the standard atmosphere about 0.6 kPa (ISO 2533: 101.325 kPa at 0 m,
+    # 100.73 kPa at 50 m), the smallest division of a low-pressure gauge (1/10 psi =
+    # 0.69 kPa; common practice). The station's elevation by hand from the file's header.
+    _, station = greensboro_hours()
+    assert station == 273.0
+    r = analyse(site={"weather": GREENSBORO, "elevation": f"{station - side * 50.0!r} m"})
+    f = found(r, "site-elevation-differs")
+    assert (f is not None) == (side > 1)
+    if f is not None:
+        assert f.severity == "info" and f.parts[1] == "given" and f.facts["station"] == station
+    # no elevation given: sea level is taken, 273 m off
+    bare = found(analyse(site={"weather": GREENSBORO}), "site-elevation-differs")
+    assert bare is not None and bare.parts[1] == "none"
+    # an atmospheric pressure given is the site's own: the station is not compared
+    assert found(analyse(site={"weather": GREENSBORO, "atmospheric_pressure": "98 kPaa"}),
+                 "site-elevation-differs") is None
+
+
+def test_freeze_risk_with_a_weather_file_counts_the_years_stalled_freezing_hours():
+    # a 3 ft lift stalls the base coil in its range; every hour the air is below freezing
+    # and at or above the stall point's entering temperature counts (by hand)
+    r = analyse(site={"weather": GREENSBORO, "elevation": "273 m"}, drain={"lift": "3 ft"}, load={"minimum": 0.0})
+    f = found(r, "freeze-risk")
+    assert f is not None and "year" in f.parts
+    hours, _ = greensboro_hours()
+    t_stall = r.stall.inlet_temperature - 273.15
+    assert f.facts["hours"] == sum(1 for t in hours if t_stall <= t < 0.0) > 0

@@ -164,3 +164,25 @@ def test_the_valve_printed_under_what_to_do_drains_a_valve_flooded_coil(cv):
     assert printed == line.remedy.value   # the JSON's value_si is the figure printed
     fitted = analyse(valve={"cv": printed}, load={"minimum": 0.9})
     assert fitted.drainage.adequate and fitted.stall.valve_load_fraction is None
+
+
+@pytest.mark.parametrize("system", SYSTEMS)
+def test_the_entering_temperature_a_warm_selection_is_told_to_check_removes_the_finding(system):
+    from test_findings import GREENSBORO
+
+    site = {"weather": GREENSBORO, "elevation": "273 m"}
+    r = analyse(site=site, design={"inlet_temperature": "20 degF"})
+    text = message(r, "design-warmer-than-site", system)
+    printed = figure(text, "Check the selection with air entering at", "°F|°C").replace("°F", "degF").replace(
+        "°C", "degC")
+    assert found(analyse(site=site, design={"inlet_temperature": printed}), "design-warmer-than-site") is None
+
+
+@pytest.mark.parametrize("system", SYSTEMS)
+def test_the_station_elevation_printed_removes_the_elevation_note(system):
+    from test_findings import GREENSBORO
+
+    r = analyse(site={"weather": GREENSBORO})
+    text = message(r, "site-elevation-differs", system)
+    printed = figure(text, "the station's,", "ft|m")
+    assert found(analyse(site={"weather": GREENSBORO, "elevation": printed}), "site-elevation-differs") is None

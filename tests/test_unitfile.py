@@ -7,6 +7,7 @@ from conftest import BASE_UNIT
 
 from stallcheck.errors import InputError
 from stallcheck.files import quantities, unitfile
+from stallcheck.physics import atmosphere
 
 PSI = 6894.757
 
@@ -31,7 +32,7 @@ def test_good_unit_in_si():
 
 def test_gauge_follows_elevation():
     u = parse(**{"[design]": '[site]\nelevation = "1600 m"\n[design]'})
-    atm = quantities.atmosphere_at(1600)
+    atm = atmosphere.pressure_at(1600)
     assert u.site.atmospheric_pressure == pytest.approx(atm)
     assert u.supply_pressure == pytest.approx(atm + 15 * PSI)
 

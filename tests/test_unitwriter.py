@@ -2,6 +2,7 @@
 
 import math
 from dataclasses import asdict
+from pathlib import Path
 
 import pytest
 from conftest import SAMPLES
@@ -33,7 +34,14 @@ def test_every_sample_round_trips_in_both_unit_systems(sample, system):
     for key in ("source", "defaults", "warnings", "system"):
         a.pop(key), b.pop(key)
     a["site"].pop("basis"), b["site"].pop("basis")
+    weather = a["site"].pop("weather"), b["site"].pop("weather")
     _close(a, b)
+    if unit.site.weather is not None:
+        # the same file, named by its absolute path
+        assert again.site.weather.resolved == unit.site.weather.resolved
+        assert (again.site.weather.dry_bulb == unit.site.weather.dry_bulb).all()
+    else:
+        assert weather == (None, None)
     assert again.system == system
 
 
@@ -52,14 +60,14 @@ def test_editing_a_sample_changes_only_the_changed_lines(sample):
     changed = original
     for knob in ("lift", "return", "fill", "design", "minimum"):
         changed = tui.nudged(changed, knob, +1, original.system)
-    edited = unitwriter.edit(text, original, changed, original.system)
+    edited = unitwriter.edit(text, original, changed, original.system, folder=sample.parent)
     diff = [line for line in difflib.unified_diff(text.splitlines(), edited.splitlines(), lineterm="", n=0)
             if line[:1] in "+-" and not line.startswith(("+++", "---"))]
     removed = [line[1:] for line in diff if line.startswith("-")]
     changed_keys = ("lift", "return_pressure", "fill_head", "steam_pressure", "minimum")
     assert all(line.split("=")[0].strip() in changed_keys for line in removed), removed
     assert len(removed) <= 5
-    again = unitfile.parse(edited, "edited.toml")
+    again = unitfile.parse(edited, str(sample.parent / "edited.toml"))
     # within the precision shown on screen
     assert again.drain.lift == pytest.approx(changed.drain.lift, abs=0.005 * 0.3048 * 10)
     assert again.drain.fill_head == pytest.approx(changed.drain.fill_head, abs=0.005 * 0.3048 * 10)
@@ -114,3 +122,19 @@ def test_a_kv_file_edited_keeps_kv_and_reads_back():
     text = unitwriter.edit(HOT_WATER, unit, changed)
     assert "kv = 44" in text and "cv =" not in text
     assert unitfile.parse(text, "heater.toml").valve.cv == pytest.approx(44 * 1.156, rel=1e-12)
+
+
+def test_a_unit_saved_in_another_folder_still_names_its_weather_file(tmp_path):
+    # explore saves a copy where the user says: the weather file's relative path is
+    # rewritten from there, and the copy reads the same year
+    from conftest import ROOT
+
+    sample = ROOT / "sample_units" / "us_makeup_air_greensboro.toml"
+    original = unitfile.load(sample)
+    for text in (unitwriter.edit(sample.read_text(encoding="utf-8"), original, original, folder=tmp_path),
+                 unitwriter.dumps(original, folder=tmp_path)):
+        saved = tmp_path / "copy.toml"
+        saved.write_text(text, encoding="utf-8")
+        again = unitfile.load(saved)
+        assert again.site.weather.resolved == original.site.weather.resolved
+        assert not Path(again.site.weather.path).is_absolute()

@@ -80,7 +80,10 @@ def test_the_folders_keep_the_pipeline_in_one_direction():
     # files -> inputs -> physics -> analysis -> result -> render; commands on top.
     allowed = {
         "physics": ("stallcheck.physics", "stallcheck.errors", "stallcheck.inputs", "stallcheck.result"),
-        "files": ("stallcheck.files", "stallcheck.errors", "stallcheck.inputs", "stallcheck.physics.constants"),
+        # gauge readings convert with the site's atmosphere: the constants, and the
+        # standard atmosphere's formula (ISO 2533) for an elevation
+        "files": ("stallcheck.files", "stallcheck.errors", "stallcheck.inputs", "stallcheck.physics.constants",
+                  "stallcheck.physics.atmosphere"),
     }
     for folder, ok in allowed.items():
         for path in (PACKAGE / folder).glob("*.py"):

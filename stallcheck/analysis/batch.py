@@ -401,7 +401,7 @@ def _analyse(units: list[Unit], systems: list[str], tabulate: bool = True, compl
             trap_min_differential=float(b.trap_min[i]), lift=float(b.lift[i]), fill_head=float(b.fill_height[i]),
             supply_pressure=float(b.supply[i]), design=d, stall=s, points=points, stalled_hours=stalled_hours,
             total_hours=total_hours, drainage=drains[i], valve=valves[i], findings=(),
-            assumptions=_assumptions(u, bool(clipped[i]), traps[i]) if complete else (), trap=traps[i],
+            assumptions=_assumptions(u, bool(clipped[i]), traps[i], systems[i]) if complete else (), trap=traps[i],
             pump_trap=pump, purge=purge, flash=flashes[i], remedies=fixes[i], warnings=u.warnings, return_line=line,
             surge=shock, year=year,
             set_point_floor_load=float(floor_load[i]))
@@ -713,7 +713,7 @@ def _hours(unit: Unit, stall_fraction: float, load, hours,
     return float(hours[stalled].sum()), float(hours.sum())
 
 
-def _assumptions(unit: Unit, clipped: bool, trap) -> tuple[str, ...]:
+def _assumptions(unit: Unit, clipped: bool, trap, system: str = "si") -> tuple[str, ...]:
     d = unit.design
     method = ("NTU: condensing steam, ε = 1 − exp(−NTU), UA fixed by the design point"
               if d.method == "ntu" else
@@ -735,6 +735,8 @@ def _assumptions(unit: Unit, clipped: bool, trap) -> tuple[str, ...]:
     if unit.valve is not None:
         out.append("Valve: IEC 60534-2-1 with γ = 1.30 for steam, F_P = 1, inherent characteristic.")
     out.append(_trap_basis(trap))
+    if unit.site.weather is not None:
+        out.append(_year_basis(unit, system))
     if d.method == "mean-temperature" and unit.load.varies == "flow":
         out.append("Mean temperature with the flow varying: where the method would ask for steam colder than "
                    "the leaving set point, the set point's saturation temperature is used (a lower bound on "
@@ -744,6 +746,29 @@ def _assumptions(unit: Unit, clipped: bool, trap) -> tuple[str, ...]:
                    "those points are held at the bottom of the steam tables (0 °C, 0.61 kPa(abs)).")
     out.extend(f"Default: {text}." for text in unit.defaults)
     return tuple(out)
+
+
+def _year_basis(unit: Unit, system: str) -> str:
+    """What the hours of the weather year stand for, in words."""
+    ld, w = unit.load, unit.site.weather
+
+    def t(kelvin):
+        return q.show(kelvin, "temperature", system)
+
+    if ld.outdoor_air_minimum >= 1.0:
+        air = "all outdoor air"
+    else:
+        air = (f"at least {ld.outdoor_air_minimum:.0%} outdoor air mixed with return air at "
+               f"{t(ld.return_air_temperature)}")
+        if ld.mixed_air_temperature is not None:
+            air += f", more outdoor air where it brings the mixture down to {t(ld.mixed_air_temperature)}"
+    text = (f"Hours: each hour of the weather file {w.path} gives the air entering the coil ({air}; mixing "
+            f"taken even, without stratification); the unit runs where that air is below the set point"
+            + ("" if not ld.season and ld.daily_hours is None else ", in its season and daily hours (local "
+               "standard time)") + "; days of the week and holidays are not modelled.")
+    if ld.bins:
+        text += " The load bins are not used: the weather file's hours are."
+    return text
 
 
 def _trap_basis(trap) -> str:

@@ -8,8 +8,8 @@ Codes are stable (scripts filter on them); the README lists them with their sour
 from __future__ import annotations
 
 from stallcheck.analysis import layout, remedies
-from stallcheck.files import quantities as q
 from stallcheck.inputs import Unit
+from stallcheck.physics import atmosphere
 from stallcheck.physics import coil as coilmod
 from stallcheck.physics.constants import FREEZING, VELOCITY_LIMIT
 from stallcheck.physics.devices import MOTIVE_MARGIN, RATING_SHARE
@@ -247,7 +247,7 @@ def _climate(unit: Unit, r: Result) -> list[Finding]:
         if abs(y.station_elevation - (site or 0.0)) > ELEVATION_AGREEMENT:
             out.append(Finding("site-elevation-differs", "info", ("", "given" if site is not None else "none", "fix"),
                                {"station": y.station_elevation, "site": site, "name": y.station,
-                                "dp": abs(q.atmosphere_at(site or 0.0) - q.atmosphere_at(y.station_elevation))}))
+                                "dp": abs(atmosphere.pressure_at(site or 0.0) - atmosphere.pressure_at(y.station_elevation))}))
     return out
 
 

@@ -37,6 +37,7 @@ from stallcheck.inputs import (
     Unit,
     Valve,
 )
+from stallcheck.physics.atmosphere import pressure_at
 
 #: Largest unit file read [bytes]. A unit file is a page of text.
 MAX_FILE_BYTES = 1_000_000
@@ -454,7 +455,7 @@ def _where(r: _Reader, site: dict | None) -> Site:
         if not ELEVATION_RANGE[0] <= z <= ELEVATION_RANGE[1]:
             raise InputError("site.elevation", f"\"{site['elevation']}\" is out of range; accepted: -500 m to 9000 m "
                                                f"(-1,640 ft to 29,527 ft).")
-        p = q.atmosphere_at(z)
+        p = pressure_at(z)
         return Site(p, f"{p / 1000:.2f} kPa (standard atmosphere at {z:.0f} m)", elevation=z)
 
 
@@ -550,7 +551,9 @@ def _load(r: _Reader, design: Design, weather: bool) -> Load:
 
 #: Keys of [load] that shape the weather year: they take effect only with site.weather.
 _WEATHER_KEYS = ("outdoor_air_minimum", "return_air_temperature", "mixed_air_temperature", "season", "daily_hours")
-_MONTHS = ("jan", "feb", "mar", "apr", "may", "jun", "jul", "aug", "sep", "oct", "nov", "dec")
+#: The months, as a season names them (or by their first three letters).
+MONTHS = ("january", "february", "march", "april", "may", "june", "july", "august", "september", "october",
+           "november", "december")
 _HOUR = re.compile(r"^\s*(\d{1,2}):00\s*-\s*(\d{1,2}):00\s*$")
 
 
@@ -608,13 +611,20 @@ def _season(text) -> tuple[int, ...]:
         raise InputError("load.season", f"takes the months the unit runs as text; {accepted}")
     months: list[int] = []
     for part in text.split(","):
-        ends = [end.strip().lower()[:3] for end in part.split("-")]
-        if len(ends) not in (1, 2) or any(end not in _MONTHS for end in ends):
+        ends = [_month(end) for end in part.split("-")]
+        if len(ends) not in (1, 2) or None in ends:
             raise InputError("load.season", f"\"{text}\" is not a season; {accepted}")
-        first, last = _MONTHS.index(ends[0]), _MONTHS.index(ends[-1])
+        first, last = ends[0], ends[-1]
         span = (last - first) % 12
         months += [(first + k) % 12 + 1 for k in range(span + 1)]
     return tuple(sorted(set(months)))
+
+
+def _month(word: str) -> int | None:
+    """A month's index, 0 to 11, from its name or its first three letters or more."""
+    word = word.strip().lower()
+    found = [i for i, name in enumerate(MONTHS) if len(word) >= 3 and name.startswith(word)]
+    return found[0] if len(found) == 1 else None
 
 
 def _daily_hours(text) -> tuple[int, int]:

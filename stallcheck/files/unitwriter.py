@@ -8,8 +8,11 @@ to the same unit within about 1e-8.
 from __future__ import annotations
 
 import math
+import os
+from pathlib import Path
 
 from stallcheck.files import quantities as q
+from stallcheck.files.unitfile import MONTHS
 from stallcheck.inputs import Unit
 
 #: Units written, by system: (pressure, differential, temperature, length, mass flow,
@@ -28,7 +31,7 @@ def _g(x: float) -> str:
     return f"{0.0 if abs(x) < 1e-9 else x:.9g}"
 
 
-def dumps(unit: Unit, system: str | None = None) -> str:
+def dumps(unit: Unit, system: str | None = None, folder: str | Path | None = None) -> str:
     """The unit as TOML text.
 
     Parameters
@@ -36,6 +39,9 @@ def dumps(unit: Unit, system: str | None = None) -> str:
     unit : Unit
     system : str, optional
         ``"us"`` or ``"si"``; default the unit's own.
+    folder : str or Path, optional
+        Where the text will be written: a weather file is named relative to it
+        (default: by its absolute path).
     """
     system = system or unit.system
     names = _UNITS[system]
@@ -57,8 +63,12 @@ def dumps(unit: Unit, system: str | None = None) -> str:
     if unit.tag:
         out.append(f"tag = {text(unit.tag)}")
     site = []
-    if abs(atm - q.STANDARD_ATMOSPHERE) > 1e-6:
+    if unit.site.elevation is not None:
+        site.append(f"elevation = {val(unit.site.elevation, 'length')}")
+    elif abs(atm - q.STANDARD_ATMOSPHERE) > 1e-6:
         site.append(f'atmospheric_pressure = "{_g(q.express(atm, "Pa", "kPa"))} kPaa"')
+    if unit.site.weather is not None:
+        site.append(f"weather = {text(weather_path(unit, folder))}")
     if unit.site.hours_per_year is not None:
         site.append(f"hours_per_year = {_g(unit.site.hours_per_year)}")
     if unit.site.steam_price is not None:
@@ -88,6 +98,16 @@ def dumps(unit: Unit, system: str | None = None) -> str:
         out += ["", "[valve]", coefficient, f'characteristic = "{v.characteristic}"',
                 f"rangeability = {_g(v.rangeability)}", f"xt = {_g(v.xt)}"]
     out += ["", "[load]", f'varies = "{ld.varies}"', f"minimum = {_g(ld.minimum)}"]
+    if unit.site.weather is not None:
+        out.append(f"outdoor_air_minimum = {_g(ld.outdoor_air_minimum)}")
+        if ld.return_air_temperature is not None:
+            out.append(f"return_air_temperature = {val(ld.return_air_temperature, 'temperature')}")
+        if ld.mixed_air_temperature is not None:
+            out.append(f"mixed_air_temperature = {val(ld.mixed_air_temperature, 'temperature')}")
+        if ld.season:
+            out.append(f'season = "{", ".join(MONTHS[m - 1][:3].title() for m in ld.season)}"')
+        if ld.daily_hours is not None:
+            out.append(f'daily_hours = "{ld.daily_hours[0]:02d}:00-{ld.daily_hours[1]:02d}:00"')
     for b in ld.bins:
         out += ["[[load.bins]]", (f"inlet_temperature = {val(b.inlet_temperature, 'temperature')}"
                                   if b.inlet_temperature is not None else f"load = {_g(b.load)}"),
@@ -137,6 +157,18 @@ def dumps(unit: Unit, system: str | None = None) -> str:
     return "\n".join(out) + "\n"
 
 
+def weather_path(unit: Unit, folder: str | Path | None) -> str:
+    """The unit's weather file as a file written in ``folder`` should name it: relative
+    to that folder, or absolute where no folder is given (or none relative exists)."""
+    resolved = unit.site.weather.resolved
+    if folder is None:
+        return resolved
+    try:
+        return os.path.relpath(resolved, Path(folder).resolve())
+    except ValueError:  # another drive
+        return resolved
+
+
 #: The values ``explore`` changes: unit-file key → (display kind, how to read it from a unit).
 EDITABLE = {
     "drain.lift": ("length", lambda u: u.drain.lift),
@@ -148,7 +180,8 @@ EDITABLE = {
 }
 
 
-def edit(text: str, original: Unit, changed: Unit, system: str | None = None) -> str:
+def edit(text: str, original: Unit, changed: Unit, system: str | None = None,
+         folder: str | Path | None = None) -> str:
     """The user's own unit file with only the changed values rewritten.
 
     Comments, key order, spellings and every value not changed are kept as written
@@ -165,6 +198,9 @@ def edit(text: str, original: Unit, changed: Unit, system: str | None = None) ->
         The unit as read from ``text``, and as changed.
     system : str, optional
         ``"us"`` or ``"si"`` for values the file did not give; default the unit's own.
+    folder : str or Path, optional
+        Where the text will be written: a weather file the unit names is renamed
+        relative to it where the file is saved in another folder.
     """
     import tomlkit
 
@@ -191,6 +227,12 @@ def edit(text: str, original: Unit, changed: Unit, system: str | None = None) ->
             table[name] = item
         else:
             table[name] = value
+    w = changed.site.weather
+    if w is not None and folder is not None:
+        site = doc["site"]
+        written = str(site.get("weather"))
+        if (Path(folder) / written).resolve() != Path(w.resolved).resolve():
+            site["weather"] = weather_path(changed, folder)
     return tomlkit.dumps(doc)
 
 

@@ -89,9 +89,6 @@ def markdown(unit: Unit, r: Result, system: str, version: str, date: str, pictur
         sentence = words.stalled_hours(r)
         out.append(sentence[:1].upper() + sentence[1:] + ".")
     out.append("")
-    year = terminal.year_section(r, system, 78)
-    if year:
-        out += ["## The site's year", "", "```text", page.plain(year[1:], 78).rstrip(), "```", ""]
 
     dn = r.drainage
     out += ["## Verdict", "",
@@ -101,6 +98,9 @@ def markdown(unit: Unit, r: Result, system: str, version: str, date: str, pictur
 
     out += ["## Stall chart", "", "```text", chart.plain(chart.render(r, system, width=78)), "```", ""]
     out += [f"![Stall chart]({link})" for link in pictures] + ([""] if pictures else [])
+    year = terminal.year_section(r, system, 78)
+    if year:
+        out += ["## The site's year", "", "```text", page.plain(year[1:], 78).rstrip(), "```", ""]
 
     out += _figures(r, show)
     hammer = terminal.hammer_sections(r, system)
