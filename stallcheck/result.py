@@ -20,6 +20,9 @@ CAUTIONS = (
     "Steam and condensate scald and can burst coils, traps and piping. Make a banging "
     "(water-hammering) system safe - isolate, drain and cool it - before studying it.",
 )
+#: Added to the cautions where hours come from a weather file.
+YEAR_CAUTION = ("Hours from a typical weather year are typical, not a guarantee: a colder or longer winter "
+                "stalls the coil longer.")
 
 
 

@@ -27,7 +27,7 @@ from stallcheck.physics import coil as coilmod
 from stallcheck.physics import devices, drainage, properties
 from stallcheck.physics import valve as valvemod
 from stallcheck.physics.solve import illinois
-from stallcheck.result import DesignPoint, Drainage, Points, Remedy, Result, StallPoint, ValveResult
+from stallcheck.result import CAUTIONS, YEAR_CAUTION, DesignPoint, Drainage, Points, Remedy, Result, StallPoint, ValveResult
 
 #: Specific heat of air [J/(kg·K)] (the unit-file conventions).
 AIR_CP = 1006.0
@@ -403,7 +403,7 @@ def _analyse(units: list[Unit], systems: list[str], tabulate: bool = True, compl
             total_hours=total_hours, drainage=drains[i], valve=valves[i], findings=(),
             assumptions=_assumptions(u, bool(clipped[i]), traps[i], systems[i]) if complete else (), trap=traps[i],
             pump_trap=pump, purge=purge, flash=flashes[i], remedies=fixes[i], warnings=u.warnings, return_line=line,
-            surge=shock, year=year,
+            surge=shock, year=year, cautions=CAUTIONS + ((YEAR_CAUTION,) if year is not None else ()),
             set_point_floor_load=float(floor_load[i]))
         # The rules read the finished result; their findings complete it before anyone
         # else sees it (set in place: a copy of every result costs a survey 10 % more).

@@ -319,9 +319,9 @@ def year_section(r: Result, system: str, width: int = 80) -> list:
                        f"the air leaving short of its set point)"
                        + (f"; {y.below_minimum:,} h ask less than the minimum load and run at it"
                           if y.below_minimum else "")))
-    parts.append(_year_table(y, width))
-    parts += [_para(f"{YEAR_MARKS['drains']} hours the trap drains   {YEAR_MARKS['stalled']} hours stalled"),
-              _para(words.TYPICAL_YEAR + ".", style="dim"), BLANK]
+    parts += [_para("operating hours by load, % of design:"), _year_table(y, width)]
+    parts += [_para(f"{YEAR_MARKS['drains']} hours the trap drains   {YEAR_MARKS['stalled']} hours stalled   "
+                    f"(a typical year: see the cautions)"), BLANK]
     return parts
 
 

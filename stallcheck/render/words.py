@@ -465,11 +465,6 @@ def stalled_hours(r) -> str | None:
     return f"stalled {r.stalled_hours:,.0f} h of the {r.total_hours:,.0f} h in the load bins"
 
 
-#: Said wherever hours from a weather file are shown.
-TYPICAL_YEAR = ("hours from a typical year are typical, not a guarantee: a colder or longer winter stalls "
-                "the coil longer")
-
-
 def down_to(minimum: float) -> str:
     """How far down the load range a figure holds: the unit's minimum load [-]."""
     return f"down to {minimum:.0%} load" if minimum > 0 else "at every load"
