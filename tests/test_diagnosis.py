@@ -6,7 +6,7 @@ to ranks first (the trade's reading of those symptoms: common practice)."""
 import json
 
 import pytest
-from conftest import BASE_UNIT
+from conftest import BASE_UNIT, SAMPLES
 from typer.testing import CliRunner
 
 from stallcheck import analysis
@@ -370,3 +370,18 @@ def test_us_output_shows_vacuum_as_a_compound_gauge_reads_it():
     assert quantities.show(101325 - 33863.8, "pressure", "us") == "-4.9 psig (10.0 inHg vac)"
     assert quantities.show(101325 + 1000, "pressure", "us") == "0.1 psig"
     assert "inHg" not in quantities.show(101325 - 33863.8, "pressure", "si")
+
+
+@pytest.mark.parametrize("sample", SAMPLES, ids=lambda p: p.name)
+def test_diagnose_points_to_what_to_do_only_where_the_check_lists_a_change(sample):
+    # One story: diagnose's remedy sends the user to the changes under "what to do"
+    # only where check lists one; where check says no single change helps, so does it.
+    from stallcheck.render import advice
+    from stallcheck.render.diagnosis import drain_context
+
+    r = analysis.analyse(unitfile.load(sample))
+    text = drain_context(r)["drain_advice"]
+    listed = bool(advice.advise(r, r.system).changes)
+    if not r.drainage.adequate:
+        assert ("changes under 'what to do'" in text) == listed, text
+        assert ("no single change" in text) == (not listed), text

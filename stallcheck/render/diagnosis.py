@@ -7,6 +7,7 @@ from dataclasses import dataclass
 
 from stallcheck.analysis.diagnosis import Diagnosis
 from stallcheck.files import quantities as q
+from stallcheck.render import advice
 from stallcheck.render import json as json_out
 from stallcheck.render.page import BLANK, Para, bullets, runs
 from stallcheck.render.page import heading as _heading
@@ -210,8 +211,11 @@ def drain_context(r: Result) -> dict:
                  "with the check's figures (a return or lift higher than the unit file says would explain it).")
         freeze = "Test the trap before each winter, so the coil cannot hold water at any load."
     else:
-        drain = (f"Fit {required} as the check requires (the installed {dr.installed} cannot drain it), or make one "
-                 f"of the changes under 'what to do'.")
+        # the single changes only where the check lists one that works (one story with 'what to do')
+        changes = advice.advise(r, r.system).changes
+        drain = (f"Fit {required} as the check requires (the installed {dr.installed} cannot drain it)"
+                 + (", or make one of the changes under 'what to do'." if changes else
+                    "; by the check no single change lets the installed drainage do it."))
         freeze = f"Drain the coil so it cannot hold water at any load: fit {required} as the check requires."
     return {"drain_advice": drain, "freeze_advice": freeze, "required_words": required}
 
