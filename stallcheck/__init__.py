@@ -25,3 +25,8 @@ def __getattr__(name: str):
 
         return getattr(api, name)
     raise AttributeError(f"module 'stallcheck' has no attribute {name!r}")
+
+
+def __dir__() -> list[str]:
+    """The public names, listed though they load on first use."""
+    return sorted(set(__all__) | {name for name in globals() if name.startswith("__")})

@@ -67,13 +67,25 @@ def analyse(unit: Unit | str | Path | Mapping[str, Any], units: str | None = Non
     return analysis.analyse(unit, system=units, method=method)
 
 
-def analyse_many(units: Iterable[Unit], system: str | None = None,
+def analyse_many(units: Iterable[Unit | str | Path | Mapping[str, Any]], system: str | None = None,
                  method: str | None = None) -> list[Result | StallcheckError]:
-    """Analyse many units at once (on arrays: thousands in seconds). Each item is the
-    unit's :class:`Result`, or the error that stopped it (the others go on)."""
+    """Analyse many units at once (on arrays: thousands in seconds): each a :class:`Unit`
+    or anything :func:`read_unit` takes. Each item of the answer is the unit's
+    :class:`Result`, or the error that stopped it, in order (the others go on)."""
     from stallcheck import analysis
 
-    return analysis.analyse_many(list(units), system=system, method=method)
+    read: list[Unit | StallcheckError] = []
+    for i, item in enumerate(units):
+        if isinstance(item, Unit):
+            read.append(item)
+            continue
+        try:
+            read.append(read_unit(item, name=f"unit {i + 1}"))
+        except StallcheckError as exc:
+            read.append(exc)
+    ok = [u for u in read if isinstance(u, Unit)]
+    done = iter(analysis.analyse_many(ok, system=system, method=method)) if ok else iter(())
+    return [next(done) if isinstance(u, Unit) else u for u in read]
 
 
 def to_dict(result: Result) -> dict:

@@ -267,6 +267,9 @@ class Drain:
         The pressure the line and its fittings are rated for. [Pa] absolute
     pump_rate : float or None
         A pump-trap's discharge rate while it pumps (the maker's figure). [kg/s]
+    pump_rate_volume : float or None
+        Or that rate as a volume of condensate (taken at the line's saturated liquid
+        density). [m³/s]
     check_closing_time : float
         How long the check valve on the discharge takes to close; 0: at once (a
         swing check that slams). [s]
@@ -295,6 +298,7 @@ class Drain:
     return_wall: float | None = None
     return_rating: float | None = None
     pump_rate: float | None = None
+    pump_rate_volume: float | None = None
     check_closing_time: float = 0.0
 
 

@@ -63,3 +63,14 @@ def test_the_interface_docstring_example_runs(monkeypatch):
 
     monkeypatch.chdir(ROOT)
     assert doctest.testmod(api).failed == 0
+
+
+def test_the_package_lists_its_public_names_and_analyse_many_takes_paths():
+    names = {n for n in dir(stallcheck) if not n.startswith("_")}
+    assert names == {"read_unit", "analyse", "analyse_many", "to_dict", "survey_rows", "survey_frame", "InputError",
+                     "StallcheckError"}
+    got = stallcheck.analyse_many([ROOT / "sample_units" / "si_water_heater.toml", "no-such-unit.toml",
+                                   stallcheck.read_unit(ROOT / "sample_units" / "si_glycol_exchanger.toml")])
+    assert isinstance(got[0], stallcheck.api.Result) and isinstance(got[2], stallcheck.api.Result)
+    assert isinstance(got[1], stallcheck.InputError) and "no-such-unit.toml" in str(got[1])
+    assert got[0].unit == stallcheck.analyse(ROOT / "sample_units" / "si_water_heater.toml").unit

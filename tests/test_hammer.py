@@ -164,6 +164,21 @@ def test_a_pump_trap_discharge_surge_by_hand():
     assert sh.peak == pytest.approx(p + sh.surge, rel=1e-12)
 
 
+def test_a_pump_rate_in_gpm_is_a_volume_of_condensate():
+    # 5 US gpm (3.785411784 L each, exact) of condensate moves at v = Q/A whatever its
+    # density: the velocity by hand, and the same surge as its mass flow at the
+    # line's saturated liquid density (IAPWS-IF97, iapws)
+    u = _unit('motive_pressure = "60 psig"\npump_rate = "5 gpm"\nreturn_line = "1 in"\n',
+              lift="10 ft", arrangement="pump-trap")
+    r = analysis.analyse(u)
+    v = 5 * 3.785411784e-3 / 60 / (math.pi * 0.0254 ** 2 / 4)
+    assert r.surge.velocity == pytest.approx(v, rel=1e-9)
+    rho = IAPWS97(P=r.back_pressure / 1e6, x=0).rho
+    mass = _unit(f'motive_pressure = "60 psig"\npump_rate = "{float(5 * 3.785411784e-3 / 60 * rho * 3600)!r} kg/h"\n'
+                 'return_line = "1 in"\n', lift="10 ft", arrangement="pump-trap")
+    assert analysis.analyse(mass).surge.surge == pytest.approx(r.surge.surge, rel=1e-4)
+
+
 def test_the_closing_time_printed_holds_the_surge_when_applied():
     # Advice that survives being followed: the slower closure printed, put in the unit
     # file, takes the peak below 80 % of the rating, and the finding goes.

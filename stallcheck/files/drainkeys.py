@@ -129,10 +129,11 @@ def _return_line(r, d: dict, atm: float) -> dict:
     rating = _absolute(r, d, "return_rating", atm)
     if rating is not None:
         out["return_rating"] = rating
-    rate = r.optional(d, "drain", "pump_rate", q.mass_flow)
+    rate = r.optional(d, "drain", "pump_rate", q.flow)
     if rate is not None:
-        require_positive("drain.pump_rate", rate, f", got \"{d['pump_rate']}\"")
-        out["pump_rate"] = rate
+        require_positive("drain.pump_rate", rate.value, f", got \"{d['pump_rate']}\"")
+        # pump-trap ratings are given by mass or by volume of condensate (gpm, m3/h)
+        out["pump_rate" if rate.is_mass else "pump_rate_volume"] = rate.value
     closing = r.optional(d, "drain", "check_closing_time", q.duration)
     if closing is not None:
         if not 0.0 <= closing <= 600.0:

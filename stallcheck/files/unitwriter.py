@@ -126,6 +126,9 @@ def dumps(unit: Unit, system: str | None = None, folder: str | Path | None = Non
                 ("return_length", dr.return_length, "length"), ("return_wall", dr.return_wall, "diameter"),
                 ("return_rating", dr.return_rating, "pressure"), ("pump_rate", dr.pump_rate, "mass_flow")]
     out += [f"{key} = {val(value, kind)}" for key, value, kind in optional if value is not None]
+    if dr.pump_rate_volume is not None:
+        volume = "gpm" if system == "us" else "m3/h"
+        out.append(f'pump_rate = "{_g(q.express(dr.pump_rate_volume, "m**3/s", volume))} {volume}"')
     if dr.return_pitch is not None:
         out.append(f'return_pitch = "{_g(dr.return_pitch * 100.0)} %"')
     if dr.return_material != "steel":

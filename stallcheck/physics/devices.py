@@ -473,7 +473,7 @@ def surge_figures(u: Unit, pump: PumpTrapFigures | None, back_pressure: float,
     area = math.pi * dr.return_line ** 2 / 4.0
     rho = float(properties.liquid_density(back_pressure))
     if pump is not None and pump.installed:
-        rate = dr.pump_rate or pump.capacity
+        rate = dr.pump_rate or (dr.pump_rate_volume * rho if dr.pump_rate_volume else None) or pump.capacity
         if not rate:
             return None
         basis = "pump-trap"

@@ -80,8 +80,8 @@ CAUSE_WORDS = {
         "Condensate held in the coil can freeze and split the tubes",
         ("Check the leaving-air low-limit and the condensate outlet temperature; look for split tubes "
          "or leaks at the return header."),
-        ("{freeze_advice} Keep a low-limit on the leaving air; consider preheat or face-and-bypass "
-         "control with the steam valve held open."),
+        ("{freeze_advice} Keep a low-limit on the leaving air; in freezing air, consider holding the steam "
+         "valve open and controlling the leaving air with face-and-bypass dampers (common practice)."),
     ),
     "vacuum-breaker-stuck": (
         "The vacuum breaker is stuck shut, or fitted where it cannot let air in",

@@ -91,8 +91,8 @@ FINDINGS: dict[str, dict[str, str]] = {
         "drained": " The installed {installed} drains it; test it before each winter, and keep a low-limit "
                    "(freezestat) on the leaving air.",
         "drain": " Drain it so it cannot hold water at any load (a pump-trap, or a vacuum breaker where "
-                 "gravity suffices), and consider a preheat coil or face-and-bypass control with the steam "
-                 "valve held open.",
+                 "gravity suffices); in freezing air, consider holding the steam valve open and controlling "
+                 "the leaving air with face-and-bypass dampers (common practice).",
     },
     "design-warmer-than-site": {
         "": "The coil was selected for air entering at {design:temperature}, warmer than this site's heating "
