@@ -353,3 +353,14 @@ def test_csv_lines_are_the_standard_library_s(text):
 
     assert list(csvunits._lines(text)) == list(io.StringIO(text))
     assert rows(csvunits._lines(text)) == rows(io.StringIO(text))
+
+
+def test_a_survey_of_si_and_us_files_says_which_temperatures_it_shows():
+    # one column, one unit: a mixed survey says which, and how to get the other
+    mixed = CliRunner().invoke(app, ["survey", str(ROOT / "sample_units")], env={"NO_COLOR": "1"}).output
+    assert "Temperatures in °F" in mixed and "--units si" in mixed
+    forced = CliRunner().invoke(app, ["survey", str(ROOT / "sample_units"), "--units", "si"],
+                                env={"NO_COLOR": "1"}).output
+    assert "Temperatures in" not in forced and "°C" in forced
+    one = CliRunner().invoke(app, ["survey", str(ROOT / "sample_units" / "si_water_heater.toml")]).output
+    assert "Temperatures in" not in one

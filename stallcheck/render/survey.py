@@ -47,8 +47,7 @@ def _rows(summaries: list[Summary], system: str | None, width: int = 80):
     columns = _columns(width)
     yield [(" ".join(_cell(h, w, r) for h, w, r in columns), "bold")], None
     # one column, one unit: the units most of the files are written in, unless --units
-    systems = [s.system for s in summaries]
-    sys_ = system or max(("us", "si"), key=systems.count)
+    sys_ = display_system(summaries, system)
     (_, unit_w, unit_r), (_, stall_w, stall_r), (_, inlet_w, inlet_r), (_, needs_w, needs_r), \
         (_, ok_w, ok_r), (_, hours_w, hours_r) = columns
     for s in summaries:
@@ -74,11 +73,22 @@ def _rows(summaries: list[Summary], system: str | None, width: int = 80):
         yield line, detail
 
 
-def _count(summaries: list[Summary], failures: list[Failure]) -> list[tuple[str, str]]:
+def display_system(summaries: list[Summary], system: str | None) -> str:
+    """One column, one unit: ``system`` where given, else the units most files use."""
+    systems = [s.system for s in summaries]
+    return system or max(("us", "si"), key=systems.count)
+
+
+def _count(summaries: list[Summary], failures: list[Failure], system: str | None = None) -> list[tuple[str, str]]:
     inadequate = sum(1 for s in summaries if not s.adequate)
     flagged = sum(1 for s in summaries if s.exit_status)
     out = [(f"{len(summaries) + len(failures):,} units: {len(summaries) - flagged:,} fine, "
             f"{flagged:,} to look at ({inadequate:,} with drainage not adequate)", "bold")]
+    shown = display_system(summaries, system)
+    if system is None and len({s.system for s in summaries}) > 1:
+        other = "si" if shown == "us" else "us"
+        out.append((f"Temperatures in {q.label('temperature', shown)}, as most of the files are written "
+                    f"(--units {other} for {q.label('temperature', other)}).", "dim"))
     if failures:
         out.append((f"{len(failures):,} could not be read: see the messages on stderr", "bold red"))
     return out
@@ -95,7 +105,7 @@ def table(summaries: list[Summary], failures: list[Failure], system: str | None,
         parts.append(Text.assemble(*line))
         if detail is not None:
             parts.append(Padding(Text.assemble(*detail), (0, 0, 0, 4)))
-    return Group(*parts, Text(""), *(Text(text, style=style) for text, style in _count(summaries, failures)))
+    return Group(*parts, Text(""), *(Text(text, style=style) for text, style in _count(summaries, failures, system)))
 
 
 #: Whitespace that :func:`textwrap.fill` would change.
@@ -119,7 +129,7 @@ def plain(summaries: list[Summary], failures: list[Failure], system: str | None,
         if detail is not None:
             out.append(_indented("".join(text for text, _ in detail), width))
     out.append("")
-    out.extend(textwrap.fill(text, width) for text, _ in _count(summaries, failures))
+    out.extend(textwrap.fill(text, width) for text, _ in _count(summaries, failures, system))
     return "\n".join(out) + "\n"
 
 
