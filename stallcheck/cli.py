@@ -538,7 +538,7 @@ def diagnose(unit: Path = UNIT_ARG,
         from stallcheck.render import page
 
         columns = page.width_for(sys.stdout, width)
-        page.emit(show.report(found, result.system), columns)
+        page.emit(show.report(found, result.system, columns), columns)
     raise typer.Exit(found.exit_status)
 
 

@@ -68,8 +68,11 @@ def _story(r, system):
         floor = -atm / (6894.757293168 if m.group(2) == "psig" else 1e5)
         assert value >= floor - 0.05, (m.group(0), floor)
     # 4. the stall load, wherever printed, is one figure
-    loads = set(re.findall(r"stalls below (\d+)% load", " ".join(text.split())))
+    flat = " ".join(text.split())
+    loads = set(re.findall(r"stalls below (\d+)% load", flat))
     assert len(loads) <= 1, loads
+    speeds = set(re.findall(r"wave speed (?:of )?([\d,]+ (?:ft/s|m/s))", flat))
+    assert len(speeds) <= 1, speeds
     # the JSON says the same as the page
     data = json_out.to_dict(r)
     assert data["drainage"]["installed"] == installed

@@ -71,3 +71,18 @@ def test_a_check_to_a_pipe_does_not_load_rich():
 
     out = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True, cwd=ROOT, check=True)
     assert out.stdout.strip() == "[]"
+
+
+def test_a_long_path_is_folded_after_a_folder_not_inside_a_name():
+    # Common practice of terminals and editors: a path too long for a line breaks at a
+    # separator, so every folder and file name reads whole.
+    from stallcheck.render import terminal
+
+    path = "/srv/plant-records/" + "north-boiler-house-air-handlers/" * 2 + "ahu-12-preheat-coil.toml"
+    for width in (40, 60, 80):
+        lines = terminal.fold_path(path, width)
+        assert "".join(lines) == path and all(len(line) <= width for line in lines)
+        assert all(line.endswith("/") for line in lines[:-1])
+    assert terminal.fold_path("air; load varies with flow", 80) == ["air; load varies with flow"]
+    # a name with no separator longer than the line is cut at the width
+    assert terminal.fold_path("x" * 90, 40) == ["x" * 40, "x" * 40, "x" * 10]

@@ -254,9 +254,9 @@ AGREEMENT = {
 }
 
 
-def report(d: Diagnosis, system: str) -> list:
+def report(d: Diagnosis, system: str, width: int = 80) -> list:
     """Everything ``diagnose`` prints, in reading order: the page's blocks
-    (:func:`stallcheck.render.page.emit`)."""
+    (:func:`stallcheck.render.page.emit`) for ``width`` columns."""
     r = d.result
     rd = d.readings
     atm = r.atmospheric_pressure
@@ -267,7 +267,7 @@ def report(d: Diagnosis, system: str) -> list:
     def t(k):
         return q.show(k, "temperature", system)
 
-    parts: list = heading(r, f"{r.source}: diagnosis from readings in service")
+    parts: list = heading(r, f"{r.source}: diagnosis from readings in service", width=width)
 
     read = []
     if rd.coil_pressure is not None:

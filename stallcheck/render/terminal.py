@@ -42,10 +42,26 @@ def chart_text(result: Result, system: str, width: int, x_axis: str = "load", he
     return out
 
 
-def heading(r: Result, *lines: str) -> list:
-    """The unit's name and tag in bold, then dim lines, then a blank line."""
+def heading(r: Result, *lines: str, width: int = 80) -> list:
+    """The unit's name and tag in bold, then dim lines (a path too long for a line
+    folded after a folder separator, not inside a name), then a blank line."""
     title = runs((r.unit, "bold"), f"  ({r.tag})" if r.tag else "")
-    return [Para(title, 0), *(Para(((line, "dim"),), 0) for line in lines), BLANK]
+    return [Para(title, 0), *(Para(((piece, "dim"),), 0) for line in lines for piece in fold_path(line, width)),
+            BLANK]
+
+
+def fold_path(text: str, width: int) -> list[str]:
+    """``text`` as lines of at most ``width`` columns where it has a word (a path) longer
+    than a line: each cut after the last ``/`` or ``\\`` that fits (else at the width).
+    Text without such a word is one line, left to the page's own wrapping."""
+    if all(len(word) <= width for word in text.split()):
+        return [text]
+    out, rest = [], text
+    while len(rest) > width:
+        cut = max(rest.rfind(" ", 0, width + 1), rest.rfind("/", 0, width), rest.rfind("\\", 0, width)) + 1 or width
+        out.append(rest[:cut].rstrip(" "))
+        rest = rest[cut:]
+    return out + [rest] if rest else out
 
 
 def report(result: Result, system: str, width: int = 80) -> list:
@@ -76,7 +92,7 @@ def report(result: Result, system: str, width: int = 80) -> list:
     def w(kg_s):
         return q.show(kg_s, "mass_flow", system)
 
-    parts: list = heading(r, r.source, f"{r.medium}; load varies with {r.varies}; method {r.method}")
+    parts: list = heading(r, r.source, f"{r.medium}; load varies with {r.varies}; method {r.method}", width=width)
 
     d = r.design
     fill_note = (f"fill head {q.show(r.fill_head, 'length', system)} = "
@@ -397,7 +413,7 @@ def hammer_sections(r: Result, system: str) -> list:
             what += f"; the check valve after it closes in {sh.closing_time:g} s"
         parts += [_heading("Surge (hydraulic shock)"), _para(what),
                   _para(f"{q.show(sh.velocity, 'velocity', system)} stopped; wave speed "
-                        f"{q.show(sh.wave_speed, 'velocity', system, decimals=0)} (Korteweg): a rise of "
+                        f"{q.show_about(sh.wave_speed, 'velocity', system)} (Korteweg): a rise of "
                         f"{q.show_about(sh.surge, 'differential', system)} (Joukowsky"
                         + (", slowed by the closure" if sh.slowed else "") + f"), to {q.show(sh.peak, 'pressure', system, atm)}"
                         + (f" against a rating of {q.show(sh.rating, 'pressure', system, atm)}" if sh.rating else "")),
