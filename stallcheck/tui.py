@@ -186,6 +186,33 @@ def wrapped(text: str, width: int) -> list[str]:
     return textwrap.wrap(text, width=max(width, 20), break_on_hyphens=False) or [""]
 
 
+def keyboard_driver():
+    """Textual's driver for this platform; on Linux and macOS one whose keyboard reading
+    survives a byte that is not UTF-8 (a stray key, a terminal set to another encoding).
+
+    The stock reader decodes each read of the keyboard as UTF-8 and stops on an error,
+    leaving the app without keys (a hang behind a traceback). Here the reader starts
+    again on the next read: the keys in the read that held the bad byte are dropped,
+    nothing else.
+    """
+    import sys as _sys
+
+    if _sys.platform == "win32":
+        return None
+    from textual.drivers.linux_driver import LinuxDriver
+
+    class TolerantDriver(LinuxDriver):
+        def run_input_thread(self) -> None:
+            while not self.exit_event.is_set():
+                try:
+                    super().run_input_thread()
+                    return
+                except UnicodeDecodeError:
+                    continue  # that read is lost; the keyboard is read afresh
+
+    return TolerantDriver
+
+
 class Explorer(App):
     """The what-if app for one unit."""
 
@@ -205,7 +232,7 @@ class Explorer(App):
 
     def __init__(self, unit: Unit, system: str | None = None, result=None):
         """``result``: the unit's result in ``system``, where the caller has it already."""
-        super().__init__()
+        super().__init__(driver_class=keyboard_driver())
         self.original = unit
         self.unit = unit
         self.system = system or unit.system

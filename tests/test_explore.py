@@ -268,3 +268,57 @@ def test_screens_match_their_snapshots(snap_compare, size):
     sample = next(s for s in SAMPLES if s.name == "us_vacuum_breaker_gravity.toml")
     assert snap_compare(tui.Explorer(unitfile.load(sample)), terminal_size=size, press=["L", "L"])
     assert snap_compare(tui.Explorer(unitfile.load(sample)), terminal_size=size, press=["question_mark"])
+
+
+def _in_a_terminal(keys: list[bytes], seconds: float = 20.0) -> tuple[int | None, str]:
+    """Run ``stallcheck explore`` on a sample in a pseudo-terminal (80x24), send
+    ``keys`` one by one once the first screen is up, and return its exit status (None
+    where it did not end) and what it drew."""
+    import fcntl
+    import os
+    import pty
+    import select
+    import signal
+    import struct
+    import sys
+    import termios
+    import time
+
+    pid, fd = pty.fork()
+    if pid == 0:
+        os.environ.update(COLUMNS="80", LINES="24", TERM="xterm-256color")
+        os.execv(sys.executable, [sys.executable, "-m", "stallcheck", "explore", str(SAMPLES[0])])
+    fcntl.ioctl(fd, termios.TIOCSWINSZ, struct.pack("HHHH", 24, 80, 0, 0))
+    seen, sent, start, status = b"", 0, time.monotonic(), None
+    next_at = None
+    while time.monotonic() - start < seconds and status is None:
+        ready, _, _ = select.select([fd], [], [], 0.05)
+        if ready:
+            try:
+                seen += os.read(fd, 65536)
+            except OSError:
+                pass
+        if next_at is None and b"stall point" in seen:
+            next_at = time.monotonic() + 0.5
+        if next_at is not None and sent < len(keys) and time.monotonic() >= next_at:
+            os.write(fd, keys[sent])
+            sent, next_at = sent + 1, time.monotonic() + 0.5
+        done, code = os.waitpid(pid, os.WNOHANG)
+        if done:
+            status = os.waitstatus_to_exitcode(code)
+    if status is None:
+        os.kill(pid, signal.SIGKILL)
+        os.waitpid(pid, 0)
+    os.close(fd)
+    return status, seen.decode("utf-8", "replace")
+
+
+@pytest.mark.skipif(__import__("sys").platform == "win32", reason="a pseudo-terminal")
+def test_a_byte_that_is_not_utf8_typed_into_explore_is_passed_over():
+    # A stray byte from a terminal set to another encoding: the keys after it still
+    # work (l lowers the lift, so q asks about the unsaved change), and n then q quits
+    # cleanly: no traceback, no hang.
+    status, drawn = _in_a_terminal([b"\xff", b"l", b"q", b"n\r", b"q", b"yes\r"])
+    assert "Traceback" not in drawn and "UnicodeDecodeError" not in drawn
+    assert "not saved" in drawn
+    assert status == 0
