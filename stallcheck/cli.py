@@ -359,6 +359,8 @@ def survey(paths: list[Path] = typer.Argument(..., help="Unit files, folders of 
                                      "check --json fields (without the chart's points), then the errors and "
                                      "an end line; nothing else."),
            points: bool = typer.Option(False, "--points", help="With --json: include each unit's chart points."),
+           words: bool = typer.Option(False, "--words", help="With --json: include the sentences (findings' "
+                                      "messages, reasons, notes, assumptions, cautions) as check --json has them."),
            csv: Optional[Path] = typer.Option(None, "--csv", help="Also write the survey table to this CSV file.",
                                               metavar="OUT.csv"),
            force: bool = typer.Option(False, "--force", help="Let --csv replace an existing file."),
@@ -388,7 +390,7 @@ def survey(paths: list[Path] = typer.Argument(..., help="Unit files, folders of 
     if json:
         from stallcheck.render.survey import JsonStream
 
-        stream = JsonStream(sys.stdout, points=points)
+        stream = JsonStream(sys.stdout, points=points, words=words)
     # the number of units sizes the progress bar and decides the processes
     total = surveymod.count(found) if sys.stderr.isatty() or (jobs is None and not json) else 0
     progress = None

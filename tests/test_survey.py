@@ -151,23 +151,64 @@ def _lines(stdout: str) -> list[dict]:
     return [json.loads(line) for line in stdout.splitlines()]
 
 
+def _figures(obj, digits=8):
+    """A check --json value as a survey line holds it: floats to ``digits`` significant
+    figures (Python's own formatting), fields that are null left out."""
+    if isinstance(obj, float):
+        return float(f"{obj:.{digits}g}")
+    if isinstance(obj, dict):
+        return {k: _figures(v, digits) for k, v in obj.items() if v is not None}
+    if isinstance(obj, list):
+        return [_figures(v, digits) for v in obj]
+    return obj
+
+
 def test_survey_json_lists_results_and_errors_one_a_line(tmp_path):
+    from stallcheck.result import CAUTIONS
+
     folder = _mixed_folder(tmp_path)
     result = runner.invoke(app, ["survey", str(folder), "--json"])
     lines = _lines(result.stdout)
-    assert all(line["format"] == 2 for line in lines)
+    assert all(line["format"] == 3 for line in lines)
     results = [line for line in lines if line["record"] == "result"]
     errors = [line for line in lines if line["record"] == "error"]
     assert len(results) == 4 and len(errors) == 2 and lines[-1]["record"] == "end"
-    assert lines[-1] == {"units": 6, "errors": 2, "exit_status": 2, "format": 2, "record": "end"}
+    assert lines[-1] == {"units": 6, "errors": 2, "exit_status": 2, "format": 3, "record": "end",
+                         "cautions": list(CAUTIONS)}
     assert result.exit_code == 2
     assert all("stall" in r and "drainage" in r and "points" not in r for r in results)
-    # the chart's points only where asked, the same as check --json gives them
+    # figures and codes: the same as check --json gives them, to eight figures, without
+    # its sentences unless asked for
+    first = results[0]
+    check = json.loads(runner.invoke(app, ["check", first["source"], "--json"]).stdout)
+    assert first["stall"] == _figures(check["stall"]) and first["valve"] == _figures(check["valve"])
+    assert [f["code"] for f in first["findings"]] == [f["code"] for f in check["findings"]]
+    assert not any("message" in f for f in first["findings"]) and "assumptions" not in first
+    worded = _lines(runner.invoke(app, ["survey", str(folder), "--json", "--words"]).stdout)[0]
+    assert worded["findings"] == check["findings"] and worded["assumptions"] == check["assumptions"]
+    # the chart's points only where asked
     with_points = _lines(runner.invoke(app, ["survey", str(folder), "--json", "--points"]).stdout)
     first = next(line for line in with_points if line["record"] == "result")
     assert len(first["points"]) == 101
     check = json.loads(runner.invoke(app, ["check", first["source"], "--json"]).stdout)
-    assert first["points"] == check["points"] and first["stall"] == check["stall"]
+    assert first["points"] == _figures(check["points"])
+
+
+def test_a_survey_line_is_under_3_kb_a_unit_without_points(tmp_path):
+    # 200 generated units of the bench's kinds: the streaming contract's size target
+    import sys
+
+    sys.path.insert(0, str(ROOT / "bench"))
+    try:
+        import run as bench
+    finally:
+        sys.path.pop(0)
+    table = tmp_path / "units.csv"
+    table.write_text(bench.to_csv(bench.invented(200)), encoding="utf-8")
+    lines = runner.invoke(app, ["survey", str(table), "--json"]).stdout.encode("utf-8").splitlines()
+    results = lines[:-1]
+    assert len(results) == 200
+    assert sum(map(len, results)) / len(results) <= 3000
 
 
 def test_survey_exit_status_all_fine(tmp_path):

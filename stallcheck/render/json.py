@@ -23,8 +23,16 @@ def _clean(value):
     return value
 
 
-def to_dict(r: Result) -> dict:
-    """The result as plain JSON-ready data (the contract)."""
+#: The sentences of the contract: left out of a result by ``to_dict(..., sentences=False)``
+#: (``survey --json`` without ``--words``), the figures and codes kept.
+SENTENCES = ("message", "note", "reasons", "text", "assumptions", "cautions")
+
+
+def to_dict(r: Result, sentences: bool = True) -> dict:
+    """The result as plain JSON-ready data (the contract); without ``sentences``, the
+    figures and codes only: none of the :data:`SENTENCES`."""
+    if not sentences:
+        return _without_sentences(r)
     pts = r.points
     limited = pts.valve_limited if pts is not None else ()
     points = []
@@ -279,6 +287,32 @@ def _surge(r: Result):
     }
 
 
+def _without_sentences(r: Result) -> dict:
+    """:func:`to_dict` without the :data:`SENTENCES`."""
+    out = to_dict(r)
+    for f in out["findings"]:
+        f.pop("message")
+    out.pop("assumptions"), out.pop("cautions")
+    out["drainage"].pop("reasons")
+    out["advice"].pop("text")
+    for m in out["remedies"]:
+        m.pop("note")
+    return out
+
+
+def figures(obj, digits: int = 8):
+    """``obj`` as a survey's line holds it: every float to ``digits`` significant
+    figures (1e-8 of each figure by default, where a float's repr writes 17 digits and a
+    gauge reads three), and every field whose value is null left out."""
+    if isinstance(obj, float):
+        return float(f"{obj:.{digits}g}") if math.isfinite(obj) else None
+    if isinstance(obj, dict):
+        return {k: figures(v, digits) for k, v in obj.items() if v is not None}
+    if isinstance(obj, (list, tuple)):
+        return [figures(v, digits) for v in obj]
+    return obj
+
+
 def dumps(r: Result) -> str:
     """The contract as indented JSON text."""
     return text(to_dict(r), indent=2)
@@ -289,11 +323,13 @@ def dumps(r: Result) -> str:
 _RAW_CONTROL = re.compile("[\x7f-\x9f]")
 
 
-def text(obj, indent: int | None = None) -> str:
+def text(obj, indent: int | None = None, compact: bool = False) -> str:
     """Strict JSON (RFC 8259): never NaN or Infinity (a figure that is not finite is
     written as null, which the contract documents for figures not known), and no raw
-    control character, the C1 and DEL escaped as ``\\u00XX`` like the C0."""
-    out = json.dumps(_finite(obj), indent=indent, ensure_ascii=False, allow_nan=False)
+    control character, the C1 and DEL escaped as ``\\u00XX`` like the C0. ``compact``:
+    no spaces after separators (a survey's lines)."""
+    out = json.dumps(_finite(obj), indent=indent, ensure_ascii=False, allow_nan=False,
+                     separators=(",", ":") if compact else None)
     return _RAW_CONTROL.sub(lambda m: f"\\u{ord(m.group()):04x}", out)
 
 

@@ -11,6 +11,7 @@ from stallcheck.errors import printable
 from stallcheck.files import quantities as q
 from stallcheck.render import json as json_out
 from stallcheck.render import words
+from stallcheck.result import CAUTIONS
 
 SEVERITY_STYLE = {"danger": "bold red", "warning": "yellow", "info": "cyan"}
 
@@ -176,35 +177,40 @@ def _num(value) -> str:
     return "" if value is None else f"{value:.6g}"
 
 
-#: The format of ``survey --json``: JSON Lines (2; format 1 was one JSON document).
-SURVEY_FORMAT = 2
+#: The format of ``survey --json``: JSON Lines of figures and codes (3; 2 carried every
+#: sentence in every line; 1 was one JSON document).
+SURVEY_FORMAT = 3
 
 
 class JsonStream:
     """``survey --json``: JSON Lines, one object a line, each written (and flushed) as
     its unit is done, in order: ``{"record": "result", ...}`` with the fields of
-    ``check --json`` (its chart ``points`` only where asked), then one
+    ``check --json``, figures to eight significant figures and null fields left out,
+    without the chart's ``points`` and the sentences (finding messages, reasons, notes,
+    advice text, assumptions, cautions) unless asked for; then one
     ``{"record": "error", "source", "message"}`` per unit that could not be read, then
-    ``{"record": "end", "units", "errors", "exit_status"}``. Every line carries
-    ``"format": 2``."""
+    ``{"record": "end", "units", "errors", "exit_status", "cautions"}``. Every line
+    carries ``"format": 3``."""
 
-    def __init__(self, out, points: bool = False):
+    def __init__(self, out, points: bool = False, words: bool = False):
         self.out = out
         self.points = points
+        self.words = words
         self.count = 0
 
     def _line(self, record: str, fields: dict) -> None:
-        self.out.write(json_out.text({**fields, "format": SURVEY_FORMAT, "record": record}) + "\n")
+        self.out.write(json_out.text({**fields, "format": SURVEY_FORMAT, "record": record}, compact=True) + "\n")
         self.out.flush()
 
     def __call__(self, result) -> None:
-        contract = json_out.to_dict(result)
+        contract = json_out.to_dict(result, sentences=self.words)
         if not self.points:
             contract.pop("points", None)
-        self._line("result", contract)
+        self._line("result", json_out.figures(contract))
         self.count += 1
 
     def close(self, failures: list[Failure], status: int) -> None:
         for f in failures:
             self._line("error", {"source": f.source, "message": f.message})
-        self._line("end", {"units": self.count + len(failures), "errors": len(failures), "exit_status": status})
+        self._line("end", {"units": self.count + len(failures), "errors": len(failures), "exit_status": status,
+                           "cautions": list(CAUTIONS)})
