@@ -19,6 +19,7 @@ from dataclasses import dataclass
 import numpy as np
 
 from stallcheck.analysis import findings, remedies
+from stallcheck.analysis import lines as linesmod
 from stallcheck.analysis import year as yearmod
 from stallcheck.errors import InputError, StallcheckError
 from stallcheck.files import quantities as q
@@ -363,6 +364,7 @@ def _analyse(units: list[Unit], systems: list[str], tabulate: bool = True, compl
     else:
         fixes = [()] * n
 
+    lines_all = linesmod.return_lines(units, b.steam_design, b.design_pressure, stall, w_min, p_min)
     results = []
     for i, u in enumerate(units):
         d = DesignPoint(load=float(b.load_design[i]), steam_flow=float(b.steam_design[i]),
@@ -388,8 +390,7 @@ def _analyse(units: list[Unit], systems: list[str], tabulate: bool = True, compl
             stalled_hours, total_hours = _hours(u, s.load_fraction or 0.0, bins_load, bins_hours,
                                                 s.valve_load_fraction)
         pump = devices.pump_trap_figures(u, drains[i].required, s, float(b.back[i]), float(b.supply[i]))
-        line = devices.return_line_figures(u, float(b.steam_design[i]), float(b.design_pressure[i]), s,
-                                           float(w_min[i]), float(p_min[i]))
+        line = lines_all[i]
         shock = devices.surge_figures(u, pump, float(b.back[i]), float(b.steam_design[i]))
         purge = devices.purge_figures(u, b.one(i), float(b.back[i]), float(b.design_pressure[i]),
                                       float(p_min[i]), bins_load, bins_hours, hours_basis)

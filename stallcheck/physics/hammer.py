@@ -19,6 +19,8 @@ from __future__ import annotations
 import math
 from dataclasses import dataclass
 
+import numpy as np
+
 from stallcheck.physics import properties
 from stallcheck.physics.constants import GRAVITY
 
@@ -193,8 +195,17 @@ def flow_pattern(condensate: float, fraction: float, pressure: float, bore: floa
 SHELTERING = 0.01
 
 
+#: Taitel & Dukler's patterns, as :func:`taitel_dukler_many` names them.
+TD_PATTERNS = ("stratified smooth", "stratified wavy", "intermittent", "annular", "bubbly")
+
+
 def taitel_dukler(u_ls: float, u_gs: float, rho_l: float, rho_g: float, mu_l: float, mu_g: float, bore: float,
                   inclination: float) -> str:
+    """:func:`taitel_dukler_many` for one line and flow: the pattern's name."""
+    return str(taitel_dukler_many(u_ls, u_gs, rho_l, rho_g, mu_l, mu_g, bore, inclination).flat[0])
+
+
+def taitel_dukler_many(u_ls, u_gs, rho_l, rho_g, mu_l, mu_g, bore, inclination):
     r"""Taitel & Dukler's (1976) flow pattern in a horizontal or near-horizontal pipe,
     from the momentum balance of stratified flow with the pipe's inclination.
 
@@ -219,46 +230,53 @@ def taitel_dukler(u_ls: float, u_gs: float, rho_l: float, rho_g: float, mu_l: fl
     T² = (dp/dx)_Ls/((ρ_L − ρ_G)·g·cos α) (D); stratified flow is wavy where
     K ≥ 2/(√ũ_L·ũ_G·√s), s = :data:`SHELTERING`, K = F·√Re_Ls (C).
 
+    The liquid level is found by bisection on whole arrays at once (60 halvings, to
+    1e-18 of the diameter), so a survey's lines and loads are one call.
+
     Parameters
     ----------
-    u_ls, u_gs : float
-        Superficial velocities of liquid and gas. [m/s]
-    rho_l, rho_g : float  [kg/m³]
-    mu_l, mu_g : float  [Pa·s]
-    bore : float  [m]
-    inclination : float
+    u_ls, u_gs : float or ndarray
+        Superficial velocities of liquid and gas (the gas's above zero). [m/s]
+    rho_l, rho_g : float or ndarray  [kg/m³]
+    mu_l, mu_g : float or ndarray  [Pa·s]
+    bore : float or ndarray  [m]
+    inclination : float or ndarray
         α, positive where the pipe falls in the direction of flow (the paper's sign).
         [rad]
 
     Returns
     -------
-    str
+    ndarray of str
         ``stratified smooth``, ``stratified wavy``, ``intermittent``, ``annular`` or
-        ``bubbly`` (dispersed bubble).
+        ``bubbly`` (dispersed bubble), one per element of the broadcast inputs.
 
     References
     ----------
     .. [1] Taitel, Y., Dukler, A. E. (1976). AIChE J. 22(1), 47-55.
     """
+    u_ls, u_gs, rho_l, rho_g, mu_l, mu_g, bore, inclination = np.broadcast_arrays(
+        *(np.asarray(v, dtype=float) for v in (u_ls, u_gs, rho_l, rho_g, mu_l, mu_g, bore, inclination)))
     g = GRAVITY
     drho = rho_l - rho_g
 
     def gradient(rho, u, mu):
         re = rho * u * bore / mu
-        c, n = (16.0, 1.0) if re < 2000.0 else (0.046, 0.2)
+        laminar = re < 2000.0
+        c, n = np.where(laminar, 16.0, 0.046), np.where(laminar, 1.0, 0.2)
         return 4.0 * c / bore * re ** -n * rho * u * u / 2.0, n
 
     dp_l, n = gradient(rho_l, u_ls, mu_l)
     dp_g, m = gradient(rho_g, u_gs, mu_g)
-    x2, y = dp_l / dp_g, drho * g * math.sin(inclination) / dp_g
+    x2, y = dp_l / dp_g, drho * g * np.sin(inclination) / dp_g
 
     def geometry(h):
         c = 2.0 * h - 1.0
-        root = math.sqrt(max(1.0 - c * c, 0.0))
-        a_l = 0.25 * (math.pi - math.acos(c) + c * root)
-        a_g = 0.25 * (math.acos(c) - c * root)
-        s_l, s_g = math.pi - math.acos(c), math.acos(c)
-        u_l, u_g = (math.pi / 4.0) / a_l, (math.pi / 4.0) / a_g
+        root = np.sqrt(np.maximum(1.0 - c * c, 0.0))
+        turn = np.arccos(c)
+        a_l = 0.25 * (np.pi - turn + c * root)
+        a_g = 0.25 * (turn - c * root)
+        s_l, s_g = np.pi - turn, turn
+        u_l, u_g = (np.pi / 4.0) / a_l, (np.pi / 4.0) / a_g
         return a_l, a_g, s_l, s_g, root, u_l, u_g, 4.0 * a_l / s_l, 4.0 * a_g / (s_g + root)
 
     def balance(h):
@@ -266,20 +284,22 @@ def taitel_dukler(u_ls: float, u_gs: float, rho_l: float, rho_g: float, mu_l: fl
         return (x2 * (u_l * d_l) ** -n * u_l * u_l * s_l / a_l
                 - (u_g * d_g) ** -m * u_g * u_g * (s_g / a_g + s_i / a_l + s_i / a_g) - 4.0 * y)
 
-    lo, hi = 1e-6, 1.0 - 1e-6   # the balance falls from +inf at no liquid to -inf at no gas
+    # the balance falls from +inf at no liquid to -inf at no gas
+    lo, hi = np.full(u_ls.shape, 1e-6), np.full(u_ls.shape, 1.0 - 1e-6)
     for _ in range(60):
         mid = 0.5 * (lo + hi)
-        lo, hi = (mid, hi) if balance(mid) > 0.0 else (lo, mid)
+        above = balance(mid) > 0.0
+        lo, hi = np.where(above, mid, lo), np.where(above, hi, mid)
     h = 0.5 * (lo + hi)
     a_l, a_g, s_l, s_g, s_i, u_l, u_g, d_l, d_g = geometry(h)
-    froude2 = rho_g / drho * u_gs * u_gs / (bore * g * math.cos(inclination))
-    if froude2 * u_g * u_g * s_i / ((1.0 - h) ** 2 * a_g) >= 1.0:
-        if h < 0.5:
-            return "annular"
-        t2 = dp_l / (drho * g * math.cos(inclination))
-        return "bubbly" if t2 >= 8.0 * a_g / (s_i * u_l * u_l * (u_l * d_l) ** -n) else "intermittent"
-    k = math.sqrt(froude2) * math.sqrt(rho_l * u_ls * bore / mu_l)
-    return "stratified wavy" if k >= 2.0 / (math.sqrt(u_l) * u_g * math.sqrt(SHELTERING)) else "stratified smooth"
+    froude2 = rho_g / drho * u_gs * u_gs / (bore * g * np.cos(inclination))
+    unstable = froude2 * u_g * u_g * s_i / ((1.0 - h) ** 2 * a_g) >= 1.0
+    t2 = dp_l / (drho * g * np.cos(inclination))
+    bubbly = t2 >= 8.0 * a_g / (s_i * u_l * u_l * (u_l * d_l) ** -n)
+    k = np.sqrt(froude2) * np.sqrt(rho_l * u_ls * bore / mu_l)
+    wavy = k >= 2.0 / (np.sqrt(u_l) * u_g * np.sqrt(SHELTERING))
+    code = np.where(unstable, np.where(h < 0.5, 3, np.where(bubbly, 4, 2)), np.where(wavy, 1, 0))
+    return np.asarray(TD_PATTERNS, dtype=object)[code.reshape(-1)].reshape(code.shape)
 
 
 def wave_speed(bulk_modulus: float, density: float, bore: float, wall: float, youngs_modulus: float) -> float:
