@@ -39,6 +39,7 @@ ROOT = Path(__file__).resolve().parent.parent
 SAMPLE = ROOT / "sample_units" / "us_outdoor_air_preheat.toml"
 WATER = ROOT / "sample_units" / "si_water_heater.toml"
 WEATHER = ROOT / "sample_units" / "us_makeup_air_greensboro.toml"
+PLAIN = ROOT / "sample_units" / "si_flooded_reheat.toml"   # steam and air, no return line described
 BAD = ROOT / "tests" / "bad_units" / "64_return_hotter_than_boiling.toml"  # refused after the steam tables
 ENV = dict(os.environ, NO_COLOR="1")
 # Measure the program as installed, with its modules compiled once: some machines set
@@ -107,8 +108,8 @@ def to_csv(units: list[dict]) -> str:
 
 #: Targets (issue: a check in a third of a second): ratio to the floor, ms per unit or
 #: per what-if, MB at the largest survey.
-TARGETS = {"check": 1.5, "weather": 1.5, "refusal": 1.5, "explore": 2.0, "what-if": 30.0, "survey CSV": 0.15,
-           "survey TOML": 0.4, "memory": 200.0}
+TARGETS = {"check": 1.5, "check, return line": 1.6, "weather": 1.5, "refusal": 1.5, "explore": 1.5,
+           "what-if": 30.0, "survey CSV": 0.15, "survey TOML": 0.4, "return lines": 1.2, "memory": 200.0}
 
 
 def verdict(value: float, target: float | None) -> str:
@@ -175,8 +176,11 @@ def ratios(repeat: int) -> None:
     floor = [py, "-c", "import numpy, typer, rich"]
     pairs = [
         ("--help", [py, "-m", "stallcheck", "--help"], "python -c pass", [py, "-c", "pass"], None),
-        ("check, steam and air", [py, "-m", "stallcheck", "check", str(SAMPLE)], "floor", floor, "check"),
-        ("check, steam and water", [py, "-m", "stallcheck", "check", str(WATER)], "floor", floor, "check"),
+        ("check, no return line", [py, "-m", "stallcheck", "check", str(PLAIN)], "floor", floor, "check"),
+        ("check, air, return line", [py, "-m", "stallcheck", "check", str(SAMPLE)], "floor", floor,
+         "check, return line"),
+        ("check, water, ret. line", [py, "-m", "stallcheck", "check", str(WATER)], "floor", floor,
+         "check, return line"),
         ("refusal of a bad file", [py, "-m", "stallcheck", "check", str(BAD)], "floor", floor, "refusal"),
         ("check with weather", [py, "-m", "stallcheck", "check", str(WEATHER)], "without",
          [py, "-m", "stallcheck", "check", str(_without_weather())], "weather"),
@@ -191,13 +195,14 @@ def ratios(repeat: int) -> None:
         print(f"{name:23s}{ta:5.2f} s  {floor_name} {tb:4.2f} s  x{ta / tb:4.2f}  "
               f"{verdict(ta / tb, TARGETS.get(target) if target else None)}")
     explore = [py, "-m", "stallcheck", "explore", str(SAMPLE)]
+    textual_floor = [py, "-c", "import textual.app"]   # the library explore runs on
     first_screen(explore)
     a, b = [], []
     for _ in range(repeat):
         a.append(first_screen(explore))
-        b.append(run(floor)[0])
+        b.append(run(textual_floor)[0])
     ta, tb = statistics.median(a), statistics.median(b)
-    print(f"{'explore, first screen':23s}{ta:5.2f} s  floor {tb:4.2f} s  x{ta / tb:4.2f}  "
+    print(f"{'explore, first screen':23s}{ta:5.2f} s  textual {tb:4.2f} s  x{ta / tb:4.2f}  "
           f"{verdict(ta / tb, TARGETS['explore'])}")
     code = ("import asyncio, time, statistics\nfrom stallcheck import tui\nfrom stallcheck.files import unitfile\n"
             f"app = tui.Explorer(unitfile.load({str(SAMPLE)!r}))\ntimes = []\n"
@@ -263,6 +268,20 @@ def surveys(sizes: list[int], repeat: int) -> None:
                 print(f"survey {name:4s} {n:>7,} units {big_t:6.1f} s: {marginal:5.3f} ms/unit  "
                       f"{target}; peak {max(memory):3.0f} MB{mem}")
             shutil.rmtree(many, ignore_errors=True)
+        # units that all describe their return line against the same units without: the
+        # marginal cost a unit, one process each
+        n = min(sizes)
+        subprocess.run([py, __file__, "--write-lines", str(n), str(work / "lines.csv")], check=True)
+        plain, lined = [], []
+        for _ in range(repeat):
+            plain.append(run([py, "-m", "stallcheck", "survey", str(work / f"many{n}.csv"), "--jobs", "1"])[0]
+                         if (work / f"many{n}.csv").exists() else float("nan"))
+            lined.append(run([py, "-m", "stallcheck", "survey", str(work / "lines.csv"), "--jobs", "1"])[0])
+        one = statistics.median(run([py, "-m", "stallcheck", "survey", str(work / "one.csv")])[0]
+                                for _ in range(repeat))
+        ratio = (statistics.median(lined) - one) / (statistics.median(plain) - one)
+        print(f"survey, return lines   {n:>7,} units: x{ratio:4.2f} the marginal cost without  "
+              f"{verdict(ratio, TARGETS['return lines'])}")
     finally:
         shutil.rmtree(work, ignore_errors=True)
 
@@ -273,9 +292,17 @@ def main() -> None:
     parser.add_argument("--units", default="10000,100000",
                         help="survey sizes, comma-separated (default 10000,100000)")
     parser.add_argument("--write", nargs=3, metavar=("N", "FOLDER", "CSV"), help=argparse.SUPPRESS)
+    parser.add_argument("--write-lines", nargs=2, metavar=("N", "CSV"), help=argparse.SUPPRESS)
     args = parser.parse_args()
     if args.write:
         write_units(int(args.write[0]), Path(args.write[1]), Path(args.write[2]))
+        return
+    if args.write_lines:
+        units = invented(int(args.write_lines[0]))
+        for u in units:   # each describes the line from its trap, pitched with the flow
+            u["drain.return_line"] = "1 in" if u["design.medium"] == "air" else "25 mm"
+            u["drain.return_pitch"] = "0.5 %"
+        Path(args.write_lines[1]).write_text(to_csv(units), encoding="utf-8")
         return
     print(f"{time.strftime('%Y-%m-%d')}, {os.cpu_count()} cores, median of {args.repeat} runs "
           f"(one run above 20,000 units); floor: python -c 'import numpy, typer, rich'")

@@ -25,7 +25,8 @@ from stallcheck.errors import InputError, StallcheckError
 from stallcheck.files import quantities as q
 from stallcheck.inputs import Unit
 from stallcheck.physics import coil as coilmod
-from stallcheck.physics import devices, drainage, properties
+from stallcheck.analysis import devices
+from stallcheck.physics import drainage, properties
 from stallcheck.physics import valve as valvemod
 from stallcheck.physics.solve import illinois
 from stallcheck.result import CAUTIONS, YEAR_CAUTION, DesignPoint, Drainage, Points, Remedy, Result, StallPoint, ValveResult

@@ -26,7 +26,7 @@ from stallcheck.inputs import Unit
 from stallcheck.physics import coil as coilmod
 from stallcheck.physics import properties
 from stallcheck.physics.constants import GRAVITY
-from stallcheck.physics.devices import MOTIVE_MARGIN, RATING_SHARE, TrapCapacity
+from stallcheck.analysis.devices import MOTIVE_MARGIN, RATING_SHARE, TrapCapacity
 from stallcheck.result import Result
 
 #: Gauge and model agree within the larger of this [Pa] (about 1.5 psi) ...

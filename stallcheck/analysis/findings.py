@@ -12,7 +12,7 @@ from stallcheck.inputs import Unit
 from stallcheck.physics import atmosphere
 from stallcheck.physics import coil as coilmod
 from stallcheck.physics.constants import FREEZING, VELOCITY_LIMIT
-from stallcheck.physics.devices import MOTIVE_MARGIN, RATING_SHARE
+from stallcheck.analysis.devices import MOTIVE_MARGIN, RATING_SHARE
 from stallcheck.result import Finding, Result
 
 #: Temperatures this close to freezing count as at it, not below [K]: the same unit

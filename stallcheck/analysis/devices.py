@@ -1,10 +1,12 @@
 """Sizing the drain devices: the trap (capacity against differential and the
 drainage limit), a pump-trap, a constant purge, the flash steam at the trap outlet, and
-the return line: its flow pattern and the surge where a column of condensate is stopped.
+and the surge where a column of condensate is stopped (the return line's flow pattern is
+:mod:`stallcheck.analysis.lines`).
 
-Called by :mod:`stallcheck.analysis` with the computed state of a batch of units
-(arrays, one row per unit); returns the figure dataclasses of
-:mod:`stallcheck.result`. Pressures absolute [Pa], flows [kg/s].
+Called by :mod:`stallcheck.analysis.batch` with the computed state of a batch of units
+(arrays, one row per unit); runs the physics (:mod:`stallcheck.physics`, numbers in and
+out) and assembles the figure records of :mod:`stallcheck.result`. Pressures absolute
+[Pa], flows [kg/s].
 """
 
 from __future__ import annotations
