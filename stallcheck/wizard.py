@@ -15,6 +15,7 @@ from dataclasses import dataclass, field
 from typing import Callable
 
 from stallcheck.errors import InputError
+from stallcheck.files import keys
 from stallcheck.files import quantities as q
 from stallcheck.files.ranges import ELEVATION_RANGE
 from stallcheck.inputs import ARRANGEMENTS, CHARACTERISTICS, MEDIA, TRAPS
@@ -58,47 +59,51 @@ class Question:
     when: Callable[[dict], bool] = lambda answers: True
 
 
+def _help(key: str) -> str:
+    """A key's line in the key table: the question's explanation and the file's comment."""
+    return keys.BY_NAME[key].help
+
+
 QUESTIONS = (
-    Question("unit.name", "Name of the unit", "what the unit is called in reports", "text",
+    Question("unit.name", "Name of the unit", _help("unit.name"), "text",
              {"us": "", "si": ""}),
-    Question("unit.tag", "Equipment tag (blank for none)", "the plant's own tag for it", "text", optional=True),
-    Question("site.elevation", "Site elevation above sea level (blank for sea level)",
-             "sets the atmospheric pressure that gauge readings are relative to", "elevation", optional=True),
-    Question("design.medium", "What does it heat?", "the medium on the other side of the coil", "choice",
+    Question("unit.tag", "Equipment tag (blank for none)", _help("unit.tag"), "text", optional=True),
+    Question("site.elevation", "Site elevation above sea level (blank for sea level)", _help("site.elevation"),
+             "elevation", optional=True),
+    Question("design.medium", "What does it heat?", _help("design.medium"), "choice",
              {"us": "air", "si": "air"}, choices=MEDIA),
-    Question("design.concentration", "Glycol concentration (mass %)", "mass fraction of glycol in the mix",
-             "fraction", {"us": "30 %", "si": "30 %"}, when=lambda a: str(a.get("design.medium", "")).endswith("glycol")),
-    Question("design.flow", "Design flow", "mass or volume flow at full load (air volumes are standard air)",
+    Question("design.concentration", "Glycol concentration (mass %)", _help("design.concentration"),
+             "fraction", {"us": "30 %", "si": "30 %"},
+             when=lambda a: str(a.get("design.medium", "")).endswith("glycol")),
+    Question("design.flow", "Design flow", _help("design.flow"),
              "flow", {"us": "6000 cfm", "si": "10000 m3/h"}),
-    Question("design.inlet_temperature", "Entering temperature at full load",
-             "for an outdoor-air coil, the coldest air", "temperature", {"us": "0 degF", "si": "-18 degC"}),
-    Question("design.outlet_temperature", "Leaving temperature (the set point)",
-             "what the control valve holds", "temperature", {"us": "55 degF", "si": "13 degC"}),
+    Question("design.inlet_temperature", "Entering temperature at full load", _help("design.inlet_temperature"),
+             "temperature", {"us": "0 degF", "si": "-18 degC"}),
+    Question("design.outlet_temperature", "Leaving temperature (the set point)", _help("design.outlet_temperature"),
+             "temperature", {"us": "55 degF", "si": "13 degC"}),
     Question("design.steam_pressure", "Steam pressure in the coil at full load (gauge)",
-             "the pressure the coil was selected for; it fixes the coil's size", "pressure",
-             {"us": "5 psig", "si": "0.35 barg"}),
+             _help("design.steam_pressure"), "pressure", {"us": "5 psig", "si": "0.35 barg"}),
     Question("steam.supply_pressure", "Steam pressure ahead of the control valve (gauge)",
-             "must be above the coil pressure so the valve can pass steam", "pressure",
-             {"us": "15 psig", "si": "1 barg"}),
-    Question("valve.cv", "Control valve Cv or Kv (blank if not known)",
-             "full-travel flow coefficient: a plain number is Cv; write \"Kv 12\" for a Kv", "coefficient",
+             _help("steam.supply_pressure"), "pressure", {"us": "15 psig", "si": "1 barg"}),
+    Question("valve.cv", "Control valve Cv or Kv (a plain number is Cv, \"Kv 12\" a Kv; blank if not known)",
+             _help("valve.cv"), "coefficient",
              low=0.01, high=1e5, optional=True),
-    Question("valve.characteristic", "Valve characteristic", "inherent flow characteristic", "choice",
+    Question("valve.characteristic", "Valve characteristic", _help("valve.characteristic"), "choice",
              {"us": "equal-percentage", "si": "equal-percentage"}, choices=CHARACTERISTICS,
              when=lambda a: "valve.cv" in a),
-    Question("load.minimum", "Lowest load it runs at, as a fraction (0 to below 1)",
-             "below this load the unit is off or held by other controls", "number",
+    Question("load.minimum", "Lowest load it runs at, as a fraction (0 to below 1)", _help("load.minimum"),
+             "number",
              {"us": "0", "si": "0"}, low=0.0, high=0.999),
-    Question("drain.arrangement", "What drains it now?", "the installed drainage", "choice",
+    Question("drain.arrangement", "What drains it now?", _help("drain.arrangement"), "choice",
              {"us": "trap", "si": "trap"}, choices=ARRANGEMENTS),
-    Question("drain.trap", "Trap type", "the trade type of the trap", "choice",
+    Question("drain.trap", "Trap type", _help("drain.trap"), "choice",
              {"us": "float-thermostatic", "si": "float-thermostatic"}, choices=TRAPS),
-    Question("drain.fill_head", "Height from the coil outlet down to the trap inlet",
-             "the fill head: more of it drains a coil at low pressure", "length", {"us": "12 in", "si": "0.3 m"}),
-    Question("drain.lift", "Rise in the discharge after the trap (0 if none)",
-             "condensate lifted after the trap adds to the back pressure", "length", {"us": "0 ft", "si": "0 m"}),
-    Question("drain.return_pressure", "Pressure in the return or receiver (gauge)",
-             "what the trap discharges against", "pressure", {"us": "0 psig", "si": "0 barg"}),
+    Question("drain.fill_head", "Height from the coil outlet down to the trap inlet", _help("drain.fill_head"),
+             "length", {"us": "12 in", "si": "0.3 m"}),
+    Question("drain.lift", "Rise in the discharge after the trap (0 if none)", _help("drain.lift"),
+             "length", {"us": "0 ft", "si": "0 m"}),
+    Question("drain.return_pressure", "Pressure in the return or receiver (gauge)", _help("drain.return_pressure"),
+             "pressure", {"us": "0 psig", "si": "0 barg"}),
 )
 
 
@@ -308,7 +313,7 @@ def to_toml(answers: dict) -> str:
         value = answers[x.key]
         explain = x.explain
         if isinstance(value, Kv):
-            name, explain = "kv", "full-travel flow coefficient, Kv (m³/h of water at 1 bar drop)"
+            name, explain = "kv", keys.BY_NAME["valve.kv"].help
         written = f"{value:g}" if isinstance(value, float) else tomlkit.item(str(value)).as_string()
         lines.append(f"{name} = {written}".ljust(40) + f"# {explain}")
     return "\n".join(lines) + "\n"

@@ -17,21 +17,19 @@ from pathlib import Path
 from typing import Iterator
 
 from stallcheck.errors import InputError
+from stallcheck.files import keys
 from stallcheck.files import quantities as q
 from stallcheck.files.unitfile import MAX_FILE_BYTES, known_key, read_text, unknown_key
 
 #: Largest CSV read [bytes]: a table of many thousands of units.
 MAX_CSV_BYTES = 100 * MAX_FILE_BYTES
 
-#: Keys whose values are plain numbers, whole numbers, true/false, or words.
-NUMBERS = {"valve.cv", "valve.kv", "valve.rangeability", "valve.xt", "load.minimum", "design.ua_flow_exponent",
-           "drain.capacity_margin", "site.hours_per_year", "site.steam_price", "load.outdoor_air_minimum"}
-WHOLE = {"format", "geometry.coils_per_trap"}
-FLAGS = {"geometry.distributing_tubes", "geometry.pitched_to_return", "geometry.drop_vented",
-         "geometry.drip_before_valve"}
-WORDS = {"unit.name", "unit.tag", "design.medium", "design.method", "valve.characteristic", "load.varies",
-         "drain.arrangement", "drain.trap", "geometry.tubes", "geometry.supply_feed", "site.currency",
-         "site.weather", "load.season", "load.daily_hours"}
+#: Keys whose values are plain numbers, whole numbers, true/false, or words (the key
+#: table's kinds); every other column is a quantity.
+NUMBERS = keys.of_kind("number")
+WHOLE = keys.of_kind("whole")
+FLAGS = keys.of_kind("flag")
+WORDS = keys.of_kind("words")
 _TRUE = {"true", "yes", "1"}
 _FALSE = {"false", "no", "0"}
 

@@ -20,7 +20,7 @@ from pathlib import Path
 import tomli
 
 from stallcheck.errors import InputError
-from stallcheck.files import drainkeys
+from stallcheck.files import drainkeys, keys
 from stallcheck.files import quantities as q
 from stallcheck.files.ranges import (COLDEST_AIR, ELEVATION_RANGE, HOURS_A_YEAR, RETURN_AIR_RANGE,
                                      check_pressure_range, require_positive)
@@ -43,28 +43,8 @@ from stallcheck.physics.atmosphere import pressure_at
 MAX_FILE_BYTES = 1_000_000
 CV_PER_KV = q.CV_PER_KV
 
-_KNOWN = {
-    "": {"format", "unit", "site", "design", "steam", "valve", "load", "drain", "geometry"},
-    "unit": {"name", "tag"},
-    "site": {"elevation", "atmospheric_pressure", "hours_per_year", "steam_price", "steam_price_per",
-             "currency", "weather"},
-    "design": {"medium", "concentration", "flow", "inlet_temperature", "outlet_temperature",
-               "steam_pressure", "ua_flow_exponent", "method"},
-    "steam": {"supply_pressure"},
-    "valve": {"cv", "kv", "characteristic", "rangeability", "xt"},
-    "load": {"varies", "minimum", "bins", "outdoor_air_minimum", "return_air_temperature",
-             "mixed_air_temperature", "season", "daily_hours"},
-    "load.bins": {"inlet_temperature", "hours", "load"},
-    "drain": {"arrangement", "trap", "fill_head", "lift", "return_pressure",
-              "trap_min_differential", "capacity", "capacity_margin", "trap_orifice",
-              "motive_pressure", "pump_fill_head", "pump_capacity", "purge_orifice", "purge_rate",
-              "return_line", "return_temperature", "return_length", "return_pitch", "return_material",
-              "return_wall", "return_rating", "pump_rate", "check_closing_time"},
-    "drain.capacity": {"differential", "flow"},
-    "drain.pump_capacity": {"back_pressure", "flow"},
-    "geometry": {"tubes", "supply_feed", "distributing_tubes", "pitched_to_return",
-                 "coils_per_trap", "drop_to_trap", "drop_vented", "drip_before_valve"},
-}
+#: The keys each section takes (the key table, :mod:`stallcheck.files.keys`).
+_KNOWN = keys.known()
 
 
 #: Defaults as an SI file states them (the same zero values).

@@ -1,0 +1,142 @@
+"""The keys of the unit file (format 1), one row each: the one table the readers of unit
+files and CSV tables, and the questions of ``stallcheck new``, take their keys from.
+
+Each row names a dotted key, how its value is written, and what it is in a line. The
+unit file's reader refuses any key not here (a misspelt key would leave its default in
+force); a CSV column is read by its row's kind; ``new`` explains a key in its words.
+Rows of an array of tables (``[[load.bins]]``) are named under it (``load.bins.hours``).
+Adding a key: its row here, and its reading (range, unit) where its section is read.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+
+
+@dataclass(frozen=True)
+class Key:
+    """One key of the unit file.
+
+    Attributes
+    ----------
+    key : str
+        Dotted: section and name (``"drain.lift"``); a top-level key has no section.
+    kind : str
+        How its value is written: ``"quantity"`` (a string, number and unit),
+        ``"number"`` (a plain number), ``"whole"`` (a whole number), ``"flag"`` (true or
+        false), ``"words"`` (a string that is not a quantity), ``"table"`` (a table, or
+        an array of tables, of the keys named under it), or ``"quantity-or-table"``.
+    help : str
+        What it is, in a line.
+    """
+
+    key: str
+    kind: str
+    help: str
+
+
+KEYS = (
+    Key("format", "whole", "the format of the file: 1"),
+    Key("unit", "table", "the unit's name and tag"),
+    Key("unit.name", "words", "what the unit is called in reports"),
+    Key("unit.tag", "words", "the plant's own tag for it"),
+    Key("site", "table", "where the unit is"),
+    Key("site.elevation", "quantity", "sets the atmospheric pressure that gauge readings are relative to"),
+    Key("site.atmospheric_pressure", "quantity", "the atmospheric pressure itself, absolute"),
+    Key("site.hours_per_year", "number", "hours a year the unit runs, for a purge's yearly steam"),
+    Key("site.steam_price", "number", "price of steam per site.steam_price_per"),
+    Key("site.steam_price_per", "quantity", "the mass of steam the price is for"),
+    Key("site.currency", "words", "the price's currency, shown beside costs"),
+    Key("site.weather", "words", "an hourly EPW or TMY3 CSV weather year, relative to the unit file"),
+    Key("design", "table", "the selection point: full load"),
+    Key("design.medium", "words", "the medium on the other side of the coil"),
+    Key("design.concentration", "quantity", "mass fraction of glycol in the mix"),
+    Key("design.flow", "quantity", "mass or volume flow at full load (air volumes are standard air)"),
+    Key("design.inlet_temperature", "quantity",
+        "entering temperature at full load (for an outdoor-air coil, the coldest air)"),
+    Key("design.outlet_temperature", "quantity", "the leaving set point the control valve holds"),
+    Key("design.steam_pressure", "quantity", "the coil pressure at full load; it fixes the coil's size"),
+    Key("design.ua_flow_exponent", "number", "n in UA proportional to flow to the n"),
+    Key("design.method", "words", "heat transfer: ntu or mean-temperature"),
+    Key("steam", "table", "the steam supply"),
+    Key("steam.supply_pressure", "quantity",
+        "steam pressure ahead of the control valve, above the coil's so it can pass steam"),
+    Key("valve", "table", "the modulating control valve"),
+    Key("valve.cv", "number", "full-travel flow coefficient, Cv"),
+    Key("valve.kv", "number", "full-travel flow coefficient, Kv (m³/h of water at 1 bar drop; Cv = 1.156 Kv)"),
+    Key("valve.characteristic", "words", "inherent flow characteristic"),
+    Key("valve.rangeability", "number", "largest over smallest controllable Cv"),
+    Key("valve.xt", "number", "pressure-differential ratio factor at choked flow (IEC 60534-2-1)"),
+    Key("load", "table", "how the load moves"),
+    Key("load.varies", "words", "what moves the load: inlet-temperature or flow"),
+    Key("load.minimum", "number",
+        "lowest load fraction it runs at; below it the unit is off or held by other controls"),
+    Key("load.bins", "table", "operating hours by entering temperature or load"),
+    Key("load.bins.inlet_temperature", "quantity", "the bin's entering temperature"),
+    Key("load.bins.load", "number", "or the bin's load fraction"),
+    Key("load.bins.hours", "number", "the bin's hours a year"),
+    Key("load.outdoor_air_minimum", "number", "with a weather file: the least outdoor-air share"),
+    Key("load.return_air_temperature", "quantity", "with a weather file: the air mixed with the outdoor air"),
+    Key("load.mixed_air_temperature", "quantity", "with a weather file: an economiser's mixed-air set point"),
+    Key("load.season", "words", "with a weather file: the months it runs"),
+    Key("load.daily_hours", "words", "with a weather file: the hours of the day it runs"),
+    Key("drain", "table", "what drains the coil"),
+    Key("drain.arrangement", "words", "the installed drainage"),
+    Key("drain.trap", "words", "the trade type of the trap"),
+    Key("drain.fill_head", "quantity",
+        "height from the coil outlet down to the trap inlet: more of it drains a coil at low pressure"),
+    Key("drain.lift", "quantity", "rise in the discharge after the trap, which adds to the back pressure"),
+    Key("drain.return_pressure", "quantity",
+        "pressure in the return main or receiver: what the trap discharges against"),
+    Key("drain.trap_min_differential", "quantity", "smallest differential at which the trap opens"),
+    Key("drain.capacity", "table", "the trap's rated capacity against differential"),
+    Key("drain.capacity.differential", "quantity", "a row's differential"),
+    Key("drain.capacity.flow", "quantity", "a row's rated flow"),
+    Key("drain.capacity_margin", "number", "margin on the full-load condensate when selecting the trap"),
+    Key("drain.trap_orifice", "quantity", "seat bore of the trap"),
+    Key("drain.motive_pressure", "quantity", "a pump-trap's motive pressure"),
+    Key("drain.pump_fill_head", "quantity", "the filling head the pump-trap's maker asks for"),
+    Key("drain.pump_capacity", "quantity-or-table", "the pump-trap's capacity at this duty, or its table"),
+    Key("drain.pump_capacity.back_pressure", "quantity", "a row's back pressure"),
+    Key("drain.pump_capacity.flow", "quantity", "a row's capacity"),
+    Key("drain.purge_orifice", "quantity", "a constant purge's bore"),
+    Key("drain.purge_rate", "quantity", "or its stated steam rate"),
+    Key("drain.return_line", "quantity", "inside diameter of the line the trap discharges into"),
+    Key("drain.return_temperature", "quantity", "temperature of the condensate already in that line"),
+    Key("drain.return_length", "quantity", "length of that line to the receiver or main"),
+    Key("drain.return_pitch", "quantity", "its fall in the direction of flow per length"),
+    Key("drain.return_material", "words", "steel or copper"),
+    Key("drain.return_wall", "quantity", "its wall thickness"),
+    Key("drain.return_rating", "quantity", "the pressure the line and its fittings are rated for"),
+    Key("drain.pump_rate", "quantity", "a pump-trap's discharge rate while it pumps"),
+    Key("drain.check_closing_time", "quantity", "how long the check valve on the discharge takes to close"),
+    Key("geometry", "table", "the coil's and piping's layout"),
+    Key("geometry.tubes", "words", "horizontal or vertical tubes"),
+    Key("geometry.supply_feed", "words", "where steam enters the supply header: end or center"),
+    Key("geometry.distributing_tubes", "flag", "steam-distributing inner tubes"),
+    Key("geometry.pitched_to_return", "flag", "tubes pitched to the return header"),
+    Key("geometry.coils_per_trap", "whole", "coils drained by one trap"),
+    Key("geometry.drop_to_trap", "quantity", "vertical drop from the coil outlet to the trap"),
+    Key("geometry.drop_vented", "flag", "the drop back-vented to the steam space"),
+    Key("geometry.drip_before_valve", "flag", "a drip leg and trap just ahead of the control valve"),
+)
+
+#: Each key's row, by its dotted name.
+BY_NAME = {row.key: row for row in KEYS}
+
+
+def known() -> dict[str, set[str]]:
+    """The names each section (``""``: the top level; ``"load.bins"``: the rows of an
+    array of tables) takes."""
+    out: dict[str, set[str]] = {}
+    for row in KEYS:
+        section, _, name = row.key.rpartition(".")
+        out.setdefault(section, set()).add(name)
+        if row.kind in ("table", "quantity-or-table"):
+            out.setdefault(row.key, set())
+    return out
+
+
+def of_kind(*kinds: str) -> frozenset[str]:
+    """The dotted keys written as any of ``kinds``."""
+    return frozenset(row.key for row in KEYS if row.kind in kinds)

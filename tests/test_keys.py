@@ -1,0 +1,86 @@
+"""The key table (``files/keys.py``) is the one list of unit-file keys: each row's kind
+is how the reader takes the key, so a row with the wrong kind, or a key read that has
+no row, fails here."""
+
+from __future__ import annotations
+
+import copy
+from pathlib import Path
+
+import pytest
+
+from stallcheck import wizard
+from stallcheck.errors import InputError
+from stallcheck.files import csvunits, keys, unitfile
+
+WEATHER = str(Path(__file__).resolve().parent.parent / "sample_units" / "weather"
+              / "greensboro_723170_tmy3_drybulb.csv")
+
+#: A unit giving every section, so that each key is read where it is written.
+BASE = {
+    "format": 1, "unit": {"name": "Pellham Street AHU-6 preheat", "tag": "AHU-6"},
+    "site": {"elevation": "100 m", "weather": WEATHER},
+    "design": {"medium": "air", "flow": "5000 cfm", "inlet_temperature": "0 degF",
+               "outlet_temperature": "55 degF", "steam_pressure": "5 psig"},
+    "steam": {"supply_pressure": "15 psig"},
+    "valve": {"cv": 12, "characteristic": "equal-percentage"},
+    "load": {"minimum": 0.1, "outdoor_air_minimum": 0.3, "return_air_temperature": "20 degC"},
+    "drain": {"arrangement": "trap", "trap": "float-thermostatic", "fill_head": "18 in", "lift": "0 ft",
+              "return_pressure": "0 psig"},
+    "geometry": {"tubes": "horizontal"},
+}
+
+#: What a key needs beside it to be read: (section, key to drop), {section: values to add}.
+NEEDS = {
+    "valve.kv": ([("valve", "cv")], {}),
+    "site.atmospheric_pressure": ([("site", "elevation")], {}),
+    "site.steam_price_per": ([], {"site": {"steam_price": 20}}),
+    "design.concentration": ([], {"design": {"medium": "propylene-glycol", "flow": "50 gpm",
+                                             "inlet_temperature": "140 degF", "outlet_temperature": "180 degF"},
+                                  "load": {"varies": "flow", "minimum": 0.1}, "site": {"elevation": "100 m"}}),
+}
+#: A value of the wrong kind for each kind.
+WRONG = {"number": "3 ft", "whole": "two", "flag": "sometimes", "quantity": 7, "words": 7}
+
+
+def _data(row):
+    data = copy.deepcopy(BASE)
+    drop, add = NEEDS.get(row.key, ([], {}))
+    for section, key in drop:
+        data[section].pop(key, None)
+    for section, values in add.items():
+        if row.key == "design.concentration":
+            data[section] = dict(values)
+        else:
+            data[section].update(values)
+    if row.key == "design.concentration":
+        data["site"].pop("weather", None)
+    return data
+
+
+def test_the_base_unit_reads():
+    assert unitfile.from_data(copy.deepcopy(BASE), "pellham.toml").site.weather is not None
+
+
+@pytest.mark.parametrize("row", [r for r in keys.KEYS if r.kind in WRONG and r.key.count(".") == 1],
+                         ids=lambda r: r.key)
+def test_a_value_of_the_wrong_kind_is_refused_naming_its_key(row):
+    data = _data(row)
+    section, name = row.key.split(".")
+    data.setdefault(section, {})[name] = WRONG[row.kind]
+    with pytest.raises(InputError) as err:
+        unitfile.from_data(data, "pellham.toml")
+    assert err.value.key == row.key, str(err.value)
+
+
+def test_a_key_not_in_the_table_is_refused():
+    data = copy.deepcopy(BASE)
+    data["drain"]["lfit"] = "2 ft"
+    with pytest.raises(InputError, match="did you mean 'lift'"):
+        unitfile.from_data(data, "pellham.toml")
+
+
+def test_csv_columns_and_the_questions_of_new_come_from_the_table():
+    assert csvunits.NUMBERS == keys.of_kind("number") and csvunits.FLAGS == keys.of_kind("flag")
+    for question in wizard.QUESTIONS:
+        assert question.explain == keys.BY_NAME[question.key].help
