@@ -30,8 +30,6 @@ class Site:
     ----------
     atmospheric_pressure : float
         Atmospheric pressure used for every gauge value. [Pa]
-    basis : str
-        How it was found, in words, for the assumptions list.
     hours_per_year : float or None
         Hours a year the unit runs, for yearly purge figures (load bins override). [h]
     steam_price : float or None
@@ -49,7 +47,6 @@ class Site:
     """
 
     atmospheric_pressure: float
-    basis: str
     hours_per_year: float | None = None
     steam_price: float | None = None
     steam_price_per: float | None = None

@@ -673,6 +673,52 @@ class Remedy:
 
 
 @dataclass(frozen=True)
+class Basis:
+    """What the analysis took as given, as facts: the Assumptions are said from them
+    (:func:`stallcheck.render.words.assumptions`).
+
+    Attributes
+    ----------
+    ua_exponent : float
+        n in UA ∝ flowⁿ. [-]
+    atmosphere : str
+        How the atmospheric pressure was found: ``"standard"`` (sea level),
+        ``"elevation"`` or ``"given"``.
+    elevation : float or None
+        The elevation it was found from. [m]
+    valve : bool
+        A control valve is described.
+    clipped : bool
+        The model asked for steam below 0 °C at the lowest loads.
+    defaults : tuple of str
+        Defaults taken for keys the file leaves out, as the file would write them.
+    weather : str or None
+        The weather file the hours come from.
+    outdoor_air : float
+        Its least outdoor-air share. [-]
+    return_air, mixed_air : float or None
+        The air mixed in and an economiser's set point. [K]
+    scheduled : bool
+        A season or daily hours are given.
+    bins_unused : bool
+        Load bins are given but the weather file's hours are used.
+    """
+
+    ua_exponent: float
+    atmosphere: str
+    elevation: float | None
+    valve: bool
+    clipped: bool
+    defaults: tuple[str, ...]
+    weather: str | None = None
+    outdoor_air: float = 1.0
+    return_air: float | None = None
+    mixed_air: float | None = None
+    scheduled: bool = False
+    bins_unused: bool = False
+
+
+@dataclass(frozen=True)
 class Result:
     """Everything ``check`` reports about one unit.
 
@@ -705,7 +751,7 @@ class Result:
     drainage: Drainage
     valve: ValveResult | None
     findings: tuple[Finding, ...]
-    assumptions: tuple[str, ...]
+    basis: Basis | None
     trap: TrapFigures | None = None
     pump_trap: PumpTrapFigures | None = None
     purge: PurgeFigures | None = None

@@ -31,6 +31,7 @@ from stallcheck.cli import app  # noqa: E402
 from stallcheck.errors import InputError  # noqa: E402
 from stallcheck.files import unitfile, weather  # noqa: E402
 from stallcheck.physics import coil  # noqa: E402
+from stallcheck.render import words  # noqa: E402
 
 ROOT = Path(__file__).resolve().parent.parent
 DATA = Path(pvlib.__file__).parent / "data"
@@ -254,7 +255,7 @@ def test_a_unit_file_with_bins_and_a_weather_file_says_which_it_used(tmp_path):
     data["load"]["bins"] = [{"inlet_temperature": "20 degF", "hours": 100}]
     r = _analyse(data)
     assert r.year is not None and r.total_hours == r.year.operating  # not the bins' 100 h
-    assert any("weather file" in a and "load bins" in a for a in r.assumptions)
+    assert any("weather file" in a and "load bins" in a for a in words.assumptions(r, r.system))
 
 
 # --- the outputs ----------------------------------------------------------------------

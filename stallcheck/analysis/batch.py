@@ -29,7 +29,7 @@ from stallcheck.analysis import devices
 from stallcheck.physics import drainage, properties
 from stallcheck.physics import valve as valvemod
 from stallcheck.physics.solve import illinois
-from stallcheck.result import CAUTIONS, YEAR_CAUTION, DesignPoint, Drainage, Points, Remedy, Result, StallPoint, ValveResult
+from stallcheck.result import CAUTIONS, YEAR_CAUTION, Basis, DesignPoint, Drainage, Points, Remedy, Result, StallPoint, ValveResult
 
 #: Specific heat of air [J/(kg·K)] (the unit-file conventions).
 AIR_CP = 1006.0
@@ -87,7 +87,7 @@ def analyse_many(units: list[Unit], system: str | None = None, method: str | Non
         half of each unit's steam-table calls); every other figure is the same.
     complete : bool
         The whole result. Without it a result holds the verdict, the findings and the
-        figures they rest on, and no more: no remedies or assumptions (empty), and no
+        figures they rest on, and no more: no remedies or basis of the assumptions, and no
         drainage limit for a trap selected by the usual rule (a figure shown, never
         judged). That is what a survey table shows; the survey makes such results for
         it and gives none of them out.
@@ -403,7 +403,7 @@ def _analyse(units: list[Unit], systems: list[str], tabulate: bool = True, compl
             trap_min_differential=float(b.trap_min[i]), lift=float(b.lift[i]), fill_head=float(b.fill_height[i]),
             supply_pressure=float(b.supply[i]), design=d, stall=s, points=points, stalled_hours=stalled_hours,
             total_hours=total_hours, drainage=drains[i], valve=valves[i], findings=(),
-            assumptions=_assumptions(u, bool(clipped[i]), traps[i], systems[i]) if complete else (), trap=traps[i],
+            basis=_basis(u, bool(clipped[i])) if complete else None, trap=traps[i],
             pump_trap=pump, purge=purge, flash=flashes[i], remedies=fixes[i], warnings=u.warnings, return_line=line,
             surge=shock, year=year, cautions=CAUTIONS + ((YEAR_CAUTION,) if year is not None else ()),
             set_point_floor_load=float(floor_load[i]))
@@ -715,72 +715,13 @@ def _hours(unit: Unit, stall_fraction: float, load, hours,
     return float(hours[stalled].sum()), float(hours.sum())
 
 
-def _assumptions(unit: Unit, clipped: bool, trap, system: str = "si") -> tuple[str, ...]:
-    d = unit.design
-    method = ("NTU: condensing steam, ε = 1 − exp(−NTU), UA fixed by the design point"
-              if d.method == "ntu" else
-              "mean temperature: load ∝ (T_steam − mean of entering and leaving temperature)")
-    if unit.load.varies == "flow":
-        method += f"; UA ∝ flow^{d.ua_flow_exponent:g}"
-    out = [
-        f"Method: {method}.",
-        f"Load varies with {'entering temperature at fixed flow' if unit.load.varies == 'inlet-temperature' else 'flow at fixed temperatures'}.",
-        f"Atmospheric pressure {unit.site.basis}; gauge values are relative to it.",
-        "Steam saturated (IAPWS-IF97); condensate leaves at saturation; "
-        "heads use saturated water density at the return pressure.",
-    ]
-    if d.medium == "air":
-        out.append("Air cp 1.006 kJ/(kg·K); air volumes are standard air, 1.204 kg/m³.")
-    else:
-        out.append("Liquid cp (and density, for volume flows) at the mean design temperature (CoolProp: "
-                   "HEOS water, incompressible glycol mixtures).")
-    if unit.valve is not None:
-        out.append("Valve: IEC 60534-2-1 with γ = 1.30 for steam, F_P = 1, inherent characteristic.")
-    out.append(_trap_basis(trap))
-    if unit.site.weather is not None:
-        out.append(_year_basis(unit, system))
-    if d.method == "mean-temperature" and unit.load.varies == "flow":
-        out.append("Mean temperature with the flow varying: where the method would ask for steam colder than "
-                   "the leaving set point, the set point's saturation temperature is used (a lower bound on "
-                   "what the coil needs, so the stall point is on the safe side).")
-    if clipped:
-        out.append("At the lowest loads the steam temperature the model asks for is below 0 °C; "
-                   "those points are held at the bottom of the steam tables (0 °C, 0.61 kPa(abs)).")
-    out.extend(f"Default: {text}." for text in unit.defaults)
-    return tuple(out)
-
-
-def _year_basis(unit: Unit, system: str) -> str:
-    """What the hours of the weather year stand for, in words."""
-    ld, w = unit.load, unit.site.weather
-
-    def t(kelvin):
-        return q.show(kelvin, "temperature", system)
-
-    if ld.outdoor_air_minimum >= 1.0:
-        air = "all outdoor air"
-    else:
-        air = (f"at least {ld.outdoor_air_minimum:.0%} outdoor air mixed with return air at "
-               f"{t(ld.return_air_temperature)}")
-        if ld.mixed_air_temperature is not None:
-            air += f", more outdoor air where it brings the mixture down to {t(ld.mixed_air_temperature)}"
-    text = (f"Hours: each hour of the weather file {w.path} gives the air entering the coil ({air}; mixing "
-            f"taken even, without stratification); the unit runs where that air is below the set point"
-            + ("" if not ld.season and ld.daily_hours is None else ", in its season and daily hours (local "
-               "standard time)") + "; days of the week and holidays are not modelled.")
-    if ld.bins:
-        text += " The load bins are not used: the weather file's hours are."
-    return text
-
-
-def _trap_basis(trap) -> str:
-    """Where the trap's capacity comes from, in words."""
-    if trap.basis == "table":
-        return ("Trap capacity: the [[drain.capacity]] table, read on log-log axes, scaled as the square "
-                "root of differential below its lowest row and never extrapolated above its highest.")
-    model = ("a sharp-edged orifice, C_d 0.6, passing saturated condensate, reduced for flashing by "
-             "Fauske's non-equilibrium model (5 mm seat) with the omega method's equilibrium flux")
-    if trap.basis == "orifice":
-        return f"Trap capacity: the seat bore given, as {model}."
-    return (f"Trap capacity: none given, so a trap selected by the usual rule ({trap.margin:g} x full-load "
-            f"condensate at the working differential, at least 1/4 psi), modelled as {model}.")
+def _basis(unit: Unit, clipped: bool) -> Basis:
+    """What the analysis of ``unit`` took as given (the Assumptions' facts)."""
+    site, ld, w = unit.site, unit.load, unit.site.weather
+    return Basis(
+        ua_exponent=unit.design.ua_flow_exponent,
+        atmosphere="given" if site.pressure_given else "elevation" if site.elevation is not None else "standard",
+        elevation=site.elevation, valve=unit.valve is not None, clipped=clipped, defaults=unit.defaults,
+        weather=None if w is None else w.path, outdoor_air=ld.outdoor_air_minimum,
+        return_air=ld.return_air_temperature, mixed_air=ld.mixed_air_temperature,
+        scheduled=bool(ld.season) or ld.daily_hours is not None, bins_unused=w is not None and bool(ld.bins))

@@ -371,7 +371,7 @@ def _build(data: dict, source: str, folder: str | Path | None = None) -> Unit:
 def _site(r: _Reader, folder: str | Path | None) -> Site:
     site = r.table("site", required=False)
     where = _where(r, site)
-    return Site(where.atmospheric_pressure, where.basis, **_costs(r, site or {}), elevation=where.elevation,
+    return Site(where.atmospheric_pressure, **_costs(r, site or {}), elevation=where.elevation,
                 pressure_given=where.pressure_given, weather=_weather(site or {}, folder))
 
 
@@ -417,7 +417,7 @@ def _where(r: _Reader, site: dict | None) -> Site:
     if not site or not ({"elevation", "atmospheric_pressure"} & set(site)):
         r.defaults.append("atmospheric pressure 101.325 kPa (sea level; [site] gives no elevation "
                           "or atmospheric_pressure)")
-        return Site(q.STANDARD_ATMOSPHERE, "101.325 kPa (standard, sea level)")
+        return Site(q.STANDARD_ATMOSPHERE)
     if "elevation" in site and "atmospheric_pressure" in site:
         raise InputError("site", "give either elevation or atmospheric_pressure, not both.")
     if "atmospheric_pressure" in site:
@@ -428,7 +428,7 @@ def _where(r: _Reader, site: dict | None) -> Site:
         if not 30e3 <= p.pascal <= 110e3:
             raise InputError("site.atmospheric_pressure",
                              f"\"{site['atmospheric_pressure']}\" is out of range; accepted: 30 to 110 kPaa.")
-        return Site(p.pascal, f"{p.pascal / 1000:.2f} kPa (given)", pressure_given=True)
+        return Site(p.pascal, pressure_given=True)
     if "elevation" in site:
         r.vote(site["elevation"])
         z = q.length("site.elevation", site["elevation"])
@@ -436,7 +436,7 @@ def _where(r: _Reader, site: dict | None) -> Site:
             raise InputError("site.elevation", f"\"{site['elevation']}\" is out of range; accepted: -500 m to 9000 m "
                                                f"(-1,640 ft to 29,527 ft).")
         p = pressure_at(z)
-        return Site(p, f"{p / 1000:.2f} kPa (standard atmosphere at {z:.0f} m)", elevation=z)
+        return Site(p, elevation=z)
 
 
 def _design(r: _Reader, atm: float) -> Design:

@@ -125,7 +125,7 @@ def to_dict(r: Result, sentences: bool = True) -> dict:
         "advice": _advice(r),
         "findings": [{"code": f.code, "severity": f.severity, "message": words.finding(f, r, r.system)}
                      for f in r.findings],
-        "assumptions": list(r.assumptions),
+        "assumptions": list(words.assumptions(r, r.system)),
         "warnings": list(r.warnings),
         "cautions": list(r.cautions),
         "exit_status": r.exit_status,

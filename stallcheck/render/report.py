@@ -65,7 +65,7 @@ def markdown(unit: Unit, r: Result, system: str, version: str, date: str, pictur
                                       f"{v.rangeability:g}"))
     out += ["## The unit", "", "| | |", "|---|---|"] + [f"| {a} | {b} |" for a, b in rows] + [""]
 
-    out += ["## Method and assumptions", ""] + [f"- {a}" for a in r.assumptions] + [""]
+    out += ["## Method and assumptions", ""] + [f"- {a}" for a in words.assumptions(r, system)] + [""]
 
     s = r.stall
     out += ["## Stall point", ""]

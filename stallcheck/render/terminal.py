@@ -174,7 +174,7 @@ def report(result: Result, system: str, width: int = 80) -> list:
     parts += _remedies(r, system)
     parts += [_heading("Stall chart"), chart_block(r, system, width=width - 2), *line_summary(r), BLANK]
 
-    parts += [_heading("Assumptions"), *bullets(r.assumptions, style="dim"), BLANK]
+    parts += [_heading("Assumptions"), *bullets(words.assumptions(r, system), style="dim"), BLANK]
     if r.warnings:
         parts += [_heading("Input warnings"), *bullets(r.warnings, style="yellow"), BLANK]
     parts += [_heading("Caution"), *bullets(r.cautions)]

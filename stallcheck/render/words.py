@@ -554,3 +554,87 @@ def drainage_reasons(dr, system: str, atmospheric: float) -> tuple[str, str]:
         facts["where"] = fill(where, facts, system, atmospheric)
     return (fill(REQUIREMENTS[dr.requirement], facts, system, atmospheric),
             fill(ADEQUACY[dr.adequacy], facts, system, atmospheric))
+
+
+# --- the assumptions --------------------------------------------------------------
+
+
+def assumptions(r, system: str) -> tuple[str, ...]:
+    """What the analysis took as given, in sentences (empty for a result made without
+    its basis, as a survey's table makes them): the method, the atmosphere, the steam
+    and the medium, the valve and trap models, the weather year's hours, and every
+    default taken."""
+    b = r.basis
+    if b is None:
+        return ()
+    method = ("NTU: condensing steam, ε = 1 − exp(−NTU), UA fixed by the design point"
+              if r.method == "ntu" else
+              "mean temperature: load ∝ (T_steam − mean of entering and leaving temperature)")
+    if r.varies == "flow":
+        method += f"; UA ∝ flow^{b.ua_exponent:g}"
+    atm = r.atmospheric_pressure
+    where = {"given": f"{atm / 1000:.2f} kPa (given)",
+             "elevation": f"{atm / 1000:.2f} kPa (standard atmosphere at {b.elevation or 0.0:.0f} m)",
+             "standard": "101.325 kPa (standard, sea level)"}[b.atmosphere]
+    varies = ("entering temperature at fixed flow" if r.varies == "inlet-temperature"
+              else "flow at fixed temperatures")
+    out = [
+        f"Method: {method}.",
+        f"Load varies with {varies}.",
+        f"Atmospheric pressure {where}; gauge values are relative to it.",
+        "Steam saturated (IAPWS-IF97); condensate leaves at saturation; "
+        "heads use saturated water density at the return pressure.",
+    ]
+    if r.medium == "air":
+        out.append("Air cp 1.006 kJ/(kg·K); air volumes are standard air, 1.204 kg/m³.")
+    else:
+        out.append("Liquid cp (and density, for volume flows) at the mean design temperature (CoolProp: "
+                   "HEOS water, incompressible glycol mixtures).")
+    if b.valve:
+        out.append("Valve: IEC 60534-2-1 with γ = 1.30 for steam, F_P = 1, inherent characteristic.")
+    if r.trap is not None:
+        out.append(_trap_basis(r.trap))
+    if b.weather is not None:
+        out.append(_year_basis(b, system))
+    if r.method == "mean-temperature" and r.varies == "flow":
+        out.append("Mean temperature with the flow varying: where the method would ask for steam colder than "
+                   "the leaving set point, the set point's saturation temperature is used (a lower bound on "
+                   "what the coil needs, so the stall point is on the safe side).")
+    if b.clipped:
+        out.append("At the lowest loads the steam temperature the model asks for is below 0 °C; "
+                   "those points are held at the bottom of the steam tables (0 °C, 0.61 kPa(abs)).")
+    out.extend(f"Default: {text}." for text in b.defaults)
+    return tuple(out)
+
+
+def _year_basis(b, system: str) -> str:
+    """What the hours of the weather year stand for."""
+    def t(kelvin):
+        return q.show(kelvin, "temperature", system)
+
+    if b.outdoor_air >= 1.0:
+        air = "all outdoor air"
+    else:
+        air = f"at least {b.outdoor_air:.0%} outdoor air mixed with return air at {t(b.return_air)}"
+        if b.mixed_air is not None:
+            air += f", more outdoor air where it brings the mixture down to {t(b.mixed_air)}"
+    text = (f"Hours: each hour of the weather file {b.weather} gives the air entering the coil ({air}; mixing "
+            f"taken even, without stratification); the unit runs where that air is below the set point"
+            + (", in its season and daily hours (local standard time)" if b.scheduled else "")
+            + "; days of the week and holidays are not modelled.")
+    if b.bins_unused:
+        text += " The load bins are not used: the weather file's hours are."
+    return text
+
+
+def _trap_basis(trap) -> str:
+    """Where the trap's capacity comes from."""
+    if trap.basis == "table":
+        return ("Trap capacity: the [[drain.capacity]] table, read on log-log axes, scaled as the square "
+                "root of differential below its lowest row and never extrapolated above its highest.")
+    model = ("a sharp-edged orifice, C_d 0.6, passing saturated condensate, reduced for flashing by "
+             "Fauske's non-equilibrium model (5 mm seat) with the omega method's equilibrium flux")
+    if trap.basis == "orifice":
+        return f"Trap capacity: the seat bore given, as {model}."
+    return (f"Trap capacity: none given, so a trap selected by the usual rule ({trap.margin:g} x full-load "
+            f"condensate at the working differential, at least 1/4 psi), modelled as {model}.")
