@@ -49,22 +49,25 @@ def read_unit(source: str | Path | Mapping[str, Any], name: str = "unit") -> Uni
     return unitfile.load(source)
 
 
-def analyse(unit: Unit | str | Path | Mapping[str, Any], units: str | None = None,
-            method: str | None = None) -> Result:
+def analyse(unit: Unit | str | Path | Mapping[str, Any], system: str | None = None,
+            method: str | None = None, *, units: str | None = None) -> Result:
     """Analyse one unit (a :class:`Unit`, or anything :func:`read_unit` takes).
 
     Parameters
     ----------
-    units : {"us", "si"}, optional
-        Units for the words in reasons and findings (default: the file's own).
+    system : {"us", "si"}, optional
+        Display units for the words in reasons and findings (default: the file's own),
+        as :func:`analyse_many` names it.
     method : {"ntu", "mean-temperature"}, optional
         Override the file's heat-transfer method.
+    units : {"us", "si"}, optional
+        The former name of ``system``, still taken.
     """
     from stallcheck import analysis
 
     if not isinstance(unit, Unit):
         unit = read_unit(unit)
-    return analysis.analyse(unit, system=units, method=method)
+    return analysis.analyse(unit, system=system or units, method=method)
 
 
 def analyse_many(units: Iterable[Unit | str | Path | Mapping[str, Any]], system: str | None = None,

@@ -74,3 +74,10 @@ def test_the_package_lists_its_public_names_and_analyse_many_takes_paths():
     assert isinstance(got[0], stallcheck.api.Result) and isinstance(got[2], stallcheck.api.Result)
     assert isinstance(got[1], stallcheck.InputError) and "no-such-unit.toml" in str(got[1])
     assert got[0].unit == stallcheck.analyse(ROOT / "sample_units" / "si_water_heater.toml").unit
+
+
+def test_analyse_names_the_display_units_as_analyse_many_does():
+    sample = ROOT / "sample_units" / "si_water_heater.toml"
+    us = stallcheck.analyse(sample, system="us")
+    assert us.system == "us" and stallcheck.analyse(sample, units="us").system == "us"
+    assert stallcheck.analyse_many([sample], system="us")[0].system == "us"

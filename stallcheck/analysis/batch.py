@@ -29,7 +29,8 @@ from stallcheck.analysis import devices
 from stallcheck.physics import drainage, properties
 from stallcheck.physics import valve as valvemod
 from stallcheck.physics.solve import illinois
-from stallcheck.result import CAUTIONS, YEAR_CAUTION, Basis, DesignPoint, Drainage, Points, Remedy, Result, StallPoint, ValveResult
+from stallcheck.result import (CAUTIONS, YEAR_CAUTION, Basis, DesignPoint, Drainage, Points, Remedy, Result,
+                               StallPoint, ValveResult)
 
 #: Specific heat of air [J/(kg·K)] (the unit-file conventions).
 AIR_CP = 1006.0
@@ -189,14 +190,26 @@ def _freezing(design) -> float:
 
 @dataclass
 class Batch:
-    """Units as columns: one array element per unit, SI. Built by :func:`columns`."""
+    """Units as columns: one array element per unit, SI. Built by :func:`columns`.
+
+    Attributes
+    ----------
+    condensate_design : ndarray
+        Steam condensed at full load. [kg/s] (``coil.steam_design`` is the steam's
+        temperature there [K].)
+    fill_height, fill_pressure : ndarray
+        The fill head as a height [m] and as the pressure its water gives [Pa].
+    stall_pressure : ndarray
+        Coil pressure at or below which the trap cannot discharge: the back pressure
+        plus the trap's least differential, less the fill head. [Pa] absolute
+    """
 
     units: list
     atm: np.ndarray
     coil: coilmod.CoilModel
     design_pressure: np.ndarray
     load_design: np.ndarray
-    steam_design: np.ndarray
+    condensate_design: np.ndarray
     mass_flow: np.ndarray
     cp: np.ndarray
     supply: np.ndarray
@@ -207,8 +220,8 @@ class Batch:
     minimum: np.ndarray
     density: np.ndarray
     back: np.ndarray
-    fill: np.ndarray
-    threshold: np.ndarray
+    fill_pressure: np.ndarray
+    stall_pressure: np.ndarray
 
     def state(self, load, index=slice(None)):
         """Steam temperature [K], coil pressure [Pa] and condensate [kg/s] at load
@@ -254,10 +267,10 @@ def columns(units: list[Unit]) -> Batch:
     fill = drainage.head(fill_h, rho)
     return Batch(units=units, atm=col(lambda u: u.site.atmospheric_pressure), coil=coil,
                  design_pressure=p_design, load_design=load_design,
-                 steam_design=load_design / properties.latent_heat(p_design), mass_flow=mass_flow, cp=cp,
+                 condensate_design=load_design / properties.latent_heat(p_design), mass_flow=mass_flow, cp=cp,
                  supply=col(lambda u: u.supply_pressure), return_pressure=ret, lift=lift, fill_height=fill_h,
-                 trap_min=trap_min, minimum=col(lambda u: u.load.minimum), density=rho, back=back, fill=fill,
-                 threshold=back + trap_min - fill)
+                 trap_min=trap_min, minimum=col(lambda u: u.load.minimum), density=rho, back=back,
+                 fill_pressure=fill, stall_pressure=back + trap_min - fill)
 
 
 def _medium_flow(units: list[Unit]) -> tuple[np.ndarray, np.ndarray]:
@@ -327,7 +340,7 @@ def _analyse(units: list[Unit], systems: list[str], tabulate: bool = True, compl
     if tabulate:
         f = LOAD_GRID[None, :]
         steam_t, coil_p, steam_flow = b.state(np.broadcast_to(f, (n, LOAD_GRID.size)))
-        differential = coil_p + b.fill[:, None] - b.back[:, None]
+        differential = coil_p + b.fill_pressure[:, None] - b.back[:, None]
         stalled = differential <= b.trap_min[:, None] - drainage.PRESSURE_TOLERANCE
         grid = (steam_t, coil_p, steam_flow, differential, stalled, coilmod.inlet_temperature(b.coil.column(), f))
 
@@ -346,8 +359,9 @@ def _analyse(units: list[Unit], systems: list[str], tabulate: bool = True, compl
     drains, effective = [], []
     for i, u in enumerate(units):
         s = stall[i]
-        need = drainage.requirement(s.load_fraction or 0.0, s.floods_in_range, float(b.threshold[i]), float(b.atm[i]))
-        ok, why = drainage.adequacy(u.drain.arrangement, need.required)
+        need = drainage.required_arrangement(s.load_fraction or 0.0, s.floods_in_range, float(b.stall_pressure[i]),
+                                             float(b.atm[i]))
+        ok, why = drainage.installed_adequate(u.drain.arrangement, need.required)
         if s.valve_load_fraction is not None:
             need.facts.update(valve_load=s.valve_load_fraction, valve_pressure=s.valve_coil_pressure,
                               by_load=s.in_range)
@@ -365,10 +379,10 @@ def _analyse(units: list[Unit], systems: list[str], tabulate: bool = True, compl
     else:
         fixes = [()] * n
 
-    lines_all = linesmod.return_lines(units, b.steam_design, b.design_pressure, stall, w_min, p_min)
+    lines_all = linesmod.return_lines(units, b.condensate_design, b.design_pressure, stall, w_min, p_min)
     results = []
     for i, u in enumerate(units):
-        d = DesignPoint(load=float(b.load_design[i]), steam_flow=float(b.steam_design[i]),
+        d = DesignPoint(load=float(b.load_design[i]), steam_flow=float(b.condensate_design[i]),
                         coil_pressure=float(b.design_pressure[i]), steam_temperature=float(b.coil.steam_design[i]),
                         medium_mass_flow=float(b.mass_flow[i]), medium_cp=float(b.cp[i]))
         points = None
@@ -392,14 +406,14 @@ def _analyse(units: list[Unit], systems: list[str], tabulate: bool = True, compl
                                                 s.valve_load_fraction)
         pump = devices.pump_trap_figures(u, drains[i].required, s, float(b.back[i]), float(b.supply[i]))
         line = lines_all[i]
-        shock = devices.surge_figures(u, pump, float(b.back[i]), float(b.steam_design[i]))
+        shock = devices.surge_figures(u, pump, float(b.back[i]), float(b.condensate_design[i]))
         purge = devices.purge_figures(u, b.one(i), float(b.back[i]), float(b.design_pressure[i]),
                                       float(p_min[i]), bins_load, bins_hours, hours_basis)
         result = Result(
             unit=u.name, tag=u.tag, source=u.source, system=systems[i], method=u.design.method,
             varies=u.load.varies, medium=u.design.medium, minimum_load=u.load.minimum,
             atmospheric_pressure=float(b.atm[i]), return_pressure=float(b.return_pressure[i]),
-            back_pressure=float(b.back[i]), fill_head_pressure=float(b.fill[i]),
+            back_pressure=float(b.back[i]), fill_head_pressure=float(b.fill_pressure[i]),
             trap_min_differential=float(b.trap_min[i]), lift=float(b.lift[i]), fill_head=float(b.fill_height[i]),
             supply_pressure=float(b.supply[i]), design=d, stall=s, points=points, stalled_hours=stalled_hours,
             total_hours=total_hours, drainage=drains[i], valve=valves[i], findings=(),
@@ -422,7 +436,7 @@ def _stall_points(b: Batch, p_min) -> list[StallPoint]:
     only where it is that far above the coil pressure at the minimum load, ``p_min``
     [Pa], too.
     """
-    thr = b.threshold
+    thr = b.stall_pressure
     valid = thr > properties.P_MIN
     t_stall = properties.saturation_temperature(np.clip(thr, properties.P_MIN, properties.P_CRIT))
     f_stall = coilmod.load_at_steam_temperature(b.coil, t_stall)
@@ -467,7 +481,7 @@ def _valves(b: Batch, coil_p, steam_flow):
         cv_need = valvemod.required_cv(steam_flow[idx], p1[:, None], coil_p[idx], rho1[:, None], xt[:, None])
         opening = np.full(coil_p.shape, np.nan)
         opening[idx] = valvemod.travel(cv_need / cv[:, None], characteristic[:, None], rangeability[:, None])
-    cv_design = valvemod.required_cv(b.steam_design[idx], p1, b.design_pressure[idx], rho1, xt)
+    cv_design = valvemod.required_cv(b.condensate_design[idx], p1, b.design_pressure[idx], rho1, xt)
     ok = cv_design <= cv
 
     # valve-limited point: the coil pressure where the open valve passes exactly what
@@ -558,7 +572,7 @@ def _aim_ratio(b: Batch, units, cv, p1, rho1, xt):
     holds the coil there is Cv times this (the valve's flow goes as its Cv), and so is
     the design steam temperature's span above the entering air (the coil condenses as
     T_s − T_in,d over T_s,d − T_in,d)."""
-    aim = b.threshold[units] + remedies.MARGIN
+    aim = b.stall_pressure[units] + remedies.MARGIN
     ok = (aim > properties.P_MIN) & (aim < p1)
     aim = np.clip(aim, properties.P_MIN, p1)
     condensed = (b.load_design[units] * coilmod.delivered_fraction(b.coil.take(units),
@@ -577,14 +591,14 @@ def _valve_stall_loads(b: Batch, valves) -> tuple[np.ndarray, np.ndarray]:
     out = np.full(len(b.units), np.nan)
     fix = np.full(len(b.units), np.nan)
     short = np.array([v is not None and not v.capacity_ok
-                      and b.threshold[i] - v.limited_coil_pressure > drainage.PRESSURE_TOLERANCE
-                      and b.threshold[i] < b.supply[i]
+                      and b.stall_pressure[i] - v.limited_coil_pressure > drainage.PRESSURE_TOLERANCE
+                      and b.stall_pressure[i] < b.supply[i]
                       for i, v in enumerate(valves)], dtype=bool)
     units = np.flatnonzero(short)
     if not units.size:
         return out, fix
     cv, p1, rho1, xt = _valve_terms(b, valves, units)
-    thr = b.threshold[units]
+    thr = b.stall_pressure[units]
     t_thr = properties.saturation_temperature(thr)
     passed = valvemod.steam_flow(cv, p1, thr, rho1, xt)
     heat = passed * properties.latent_heat(thr)
@@ -679,7 +693,7 @@ def _valve_limited_grid(b: Batch, valves, grid, opening):
         steam_t[unit_of, load_of] = properties.saturation_temperature(p)
         steam_flow[unit_of, load_of] = valvemod.steam_flow(cv, p1, p, rho1, xt)
         opening[unit_of, load_of] = 1.0
-        differential = coil_p + b.fill[:, None] - b.back[:, None]
+        differential = coil_p + b.fill_pressure[:, None] - b.back[:, None]
         stalled = differential <= b.trap_min[:, None] - drainage.PRESSURE_TOLERANCE
     return steam_t, coil_p, steam_flow, differential, stalled, inlet_t
 

@@ -142,7 +142,7 @@ def working_points(b, effective, stall, p_min, w_min):
     w_stall = np.array([s.condensate if s.occurs else 0.0 for s in stall])
     load = np.where(pump, f_stall, np.where(breaker, np.maximum(f_atm, f_min), f_min))
     flow = np.where(pump, w_stall, np.where(breaker, np.maximum(w_atm, w_min), w_min))
-    dp = np.where(pump, b.fill, np.where(breaker, b.atm + b.fill - b.back, p_min + b.fill - b.back))
+    dp = np.where(pump, b.fill_pressure, np.where(breaker, b.atm + b.fill_pressure - b.back, p_min + b.fill_pressure - b.back))
     return load, flow, dp
 
 
@@ -175,7 +175,7 @@ def trap_figures(b, effective, stall, p_min, w_min, selected_limits: bool = True
     drains = [u.drain for u in b.units]
     margin = np.array([d.capacity_margin for d in drains])
     w_load, w_flow, w_dp = working_points(b, effective, stall, p_min, w_min)
-    required = margin * b.steam_design
+    required = margin * b.condensate_design
     basis = np.array(["table" if d.capacity else "orifice" if d.trap_orifice is not None else "selected"
                       for d in drains])
     given = np.array([np.nan if d.trap_orifice is None else d.trap_orifice for d in drains])
@@ -188,8 +188,8 @@ def trap_figures(b, effective, stall, p_min, w_min, selected_limits: bool = True
     breaker = np.array([e == "trap-vacuum-breaker" for e in effective])
     # into the lift at full load; where a pump-trap works, the trap drains into its body
     # by the fill head's gravity whenever the coil cannot discharge against the lift
-    design_dp = b.design_pressure + b.fill - b.back
-    design_dp = np.where([e == "pump-trap" for e in effective], np.maximum(design_dp, b.fill), design_dp)
+    design_dp = b.design_pressure + b.fill_pressure - b.back
+    design_dp = np.where([e == "pump-trap" for e in effective], np.maximum(design_dp, b.fill_pressure), design_dp)
     limit = _limits(b, capacity, stall, None if selected_limits else basis != "selected", breaker)
     has = np.isfinite(limit)
     at = np.where(has, limit, 0.0)
@@ -199,7 +199,7 @@ def trap_figures(b, effective, stall, p_min, w_min, selected_limits: bool = True
     out = []
     for i, d in enumerate(drains):
         figures = dict(basis=str(basis[i]), bore=None if basis[i] == "table" else float(bores[i]),
-                       margin=float(margin[i]), design_condensate=float(b.steam_design[i]),
+                       margin=float(margin[i]), design_condensate=float(b.condensate_design[i]),
                        design_differential=float(design_dp[i]),
                        working_load=float(w_load[i]), working_condensate=float(w_flow[i]),
                        working_differential=float(w_dp[i]), selection_differential=float(sizing[i]),
@@ -208,7 +208,7 @@ def trap_figures(b, effective, stall, p_min, w_min, selected_limits: bool = True
         if has[i]:
             by_inlet = b.units[i].load.varies == "inlet-temperature"
             figures.update(limit_load=float(limit[i]), limit_coil_pressure=float(p_l[i]),
-                           limit_differential=float(p_l[i] + b.fill[i] - b.back[i]),
+                           limit_differential=float(p_l[i] + b.fill_pressure[i] - b.back[i]),
                            limit_condensate=float(w_l[i]),
                            limit_inlet_temperature=float(inlet_l[i]) if by_inlet else None)
         out.append(TrapFigures(**figures))
@@ -236,7 +236,7 @@ def _limits(b, capacity, stall, only=None, breaker=None):
 
     def gap(load, index):
         _, p, w = b.state(load, index)
-        inlet = np.where(breaker[index], np.maximum(p, b.atm[index]), p) + b.fill[index]
+        inlet = np.where(breaker[index], np.maximum(p, b.atm[index]), p) + b.fill_pressure[index]
         return w - capacity(inlet - b.back[index], inlet, index)
 
     n = len(b.units)
@@ -349,16 +349,16 @@ def flash_figures(b) -> list[FlashFigures]:
     are those at the return."""
     x_out = flashmod.flash_fraction(b.design_pressure, b.back)
     x = flashmod.flash_fraction(b.design_pressure, b.return_pressure)
-    volume = flashmod.flash_volume(b.steam_design, x, b.return_pressure)
+    volume = flashmod.flash_volume(b.condensate_design, x, b.return_pressure)
     t_sat = properties.saturation_temperature(b.return_pressure)
     lines = np.array([np.nan if u.drain.return_line is None else u.drain.return_line for u in b.units])
     with np.errstate(invalid="ignore"):
-        velocity = flashmod.mixture_velocity(b.steam_design, x, b.return_pressure, lines)
+        velocity = flashmod.mixture_velocity(b.condensate_design, x, b.return_pressure, lines)
     out = []
     for i, u in enumerate(b.units):
         dr = u.drain
         out.append(FlashFigures(fraction=float(x_out[i]), outlet_pressure=float(b.back[i]),
-                                return_fraction=float(x[i]), flow=float(x[i] * b.steam_design[i]),
+                                return_fraction=float(x[i]), flow=float(x[i] * b.condensate_design[i]),
                                 volume_flow=float(volume[i]), line_diameter=dr.return_line,
                                 velocity=None if dr.return_line is None else float(velocity[i]),
                                 return_temperature=dr.return_temperature,

@@ -84,19 +84,19 @@ def solve(b, p_min, adequate, rounders: list[Rounder], valve_floor=None) -> list
     """
     target = targets(b, p_min)
     rho = b.density
-    lift = (target + b.fill - b.return_pressure - b.trap_min) / (rho * GRAVITY)
+    lift = (target + b.fill_pressure - b.return_pressure - b.trap_min) / (rho * GRAVITY)
     # return pressure r: r + ρ(r)·g·(lift − fill) + Δp_trap = target, ρ at r (a few passes)
     r = b.return_pressure.copy()
     for _ in range(6):
         dens = properties.liquid_density(np.clip(r, properties.P_MIN, properties.P_CRIT))
         r = target - b.trap_min - dens * GRAVITY * (b.lift - b.fill_height)
-    dp = target + b.fill - b.back
+    dp = target + b.fill_pressure - b.back
     fill = np.maximum((b.back + b.trap_min - target) / (rho * GRAVITY), 0.0)
     design_t = _design_temperatures(b, valve_floor)
     # With a vacuum breaker that drains the coil by gravity (with the margin), the coil's
     # own pressure no longer matters: any design pressure does.
     arrangement = np.array([u.drain.arrangement for u in b.units])
-    breaker_drains = (arrangement == "trap-vacuum-breaker") & (b.threshold <= b.atm - drainage.GRAVITY_MARGIN - MARGIN)
+    breaker_drains = (arrangement == "trap-vacuum-breaker") & (b.stall_pressure <= b.atm - drainage.GRAVITY_MARGIN - MARGIN)
     out = []
     for i, u in enumerate(b.units):
         if u.drain.arrangement == "pump-trap":
@@ -104,8 +104,8 @@ def solve(b, p_min, adequate, rounders: list[Rounder], valve_floor=None) -> list
             continue
         rule = _Limits(u, rounders[i], bool(adequate[i]))
         out.append((rule.lift(float(lift[i])), rule.return_pressure(float(r[i])),
-                    rule.trap(float(dp[i]), float(b.back[i] - b.fill[i])), rule.fill(float(fill[i])),
-                    rule.design(design_t[i], float(b.threshold[i]), bool(breaker_drains[i]))))
+                    rule.trap(float(dp[i]), float(b.back[i] - b.fill_pressure[i])), rule.fill(float(fill[i])),
+                    rule.design(design_t[i], float(b.stall_pressure[i]), bool(breaker_drains[i]))))
     return out
 
 
@@ -113,7 +113,7 @@ def _design_temperatures(b, valve_floor=None) -> list:
     """Design steam pressure [Pa] at which each unit's coil pressure at its minimum
     load is the stall pressure plus the margin (and its valve, where too small, still
     holds the coil there at full load: ``valve_floor``), or a reason word where none is."""
-    aim = b.threshold + MARGIN
+    aim = b.stall_pressure + MARGIN
     valid = aim > properties.P_MIN
     t_aim = properties.saturation_temperature(np.clip(aim, properties.P_MIN, properties.P_CRIT))
     t_design = coilmod.design_steam_temperature_for(b.coil, b.minimum, t_aim)

@@ -74,23 +74,23 @@ class Requirement:
     facts: dict
 
 
-def stalls_in_range(stall_fraction, minimum, stall_pressure_, coil_pressure_at_minimum):
+def stalls_in_range(stall_fraction, minimum, stall_pressure, coil_pressure_at_minimum):
     """True where a unit stalls above its minimum load: the stall point lies above the
     minimum load *and* at the minimum load the coil pressure is below the stall pressure
     by more than :data:`PRESSURE_TOLERANCE` (arrays or floats)."""
-    return (stall_fraction > minimum) & (stall_pressure_ - coil_pressure_at_minimum > PRESSURE_TOLERANCE)
+    return (stall_fraction > minimum) & (stall_pressure - coil_pressure_at_minimum > PRESSURE_TOLERANCE)
 
 
-def vacuum_breaker_acts(stall_pressure_, atmospheric):
+def vacuum_breaker_acts(stall_pressure, atmospheric):
     """True where a vacuum breaker lets the coil drain by gravity: with the coil held at
     atmospheric pressure, the fill head leaves the trap at least :data:`GRAVITY_MARGIN`
     beyond its minimum differential against the back pressure,
     p_atm + ρ·g·fill ≥ p_back + Δp_trap,min + margin, that is
     p_stall ≤ p_atm − margin."""
-    return stall_pressure_ <= atmospheric - GRAVITY_MARGIN
+    return stall_pressure <= atmospheric - GRAVITY_MARGIN
 
 
-def requirement(stall_fraction: float, in_range: bool, stall_pressure_: float,
+def required_arrangement(stall_fraction: float, in_range: bool, stall_pressure: float,
                 atmospheric: float) -> Requirement:
     """Choose the drainage from the computed pressures.
 
@@ -107,7 +107,7 @@ def requirement(stall_fraction: float, in_range: bool, stall_pressure_: float,
         Load below which the unit stalls (0: never). [-]
     in_range : bool
         Whether it stalls above its minimum load (:func:`stalls_in_range`).
-    stall_pressure_ : float
+    stall_pressure : float
         Coil pressure at which the trap stops discharging. [Pa]
     atmospheric : float
         Site atmospheric pressure. [Pa]
@@ -118,17 +118,17 @@ def requirement(stall_fraction: float, in_range: bool, stall_pressure_: float,
        float-and-thermostatic traps with vacuum breakers on modulating equipment,
        sized at 1/4 psi differential.
     """
-    facts = {"load": stall_fraction, "stall_pressure": stall_pressure_}
+    facts = {"load": stall_fraction, "stall_pressure": stall_pressure}
     if not in_range:
         return Requirement("trap", "below-minimum" if stall_fraction > 0 else "never", facts)
-    gravity = atmospheric - stall_pressure_
+    gravity = atmospheric - stall_pressure
     facts.update(gravity=gravity, wanted=GRAVITY_MARGIN)
-    if vacuum_breaker_acts(stall_pressure_, atmospheric):
+    if vacuum_breaker_acts(stall_pressure, atmospheric):
         return Requirement("trap-vacuum-breaker", "vacuum-breaker", facts)
     return Requirement("pump-trap", "gravity-short" if gravity > 0 else "above-atmospheric", facts)
 
 
-def adequacy(installed: str, required: str) -> tuple[bool, str]:
+def installed_adequate(installed: str, required: str) -> tuple[bool, str]:
     """Whether what is installed does the job required, with the reason's code
     (``"covers"``, ``"purge"``: a purge cannot drain a stall, or ``"cannot"``)."""
     if required in COVERS[installed]:

@@ -67,8 +67,8 @@ class Advice:
 
 def advise(r: Result, system: str) -> Advice:
     """The "what to do" section of a result, in ``system`` units for its words."""
-    dr = r.drainage
-    installed = dr.installed
+    drainage = r.drainage
+    installed = drainage.installed
     f_min = r.minimum_load
     down_to = f"down to its minimum load of {f_min:.0%}" if f_min > 0 else "at every load"
     margin = q.show(MARGIN, "differential", system)
@@ -77,8 +77,8 @@ def advise(r: Result, system: str) -> Advice:
     if f_min == 0 and r.remedies:
         notes += ("load.minimum is 0, so these figures must drain the coil at no load at all; give the lowest "
                   "load the unit really runs at for figures that can be met.",)
-    if not dr.adequate:
-        lead = [f"Fit {words.FIT[dr.required]}: the installed {installed} cannot drain this coil wherever "
+    if not drainage.adequate:
+        lead = [f"Fit {words.FIT[drainage.required]}: the installed {installed} cannot drain this coil wherever "
                 f"it runs (see drainage)."]
         said = lines(r, system)
         changes = tuple(m for m in said if m.remedy.status == "change" and m.remedy.achievable)
@@ -88,7 +88,7 @@ def advise(r: Result, system: str) -> Advice:
                         f"lets it drain the coil {down_to}:")
         elif r.remedies:
             lead.append(f"No single change lets the installed {installed} drain it {down_to}:")
-        return Advice("fix", "What to do", tuple(lead), changes, cannot, notes if changes else (), dr.required)
+        return Advice("fix", "What to do", tuple(lead), changes, cannot, notes if changes else (), drainage.required)
     if not r.remedies:
         return Advice("none", "What to do", (f"Nothing to change in the drainage: the installed {installed} moves "
                                              f"the condensate at every load. Keep it working, and test it as its "

@@ -200,20 +200,20 @@ FACT_WORDS = {
 
 def drain_context(r: Result) -> dict:
     """The words the remedies fill in from the check: never prescribe what is fitted."""
-    dr = r.drainage
-    required = FIT[dr.required]
-    if dr.adequate and dr.required != "trap":
-        drain = (f"The installed {dr.installed} should drain it at this load: test it before adding anything "
+    drainage = r.drainage
+    required = FIT[drainage.required]
+    if drainage.adequate and drainage.required != "trap":
+        drain = (f"The installed {drainage.installed} should drain it at this load: test it before adding anything "
                  f"(see the causes on the installed equipment below, if listed).")
-        freeze = f"Test the installed {dr.installed} before each winter: it must drain the coil at every load."
-    elif dr.adequate:
+        freeze = f"Test the installed {drainage.installed} before each winter: it must drain the coil at every load."
+    elif drainage.adequate:
         drain = ("By the check a trap alone drains it wherever it runs: test the trap and compare the gauges "
                  "with the check's figures (a return or lift higher than the unit file says would explain it).")
         freeze = "Test the trap before each winter, so the coil cannot hold water at any load."
     else:
         # the single changes only where the check lists one that works (one story with 'what to do')
         changes = advice.advise(r, r.system).changes
-        drain = (f"Fit {required} as the check requires (the installed {dr.installed} cannot drain it)"
+        drain = (f"Fit {required} as the check requires (the installed {drainage.installed} cannot drain it)"
                  + (", or make one of the changes under 'what to do'." if changes else
                     "; by the check no single change lets the installed drainage do it."))
         freeze = f"Drain the coil so it cannot hold water at any load: fit {required} as the check requires."

@@ -140,11 +140,11 @@ def report(result: Result, system: str, width: int = 80) -> list:
     parts.append(BLANK)
     parts += year_section(r, system, width)
 
-    dr = r.drainage
-    verdict = runs(f"  installed {dr.installed}, required {dr.required}: ",
-                   ("adequate", "bold green") if dr.adequate else ("NOT ADEQUATE", "bold red"))
+    drainage = r.drainage
+    verdict = runs(f"  installed {drainage.installed}, required {drainage.required}: ",
+                   ("adequate", "bold green") if drainage.adequate else ("NOT ADEQUATE", "bold red"))
     parts += [_heading("Drainage"), Para(verdict, 0),
-              *bullets(words.drainage_reasons(dr, system, r.atmospheric_pressure)), BLANK]
+              *bullets(words.drainage_reasons(drainage, system, r.atmospheric_pressure)), BLANK]
     parts += _devices(r, system)
 
     parts += hammer_sections(r, system)
