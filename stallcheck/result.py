@@ -186,11 +186,12 @@ class Drainage:
     installed, required : str
         Arrangements.
     adequate : bool
-    requirement : str
+    why_required : str
         Why the required arrangement: ``"never"`` (no stall), ``"below-minimum"``,
         ``"vacuum-breaker"``, ``"gravity-short"`` or ``"above-atmospheric"``.
-    adequacy : str
-        ``"covers"``, ``"purge"`` (a purge cannot drain a stall) or ``"cannot"``.
+    why_adequate : str
+        Why the installed one is adequate or not: ``"covers"``, ``"purge"`` (a purge
+        cannot drain a stall) or ``"cannot"``.
     facts : dict
         ``load`` (stall point [-]), ``stall_pressure`` [Pa], and where a vacuum breaker
         was weighed ``gravity`` (the differential it would leave [Pa]) and ``wanted``
@@ -200,8 +201,8 @@ class Drainage:
     installed: str
     required: str
     adequate: bool
-    requirement: str
-    adequacy: str
+    why_required: str
+    why_adequate: str
     facts: Mapping[str, Any] = field(default_factory=dict)
 
 

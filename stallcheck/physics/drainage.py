@@ -64,7 +64,7 @@ class Requirement:
     required : str
         ``"trap"``, ``"trap-vacuum-breaker"`` or ``"pump-trap"``.
     reason : str
-        Why (the codes of :class:`stallcheck.result.Drainage`'s ``requirement``).
+        Why (the codes of :class:`stallcheck.result.Drainage`'s ``why_required``).
     facts : dict
         The SI figures that decide it (see :class:`stallcheck.result.Drainage`).
     """

@@ -294,7 +294,7 @@ FINDINGS: dict[str, dict[str, str]] = {
     },
 }
 
-#: Why a unit needs the drainage it does (``Drainage.requirement``).
+#: Why a unit needs the drainage it does (``Drainage.why_required``).
 REQUIREMENTS = {
     "never": "the coil pressure stays above the stall pressure at every load, so a trap alone drains it",
     "below-minimum": "it stalls only below {load:.0%+} load, at or under its minimum load, so a trap alone "
@@ -316,7 +316,7 @@ STALLS_WHERE = {
     "valve": "its control valve, wide open, holds the coil at {valve_pressure:pressure} at full load, under the "
              "stall pressure of {stall_pressure:pressure}, so it stalls {valve_where}",
 }
-#: Whether the installed drainage covers what is required (``Drainage.adequacy``).
+#: Whether the installed drainage covers what is required (``Drainage.why_adequate``).
 ADEQUACY = {
     "covers": "the installed {installed} covers what is required ({required})",
     "purge": "a constant purge keeps steam flowing only while the coil pressure is above the back pressure; "
@@ -541,19 +541,19 @@ def valve_stall_loads(valve_load: float, below: float) -> str:
     return f"{head}from {start:.0f}% load up to full load"
 
 
-def drainage_reasons(dr, system: str, atmospheric: float) -> tuple[str, str]:
+def drainage_reasons(drainage, system: str, atmospheric: float) -> tuple[str, str]:
     """Why a unit needs the drainage it does, and whether what is installed covers it,
     for a :class:`stallcheck.result.Drainage`."""
-    facts = dict(dr.facts, installed=dr.installed, required=dr.required)
-    if dr.requirement in ("vacuum-breaker", "gravity-short", "above-atmospheric"):
+    facts = dict(drainage.facts, installed=drainage.installed, required=drainage.required)
+    if drainage.why_required in ("vacuum-breaker", "gravity-short", "above-atmospheric"):
         if facts.get("valve_load") is not None:
             facts["valve_where"] = valve_stall_loads(facts["valve_load"], facts["load"] if facts["by_load"] else 0.0)
             where = STALLS_WHERE["valve"]
         else:
             where = STALLS_WHERE["full" if facts["load"] >= 1 else "part"]
         facts["where"] = fill(where, facts, system, atmospheric)
-    return (fill(REQUIREMENTS[dr.requirement], facts, system, atmospheric),
-            fill(ADEQUACY[dr.adequacy], facts, system, atmospheric))
+    return (fill(REQUIREMENTS[drainage.why_required], facts, system, atmospheric),
+            fill(ADEQUACY[drainage.why_adequate], facts, system, atmospheric))
 
 
 # --- the assumptions --------------------------------------------------------------
