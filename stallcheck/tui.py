@@ -24,6 +24,7 @@ from stallcheck import analysis
 from stallcheck.errors import InputError, StallcheckError
 from stallcheck.files import atomic, unitwriter
 from stallcheck.files import quantities as q
+from stallcheck.files import display
 from stallcheck.inputs import Unit
 from stallcheck.render import terminal, words
 
@@ -83,7 +84,7 @@ def shown(value: float | None, kind: str, system: str, atm: float) -> str:
         return f"{value:.3g}"   # as the file gives it: Kv for a Kv file (see value_of)
     if kind == "fraction":
         return f"{value:.0%}"
-    return q.show(value, kind, system, atm)
+    return display.show(value, kind, system, atm)
 
 
 def differences(original: Unit, unit: Unit, system: str) -> list[str]:
@@ -172,8 +173,8 @@ def compared(before, after, system: str) -> list[str]:
     if before.valve is not None and after.valve is not None:
         pairs.append(("valve", f"{before.valve.opening_design:.0%} open", f"{after.valve.opening_design:.0%} open"))
     if before.trap is not None and after.trap is not None:
-        pairs.append(("trap sized at", q.show(before.trap.selection_differential, "differential", system, atm),
-                      q.show(after.trap.selection_differential, "differential", system, atm)))
+        pairs.append(("trap sized at", display.show(before.trap.selection_differential, "differential", system, atm),
+                      display.show(after.trap.selection_differential, "differential", system, atm)))
     out += [f"{name} {a} -> {b}" for name, a, b in pairs if a != b]
     return out
 
@@ -267,7 +268,7 @@ class Explorer(App):
             lines.append(Text("stall point: stalled at every load", style="bold red"))
         else:
             lines.append(Text(f"stall point: below {words.percent(s.load_fraction)} load, coil at "
-                              f"{q.show(s.coil_pressure, 'pressure', system, atm)}", style="bold"))
+                              f"{display.show(s.coil_pressure, 'pressure', system, atm)}", style="bold"))
         dn = r.drainage
         verdict = Text(f"drainage: needs {dn.required}, has {dn.installed}: ")
         verdict.append("adequate" if dn.adequate else "NOT ADEQUATE", style="green" if dn.adequate else "bold red")

@@ -121,10 +121,10 @@ def _follow_every_figure(data: dict, source: str) -> int:
             # the figure kept is the figure printed: safe rounding at the printed step
             printed = _printed_figure(m.note)
             number, unit_text = printed.split()
-            from stallcheck.files import quantities
+            from stallcheck.files import display
             kind = {"m": "length", "ft": "length", "barg": "pressure", "psig": "pressure", "kPa": "differential",
                     "psi": "differential"}[unit_text]
-            back = quantities.from_display(float(number), kind, r.system, r.atmospheric_pressure)
+            back = display.from_display(float(number), kind, r.system, r.atmospheric_pressure)
             assert m.value == pytest.approx(back, rel=1e-9, abs=1e-9), (m.key, printed)
     # the contract serialises every remedy, and prints the same words
     from stallcheck.render import json as contract

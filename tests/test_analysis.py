@@ -6,7 +6,7 @@ from conftest import BASE_UNIT
 from iapws import IAPWS97
 
 from stallcheck import analysis
-from stallcheck.files import quantities, unitfile
+from stallcheck.files import unitfile
 from stallcheck.physics import atmosphere
 from stallcheck.physics import drainage, properties
 

@@ -366,10 +366,10 @@ def test_ambiguous_or_impossible_vacuum_readings_are_refused(reading, fragment):
 
 def test_us_output_shows_vacuum_as_a_compound_gauge_reads_it():
     # 10 inHg below 14.696 psia is 4.91 psi of vacuum (NIST SP 811: 1 inHg = 0.491154 psi).
-    from stallcheck.files import quantities
-    assert quantities.show(101325 - 33863.8, "pressure", "us") == "-4.9 psig (10.0 inHg vac)"
-    assert quantities.show(101325 + 1000, "pressure", "us") == "0.1 psig"
-    assert "inHg" not in quantities.show(101325 - 33863.8, "pressure", "si")
+    from stallcheck.files import display
+    assert display.show(101325 - 33863.8, "pressure", "us") == "-4.9 psig (10.0 inHg vac)"
+    assert display.show(101325 + 1000, "pressure", "us") == "0.1 psig"
+    assert "inHg" not in display.show(101325 - 33863.8, "pressure", "si")
 
 
 @pytest.mark.parametrize("sample", SAMPLES, ids=lambda p: p.name)

@@ -10,6 +10,7 @@ from hypothesis import strategies as st
 
 from stallcheck.errors import InputError
 from stallcheck.files import quantities as q
+from stallcheck.files import display
 from stallcheck.files import unitfile
 
 PSI = 6894.757293168
@@ -83,9 +84,9 @@ KINDS = {"pressure": (1.2e3, 2.0e6), "differential": (0.0, 5e5), "temperature": 
 def test_any_quantity_the_tool_prints_reads_back_as_the_value_printed(kind, system, share, atm):
     lo, hi = KINDS[kind]
     value = lo + share * (hi - lo)
-    text = q.show(value, kind, system, atm).split(" (")[0]          # "-0.8 psig (1.7 inHg vac)": the gauge part
+    text = display.show(value, kind, system, atm).split(" (")[0]          # "-0.8 psig (1.7 inHg vac)": the gauge part
     number = float(text.split()[0].replace(",", ""))
-    stated = q.from_display(number, kind, system, atm)
+    stated = display.from_display(number, kind, system, atm)
     if kind == "pressure":
         read = q.pressure("k", text).absolute(atm)
     elif kind == "diameter":

@@ -15,7 +15,6 @@ import csv
 import io
 import json
 import math
-import os
 from pathlib import Path
 
 import numpy as np

@@ -13,6 +13,8 @@ from pathlib import Path
 
 from stallcheck.files import quantities as q
 
+from stallcheck.files import display
+
 def main() -> None:
     q._answers.shipped = {}
     q._answers.data = {}
@@ -21,10 +23,10 @@ def main() -> None:
         for spelling in spellings:
             unit, _ = q._unit_info(spelling)
             q._line(unit, kind)
-    for kind in q.DISPLAY["si"]:
+    for kind in display.DISPLAY["si"]:
         for system in ("si", "us"):
-            q.show(1.0e5 if kind.startswith("pressure") else 1.0, kind, system)
-    q.show(90e3, "pressure", "us")  # below atmospheric: also in inHg vacuum
+            display.show(1.0e5 if kind.startswith("pressure") else 1.0, kind, system)
+    display.show(90e3, "pressure", "us")  # below atmospheric: also in inHg vacuum
     q.gauge_reading("k", "10 inHg vacuum", q.STANDARD_ATMOSPHERE)
     q.gauge_reading("k", "25 kPa vacuum", q.STANDARD_ATMOSPHERE)
     out = Path(__file__).resolve().parent.parent / "stallcheck" / "data" / "units.json"

@@ -23,6 +23,7 @@ from stallcheck.analysis import lines as linesmod
 from stallcheck.analysis import year as yearmod
 from stallcheck.errors import InputError, StallcheckError
 from stallcheck.files import quantities as q
+from stallcheck.files import display
 from stallcheck.inputs import Unit
 from stallcheck.physics import coil as coilmod
 from stallcheck.analysis import devices
@@ -142,21 +143,21 @@ def _screen(units: list[Unit]) -> list[InputError | None]:
         if d.outlet_temperature >= t_steam[i] - 0.5:
             errors[i] = InputError(
                 "design.outlet_temperature",
-                f"the set point {q.show(d.outlet_temperature, 'temperature', system)} is not below the steam "
-                f"temperature at design.steam_pressure ({q.show(float(t_steam[i]), 'temperature', system)}); the "
+                f"the set point {display.show(d.outlet_temperature, 'temperature', system)} is not below the steam "
+                f"temperature at design.steam_pressure ({display.show(float(t_steam[i]), 'temperature', system)}); the "
                 f"coil cannot heat to it. Raise the design steam pressure or lower the set point.", file=u.source)
         elif d.medium.endswith("glycol") and d.inlet_temperature <= (t_freeze := _freezing(d)) + 0.5:
             errors[i] = InputError(
                 "design.inlet_temperature",
-                f"{q.show(d.inlet_temperature, 'temperature', system)} is at or below the freezing point of "
-                f"{d.concentration:.0%} {d.medium} ({q.show(t_freeze, 'temperature', system)}, from CoolProp's "
+                f"{display.show(d.inlet_temperature, 'temperature', system)} is at or below the freezing point of "
+                f"{d.concentration:.0%} {d.medium} ({display.show(t_freeze, 'temperature', system)}, from CoolProp's "
                 f"mixture data); accepted: warmer than that.", file=u.source)
         elif (u.drain.return_temperature is not None and u.drain.return_temperature
               > (t_sat := float(properties.saturation_temperature(u.drain.return_pressure))) + 0.5):
             errors[i] = InputError(
                 "drain.return_temperature",
-                f"{q.show(u.drain.return_temperature, 'temperature', system)} is hotter than water boils at the "
-                f"return pressure ({q.show(t_sat, 'temperature', system)}); condensate standing in the return "
+                f"{display.show(u.drain.return_temperature, 'temperature', system)} is hotter than water boils at the "
+                f"return pressure ({display.show(t_sat, 'temperature', system)}); condensate standing in the return "
                 f"cannot be. Accepted: at or below that.", file=u.source)
         elif d.medium != "air" and 0.5 * (d.inlet_temperature + d.outlet_temperature) >= 423.15:
             errors[i] = InputError("design.outlet_temperature", "liquid media are evaluated up to a mean "
@@ -173,8 +174,8 @@ def _screen(units: list[Unit]) -> list[InputError | None]:
                 atm = u.site.atmospheric_pressure
                 errors[i] = InputError(
                     "drain.motive_pressure",
-                    f"{q.show(u.drain.motive_pressure, 'pressure', u.system, atm)} is not above the back pressure "
-                    f"on the drain ({q.show(float(b), 'pressure', u.system, atm)}: return pressure plus lift); a "
+                    f"{display.show(u.drain.motive_pressure, 'pressure', u.system, atm)} is not above the back pressure "
+                    f"on the drain ({display.show(float(b), 'pressure', u.system, atm)}: return pressure plus lift); a "
                     f"pump-trap cannot push against it. Give the motive steam or air pressure at the pump-trap "
                     f"inlet.", file=u.source)
     return errors
@@ -372,7 +373,7 @@ def _analyse(units: list[Unit], systems: list[str], tabulate: bool = True, compl
     flashes = devices.flash_figures(b)
     if complete:
         rounders = [lambda value, kind, up, system=systems[i], atm=float(b.atm[i]):
-                    q.rounded(value, kind, system, atm, up=up) for i in range(n)]
+                    display.rounded(value, kind, system, atm, up=up) for i in range(n)]
         p_low, floor = _valve_bound(b, valves, p_min)
         fixes = remedies.solve(b, p_low, [d.adequate for d in drains], rounders, floor)
         fixes = [f + _valve_remedy(valves[i], stall[i], drains[i].adequate) for i, f in enumerate(fixes)]
@@ -656,7 +657,7 @@ def _valve_remedy(v: ValveResult | None, s: StallPoint, adequate: bool) -> tuple
     if adequate or v is None or v.drain_cv is None or s.valve_load_fraction is None:
         return ()
     alone = not s.in_range
-    return (Remedy(key="valve.cv", kind="cv", current=v.cv, value=q.up_to_figures(v.drain_cv, 3),
+    return (Remedy(key="valve.cv", kind="cv", current=v.cv, value=display.up_to_figures(v.drain_cv, 3),
                    reason="change" if alone else "not-alone", status="change", achievable=alone,
                    facts={"load": s.load_fraction, "given_as": v.given_as}),)
 

@@ -21,14 +21,11 @@ from stallcheck.physics import coil as coilmod
 from stallcheck.physics import flash as flashmod
 from stallcheck.physics import hammer, properties, traps
 from stallcheck.physics import purge as purgemod
-from stallcheck.physics.constants import GRAVITY
 from stallcheck.physics.solve import illinois
 from stallcheck.result import (
     FlashFigures,
-    LinePoint,
     PumpTrapFigures,
     PurgeFigures,
-    ReturnLineFigures,
     StallPoint,
     SurgeFigures,
     TrapFigures,

@@ -20,7 +20,7 @@ from stallcheck import analysis
 from stallcheck.analysis.findings import POOR_AT_LOW_DIFFERENTIAL
 from stallcheck.analysis.layout import NEAR_STALL
 from stallcheck.errors import InputError
-from stallcheck.files import quantities as q
+from stallcheck.files import display
 from stallcheck.files.readings import Readings
 from stallcheck.inputs import Unit
 from stallcheck.physics import coil as coilmod
@@ -186,8 +186,8 @@ def diagnose(unit: Unit, result: Result, readings: Readings) -> Diagnosis:
         readings.coil_pressure if readings.coil_pressure is not None else r.supply_pressure))
     if readings.outlet_temperature is not None and readings.outlet_temperature >= t_out_limit:
         raise InputError("--outlet-temperature",
-                         f"{q.show(readings.outlet_temperature, 'temperature', r.system)} is at or above the steam "
-                         f"temperature ({q.show(t_out_limit, 'temperature', r.system)}); the coil cannot heat "
+                         f"{display.show(readings.outlet_temperature, 'temperature', r.system)} is at or above the steam "
+                         f"temperature ({display.show(t_out_limit, 'temperature', r.system)}); the coil cannot heat "
                          f"above it. Check the thermometer and the units.", file=unit.source)
 
     # --- the operating point --------------------------------------------------------

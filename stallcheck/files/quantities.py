@@ -1,4 +1,5 @@
-"""The one place that converts units: unit-file strings in, SI out, and back for display.
+"""Reading quantities: unit-file strings in, SI out (:mod:`stallcheck.files.display`
+shows SI values back in a unit system, with the same conversion factors).
 
 Every dimensional value in a unit file is a string ``"<number> <unit>"``. This
 module parses it with pint's registry (extended once here with gauge and absolute
@@ -441,6 +442,8 @@ def gauge_reading(key: str, text, atmospheric: float) -> float:
             offset, scale = _line(_unit_info(unit)[0], "Pa")
             below = offset + scale * abs(number)
             if below >= atmospheric:
+                from stallcheck.files.display import show   # (display reads this module's factors)
+
                 raise InputError(key, f"'{text}' is more vacuum than the atmosphere here "
                                       f"({show(atmospheric, 'pressure_abs', 'us' if unit in ('inHg', 'psi') else 'si')}) "
                                       f"allows; check the gauge and its units.")
@@ -525,187 +528,12 @@ def is_us(text) -> bool:
     return isinstance(read, tuple) and read[1] in _US_UNITS
 
 
-# --- display ---------------------------------------------------------------------
-
-#: Display units per system: (pint unit, label, decimals).
-DISPLAY = {
-    "si": {
-        "pressure": ("bar", "barg", 2),
-        "pressure_abs": ("kPa", "kPa(abs)", 1),
-        "differential": ("kPa", "kPa", 1),
-        "temperature": ("degC", "°C", 0),
-        "mass_flow": ("kg/h", "kg/h", 0),
-        "length": ("m", "m", 2),
-        "power": ("kW", "kW", 0),
-        "diameter": ("mm", "mm", 1),
-        "velocity": ("m/s", "m/s", 1),
-        "volume_flow": ("m**3/h", "m³/h", 1),
-        "mass": ("t", "t", 1),
-    },
-    "us": {
-        "pressure": ("psi", "psig", 1),
-        "pressure_abs": ("psi", "psia", 1),
-        "differential": ("psi", "psi", 2),
-        "temperature": ("degF", "°F", 0),
-        "mass_flow": ("lb/h", "lb/h", 0),
-        "length": ("ft", "ft", 1),
-        "power": ("Btu/h", "Btu/h", 0),
-        "diameter": ("in", "in", 2),
-        "velocity": ("ft/s", "ft/s", 0),
-        "volume_flow": ("ft**3/min", "cfm", 1),
-        "mass": ("lb", "lb", 0),
-    },
-}
-
-_SI_UNIT = {"pressure": "Pa", "pressure_abs": "Pa", "differential": "Pa", "temperature": "K",
-            "mass_flow": "kg/s", "length": "m", "power": "W", "diameter": "m", "velocity": "m/s",
-            "volume_flow": "m**3/s", "mass": "kg"}
-
-
-def convert(value: float, kind: str, system: str, atmospheric: float = STANDARD_ATMOSPHERE) -> float:
-    """Convert an SI value to the display unit of ``kind`` in ``system`` ("si" or "us").
-
-    ``pressure`` is shown gauge: the site's ``atmospheric`` pressure [Pa] is taken off.
-    """
-    if kind == "pressure":
-        value = value - atmospheric
-    offset, scale = _line(_SI_UNIT[kind], DISPLAY[system][kind][0])
-    return offset + scale * value
-
-
-def from_display(number: float, kind: str, system: str, atmospheric: float = STANDARD_ATMOSPHERE) -> float:
-    """The inverse of :func:`convert`: a number in the display unit of ``kind`` back to SI."""
-    offset, scale = _line(_SI_UNIT[kind], DISPLAY[system][kind][0])
-    value = (number - offset) / scale
-    return value + atmospheric if kind == "pressure" else value
-
-
-def rounded(value: float, kind: str, system: str, atmospheric: float = STANDARD_ATMOSPHERE,
-            up: bool = False) -> float:
-    """An SI value rounded, in its display unit and at the precision :func:`show` prints,
-    down (or ``up``) rather than to the nearest: the figure a user reads and applies is
-    then on the safe side of ``value``. Returns the SI value of the printed figure.
-
-    Parameters
-    ----------
-    value : float
-        SI value (absolute [Pa] for ``pressure``).
-    kind : str
-        A display kind of :data:`DISPLAY`.
-    up : bool
-        Round up (towards +inf in the display unit) instead of down.
-    """
-    number = convert(value, kind, system, atmospheric)
-    step = _printed_step(number, kind, system)
-    steps = number / step
-    # a figure already on a printed step stays there (no step lost to the last bit)
-    nearest = round(steps)
-    if abs(steps - nearest) < 1e-9 * max(1.0, abs(nearest)):
-        steps = nearest
-    figure = (math.ceil(steps) if up else math.floor(steps)) * step
-    return from_display(figure, kind, system, atmospheric)
-
-
-def _printed_step(number: float, kind: str, system: str) -> float:
-    """The last printed digit's step of ``number`` in its display unit, as :func:`show`
-    prints it: fixed decimals, or significant figures where :func:`show` uses them."""
-    magnitude = math.floor(math.log10(abs(number))) if number else 0
-    if kind in ("mass_flow", "power", "mass", "volume_flow") and abs(number) >= 100:
-        return 10.0 ** (magnitude - 2)
-    if kind == "diameter":
-        return 10.0 ** (magnitude - 2)
-    if kind == "velocity" and 0 < abs(number) < 9.95:
-        return 10.0 ** (magnitude - 1)
-    return 10.0 ** -DISPLAY[system][kind][2]
-
-
 #: Kv → Cv (IEC 60534-1: Cv = 1.156 Kv; Kv in m³/h of water at 1 bar, Cv in US gpm at
 #: 1 psi).
 CV_PER_KV = 1.156
 
 
-def up_to_figures(value: float, figures: int = 3) -> float:
-    """``value`` rounded up to ``figures`` significant figures (a flow coefficient a
-    valve is selected by: one of at least the figure does what the text says)."""
-    step = 10.0 ** (math.floor(math.log10(value)) - (figures - 1))
-    return float(f"{math.ceil(value / step - 1e-9) * step:.{figures + 1}g}")   # the figure, not its float noise
-
-
-def express(value: float, si: str, unit: str) -> float:
-    """An SI value in another unit of the same dimension (``express(0.3048, "m", "ft")``)."""
-    offset, scale = _line(si, unit)
-    return offset + scale * value
-
-
-def convert_array(values, kind: str, system: str, atmospheric: float = STANDARD_ATMOSPHERE):
-    """:func:`convert` for a sequence; returns a list of floats."""
-    if not len(values):
-        return []
-    import numpy as np
-
-    scale_zero = convert(0.0, kind, system, atmospheric)
-    scale_one = convert(1.0, kind, system, atmospheric)
-    arr = np.asarray(values, dtype=float)
-    return list(scale_zero + (scale_one - scale_zero) * arr)
-
-
-def label(kind: str, system: str) -> str:
-    """The unit label shown after a number of ``kind``."""
-    return DISPLAY[system][kind][1]
-
-
-def show(value: float | None, kind: str, system: str, atmospheric: float = STANDARD_ATMOSPHERE,
-         decimals: int | None = None) -> str:
-    """Format an SI value for people: converted, rounded as a gauge is read, with its unit."""
-    if value is None or (isinstance(value, float) and not math.isfinite(value)):
-        return "—"
-    number = convert(value, kind, system, atmospheric)
-    places = DISPLAY[system][kind][2] if decimals is None else decimals
-    if kind in ("mass_flow", "power", "mass", "volume_flow") and abs(number) >= 100:
-        number = float(f"{number:.3g}")
-        places = 0
-    # bores read as a drawing gives them: three significant figures (1/16 in is 0.0625 in)
-    text = f"{number:.3g}" if kind == "diameter" and decimals is None else f"{number:,.{places}f}"
-    if kind == "velocity" and decimals is None and 0 < abs(number) < 9.95:
-        text = f"{number:.2g}"   # a slow column (under 10 ft/s) to two figures, not "1 ft/s"
-    # (_printed_step gives the step of the last digit printed here, for rounded)
-    if text.startswith("-") and float(text.replace(",", "")) == 0:
-        text = text[1:]
-    if kind == "pressure" and system == "us" and decimals is None and text.startswith("-"):
-        # below atmospheric, as a US compound gauge reads it: inches of mercury vacuum
-        offset, scale = _line("Pa", "inch_Hg")
-        return f"{text} {label(kind, system)} ({offset + scale * (atmospheric - value):.1f} inHg vac)"
-    return f"{text} {label(kind, system)}"
-
-
-def show_about(value: float, kind: str, system: str) -> str:
-    """A limit of practice (a velocity, say) as practitioners quote it: converted, then
-    rounded to the nearest 5 above 20 (15 m/s is "about 50 ft/s", not 49)."""
-    number = convert(value, kind, system)
-    number = round(number / 5.0) * 5.0 if abs(number) > 20 else round(number)
-    return f"{number:,.0f} {label(kind, system)}"
-
-
-# --- the JSON contract's units ------------------------------------------------------
-# The result contract is SI with fixed units: kPa absolute, °C, kg/h, kW. These are
-# exact scale factors, kept here with the other conversions.
-
-
-def kpa(pascal):
-    """Pa → kPa (absolute stays absolute)."""
-    return None if pascal is None else pascal / 1000.0
-
-
-def celsius(kelvin):
-    """K → °C."""
-    return None if kelvin is None else kelvin - 273.15
-
-
-def kg_h(kg_s):
-    """kg/s → kg/h."""
-    return None if kg_s is None else kg_s * 3600.0
-
-
-def kw(watt):
-    """W → kW."""
-    return None if watt is None else watt / 1000.0
+def linear(unit: str, si: str) -> tuple[float, float]:
+    """Offset and scale taking a value in ``unit`` to ``si`` (the conversion factors of
+    the shipped table; :mod:`stallcheck.files.display` converts with them too)."""
+    return _line(unit, si)

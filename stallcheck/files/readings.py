@@ -11,6 +11,7 @@ from dataclasses import dataclass
 
 from stallcheck.errors import InputError
 from stallcheck.files import quantities as q
+from stallcheck.files import display
 from stallcheck.files.ranges import COLDEST_AIR, HOTTEST_READING, check_pressure_range
 from stallcheck.inputs import Unit
 
@@ -110,7 +111,7 @@ def parse(unit: Unit, coil_pressure=None, return_pressure=None, load=None, inlet
     if coil is not None and coil > unit.supply_pressure:
         raise InputError("--coil-pressure",
                          f"\"{coil_pressure}\" is above the supply pressure "
-                         f"({q.show(unit.supply_pressure, 'pressure', unit.system, atm)}); the coil cannot "
+                         f"({display.show(unit.supply_pressure, 'pressure', unit.system, atm)}); the coil cannot "
                          f"run above what feeds it. Check the gauge and its units.")
     ret = _pressure("--return-pressure", return_pressure, atm)
     fraction = None

@@ -94,7 +94,7 @@ def read_text(path: str | Path, max_bytes: int = MAX_FILE_BYTES, kind: str = "TO
     except OSError as exc:
         raise InputError("", f"cannot be read ({exc.strerror or exc}).", file=name) from None
     if raw.startswith((b"\xff\xfe", b"\xfe\xff")) or (b"\x00" in raw and raw[1::2].count(0) > len(raw) // 4):
-        raise InputError("", f"is saved as UTF-16 (or UTF-32); save it as UTF-8 text and try again.", file=name)
+        raise InputError("", "is saved as UTF-16 (or UTF-32); save it as UTF-8 text and try again.", file=name)
     if b"\x00" in raw:
         raise InputError("", f"is a binary file, not a {kind}.", file=name)
     try:

@@ -12,6 +12,8 @@ import os
 from pathlib import Path
 
 from stallcheck.files import quantities as q
+
+from stallcheck.files import display
 from stallcheck.files.unitfile import MONTHS
 from stallcheck.inputs import Unit
 
@@ -50,8 +52,8 @@ def dumps(unit: Unit, system: str | None = None, folder: str | Path | None = Non
     def val(value: float, kind: str) -> str:
         if kind == "pressure":
             unit_name, spelled = names["pressure"]
-            return f'"{_g(q.express(value - atm, "Pa", unit_name))} {spelled}"'
-        return f'"{_g(q.express(value, _SI[kind], names[kind]))} {names[kind]}"'
+            return f'"{_g(display.express(value - atm, "Pa", unit_name))} {spelled}"'
+        return f'"{_g(display.express(value, _SI[kind], names[kind]))} {names[kind]}"'
 
     def text(s: str) -> str:
         import tomlkit
@@ -66,7 +68,7 @@ def dumps(unit: Unit, system: str | None = None, folder: str | Path | None = Non
     if unit.site.elevation is not None:
         site.append(f"elevation = {val(unit.site.elevation, 'length')}")
     elif abs(atm - q.STANDARD_ATMOSPHERE) > 1e-6:
-        site.append(f'atmospheric_pressure = "{_g(q.express(atm, "Pa", "kPa"))} kPaa"')
+        site.append(f'atmospheric_pressure = "{_g(display.express(atm, "Pa", "kPa"))} kPaa"')
     if unit.site.weather is not None:
         site.append(f"weather = {text(weather_path(unit, folder))}")
     if unit.site.hours_per_year is not None:
@@ -86,7 +88,7 @@ def dumps(unit: Unit, system: str | None = None, folder: str | Path | None = Non
         out.append(f"flow = {val(d.flow, 'mass_flow')}")
     else:
         volume = "cfm" if system == "us" and d.medium == "air" else "gpm" if system == "us" else "m3/h"
-        out.append(f'flow = "{_g(q.express(d.flow, "m**3/s", volume))} {volume}"')
+        out.append(f'flow = "{_g(display.express(d.flow, "m**3/s", volume))} {volume}"')
     out += [f"inlet_temperature = {val(d.inlet_temperature, 'temperature')}",
             f"outlet_temperature = {val(d.outlet_temperature, 'temperature')}",
             f"steam_pressure = {val(d.steam_pressure, 'pressure')}",
@@ -128,7 +130,7 @@ def dumps(unit: Unit, system: str | None = None, folder: str | Path | None = Non
     out += [f"{key} = {val(value, kind)}" for key, value, kind in optional if value is not None]
     if dr.pump_rate_volume is not None:
         volume = "gpm" if system == "us" else "m3/h"
-        out.append(f'pump_rate = "{_g(q.express(dr.pump_rate_volume, "m**3/s", volume))} {volume}"')
+        out.append(f'pump_rate = "{_g(display.express(dr.pump_rate_volume, "m**3/s", volume))} {volume}"')
     if dr.return_pitch is not None:
         out.append(f'return_pitch = "{_g(dr.return_pitch * 100.0)} %"')
     if dr.return_material != "steel":
@@ -249,17 +251,17 @@ def _written(kind: str, value: float, old: str | None, system: str, atm: float):
     shown = value
     unit = old.split(None, 1)[1].strip() if old and len(old.split(None, 1)) == 2 else None
     if unit is None:  # as shown on screen: number and unit (psig, barg, ft, m)
-        return " ".join(q.show(shown, kind, system, atm).replace(",", "").split()[:2])
+        return " ".join(display.show(shown, kind, system, atm).replace(",", "").split()[:2])
     if kind == "pressure":
         gauge = unit in ("psig", "barg", "kPag", "kPa(g)", "bar(g)", "psi(g)")
         base = {"psig": "psi", "psia": "psi", "psi(g)": "psi", "psi(a)": "psi", "barg": "bar", "bara": "bar",
                 "bar(g)": "bar", "bar(a)": "bar", "bar(abs)": "bar", "kPag": "kPa", "kPaa": "kPa", "kPa(g)": "kPa",
                 "kPa(abs)": "kPa", "kPa(a)": "kPa"}.get(unit)
         if base is None:
-            return " ".join(q.show(shown, kind, system, atm).replace(",", "").split()[:2])
-        number = q.express(shown - atm if gauge else shown, "Pa", base)
+            return " ".join(display.show(shown, kind, system, atm).replace(",", "").split()[:2])
+        number = display.express(shown - atm if gauge else shown, "Pa", base)
     else:
-        number = q.express(shown, "m", unit)
+        number = display.express(shown, "m", unit)
     # the precision a screen or a gauge shows in that unit
     step = _STEP.get(unit, 0.01)
     figure = f"{round(number / step) * step:.{max(0, -math.floor(math.log10(step)))}f}"

@@ -14,7 +14,7 @@ from __future__ import annotations
 from dataclasses import dataclass
 
 from stallcheck.analysis.remedies import MARGIN
-from stallcheck.files import quantities as q
+from stallcheck.files import display
 from stallcheck.render import words
 from stallcheck.result import Remedy, Result
 
@@ -71,7 +71,7 @@ def advise(r: Result, system: str) -> Advice:
     installed = drainage.installed
     f_min = r.minimum_load
     down_to = f"down to its minimum load of {f_min:.0%}" if f_min > 0 else "at every load"
-    margin = q.show(MARGIN, "differential", system)
+    margin = display.show(MARGIN, "differential", system)
     notes = (f"Each figure keeps {margin} of differential across the trap beyond its exact limit, and is "
              f"rounded in the safe direction: apply it as printed, one change at a time, and check again.",)
     if f_min == 0 and r.remedies:

@@ -21,7 +21,8 @@ from __future__ import annotations
 
 import numpy as np
 
-from stallcheck.files import quantities as q
+
+from stallcheck.files import display
 from stallcheck.result import Result
 
 #: Style names the terminal maps to colours.
@@ -77,14 +78,14 @@ def render(result: Result, system: str, width: int = 78, height: int = HEIGHT,
     """
     atm = result.atmospheric_pressure
     pts = result.points
-    pressure = np.array(q.convert_array(pts.coil_pressure, "pressure", system, atm))
-    back = q.convert(result.back_pressure, "pressure", system, atm)
-    unit = q.label("pressure", system)
+    pressure = np.array(display.convert_array(pts.coil_pressure, "pressure", system, atm))
+    back = display.convert(result.back_pressure, "pressure", system, atm)
+    unit = display.label("pressure", system)
     by_inlet = x_axis == "inlet" and result.varies == "inlet-temperature"
 
     label_w = 7
     plot_w = max(width - label_w - 2, 30)
-    x_data = np.array(q.convert_array(pts.inlet_temperature, "temperature", system)) if by_inlet \
+    x_data = np.array(display.convert_array(pts.inlet_temperature, "temperature", system)) if by_inlet \
         else pts.load_fraction * 100.0
     x_lo, x_hi = float(np.min(x_data)), float(np.max(x_data))
 
@@ -92,7 +93,7 @@ def render(result: Result, system: str, width: int = 78, height: int = HEIGHT,
         return int(round((x - x_lo) / (x_hi - x_lo) * (plot_w - 1)))
 
     limited = pts.valve_limited
-    needed = (np.array(q.convert_array(pts.needed_coil_pressure, "pressure", system, atm))
+    needed = (np.array(display.convert_array(pts.needed_coil_pressure, "pressure", system, atm))
               if limited.any() else pressure)
     y_lo = min(float(pressure.min()), back, 0.0)
     y_hi = max(float(needed.max()), back)
@@ -108,7 +109,7 @@ def render(result: Result, system: str, width: int = 78, height: int = HEIGHT,
     per_step = max((height - 1) // steps, 1)
     height = steps * per_step + 1
     # no row below a perfect vacuum: the axis stops at the row holding it
-    vacuum = q.convert(0.0, "pressure", system, atm)
+    vacuum = display.convert(0.0, "pressure", system, atm)
     height = min(height, int(np.floor((y_hi - vacuum) / (step / per_step) + 0.5)) + 1)
 
     def row(y):
@@ -136,7 +137,7 @@ def render(result: Result, system: str, width: int = 78, height: int = HEIGHT,
         grid[rb][c] = "-"
     # minimum load
     if result.minimum_load > 0:
-        xm = float(q.convert_array([float(np.interp(result.minimum_load, pts.load_fraction, pts.inlet_temperature))],
+        xm = float(display.convert_array([float(np.interp(result.minimum_load, pts.load_fraction, pts.inlet_temperature))],
                                    "temperature", system)[0]) if by_inlet else result.minimum_load * 100
         cm = col(xm)
         for r in range(height):
@@ -155,15 +156,15 @@ def render(result: Result, system: str, width: int = 78, height: int = HEIGHT,
     tr = result.trap
     if tr is not None and tr.limit_load is not None:
         if by_inlet and tr.limit_inlet_temperature is not None:
-            xl = q.convert(tr.limit_inlet_temperature, "temperature", system)
+            xl = display.convert(tr.limit_inlet_temperature, "temperature", system)
         else:
             xl = tr.limit_load * 100
-        grid[row(q.convert(tr.limit_coil_pressure, "pressure", system, atm))][col(xl)] = "D"
+        grid[row(display.convert(tr.limit_coil_pressure, "pressure", system, atm))][col(xl)] = "D"
     # stall point
     s = result.stall
     if s.occurs:
-        xs = q.convert(s.inlet_temperature, "temperature", system) if by_inlet else s.load_fraction * 100
-        ys = q.convert(s.coil_pressure, "pressure", system, atm)
+        xs = display.convert(s.inlet_temperature, "temperature", system) if by_inlet else s.load_fraction * 100
+        ys = display.convert(s.coil_pressure, "pressure", system, atm)
         grid[row(ys)][col(xs)] = "X"
 
     lines: list[list[tuple[str, str | None]]] = []
@@ -197,7 +198,7 @@ def render(result: Result, system: str, width: int = 78, height: int = HEIGHT,
         labels[start:start + len(tick)] = list(tick)
     lines.append([(" " * label_w + " +" + "".join(axis).replace(" ", "-"), None)])
     lines.append([(" " * (label_w + 2) + "".join(labels).rstrip(), None)])
-    x_name = (f"entering temperature, {q.label('temperature', system)} (load falls to the right)"
+    x_name = (f"entering temperature, {display.label('temperature', system)} (load falls to the right)"
               if by_inlet else "load, % of design")
     lines.append([(" " * (label_w + 2) + x_name.center(plot_w).rstrip(), None)])
     used = {ch for line in grid for ch in line}
@@ -229,20 +230,20 @@ def points_csv(result: Result, system: str) -> str:
 
     pts = result.points
     atm = result.atmospheric_pressure
-    p_unit, t_unit = q.label("pressure", system), q.label("temperature", system)
-    dp_unit, w_unit = q.label("differential", system), q.label("mass_flow", system)
+    p_unit, t_unit = display.label("pressure", system), display.label("temperature", system)
+    dp_unit, w_unit = display.label("differential", system), display.label("mass_flow", system)
     buffer = io.StringIO()
     out = csv.writer(buffer, lineterminator="\n")
     out.writerow(["load [%]", f"entering temperature [{t_unit}]", f"coil pressure [{p_unit}]",
                   f"back pressure [{p_unit}]", f"steam temperature [{t_unit}]", f"steam flow [{w_unit}]",
                   f"drain differential [{dp_unit}]", "stalled", "valve travel [%]"])
-    back = q.convert(result.back_pressure, "pressure", system, atm)
+    back = display.convert(result.back_pressure, "pressure", system, atm)
     for i, f in enumerate(pts.load_fraction):
         opening = "" if pts.valve_opening is None else f"{100.0 * pts.valve_opening[i]:.1f}"
-        out.writerow([f"{100.0 * f:g}", f"{q.convert(pts.inlet_temperature[i], 'temperature', system):.2f}",
-                      f"{q.convert(pts.coil_pressure[i], 'pressure', system, atm):.4f}", f"{back:.4f}",
-                      f"{q.convert(pts.steam_temperature[i], 'temperature', system):.2f}",
-                      f"{q.convert(pts.steam_flow[i], 'mass_flow', system):.2f}",
-                      f"{q.convert(pts.drain_differential[i], 'differential', system):.4f}",
+        out.writerow([f"{100.0 * f:g}", f"{display.convert(pts.inlet_temperature[i], 'temperature', system):.2f}",
+                      f"{display.convert(pts.coil_pressure[i], 'pressure', system, atm):.4f}", f"{back:.4f}",
+                      f"{display.convert(pts.steam_temperature[i], 'temperature', system):.2f}",
+                      f"{display.convert(pts.steam_flow[i], 'mass_flow', system):.2f}",
+                      f"{display.convert(pts.drain_differential[i], 'differential', system):.4f}",
                       "yes" if pts.stalled[i] else "no", opening])
     return buffer.getvalue()

@@ -6,7 +6,7 @@ from __future__ import annotations
 from dataclasses import dataclass
 
 from stallcheck.analysis.diagnosis import Diagnosis
-from stallcheck.files import quantities as q
+from stallcheck.files import display
 from stallcheck.render import advice
 from stallcheck.render import json as json_out
 from stallcheck.render.page import BLANK, Para, bullets, runs
@@ -262,10 +262,10 @@ def report(d: Diagnosis, system: str, width: int = 80) -> list:
     atm = r.atmospheric_pressure
 
     def p(pa):
-        return q.show(pa, "pressure", system, atm)
+        return display.show(pa, "pressure", system, atm)
 
     def t(k):
-        return q.show(k, "temperature", system)
+        return display.show(k, "temperature", system)
 
     parts: list = heading(r, f"{r.source}: diagnosis from readings in service", width=width)
 
@@ -328,19 +328,19 @@ def to_dict(d: Diagnosis) -> dict:
         "format": 1,
         "unit": d.result.unit,
         "readings": {
-            "coil_pressure_kpa": q.kpa(rd.coil_pressure),
-            "return_pressure_kpa": q.kpa(rd.return_pressure),
+            "coil_pressure_kpa": display.kpa(rd.coil_pressure),
+            "return_pressure_kpa": display.kpa(rd.return_pressure),
             "load_fraction": rd.load,
-            "inlet_temperature_c": q.celsius(rd.inlet_temperature),
-            "outlet_temperature_c": q.celsius(rd.outlet_temperature),
+            "inlet_temperature_c": display.celsius(rd.inlet_temperature),
+            "outlet_temperature_c": display.celsius(rd.outlet_temperature),
             "noise": list(rd.noise),
             "trap_outlet": rd.trap_outlet,
         },
         "operating_point": {
             "load_fraction": d.load,
             "load_basis": d.load_basis or None,
-            "model_coil_pressure_kpa": q.kpa(d.model_coil_pressure),
-            "back_pressure_kpa": q.kpa(d.back_pressure),
+            "model_coil_pressure_kpa": display.kpa(d.model_coil_pressure),
+            "back_pressure_kpa": display.kpa(d.back_pressure),
             "stalled_model": d.stalled_model,
             "stalled_gauges": d.stalled_gauges,
             "agreement": d.agreement or None,

@@ -12,7 +12,7 @@ import math
 import re
 
 from stallcheck.analysis.remedies import MARGIN
-from stallcheck.files import quantities as q
+from stallcheck.files import display
 from stallcheck.render import advice, words
 from stallcheck.result import Result
 
@@ -39,17 +39,17 @@ def to_dict(r: Result, sentences: bool = True) -> dict:
     for i, f in enumerate(pts.load_fraction if pts is not None else ()):
         point = {
             "load_fraction": float(f),
-            "inlet_temperature_c": float(q.celsius(pts.inlet_temperature[i])),
-            "coil_pressure_kpa": float(q.kpa(pts.coil_pressure[i])),
-            "steam_temperature_c": float(q.celsius(pts.steam_temperature[i])),
-            "steam_kg_h": float(q.kg_h(pts.steam_flow[i])),
-            "drain_differential_kpa": float(q.kpa(pts.drain_differential[i])),
+            "inlet_temperature_c": float(display.celsius(pts.inlet_temperature[i])),
+            "coil_pressure_kpa": float(display.kpa(pts.coil_pressure[i])),
+            "steam_temperature_c": float(display.celsius(pts.steam_temperature[i])),
+            "steam_kg_h": float(display.kg_h(pts.steam_flow[i])),
+            "drain_differential_kpa": float(display.kpa(pts.drain_differential[i])),
             "stalled": bool(pts.stalled[i]),
         }
         if pts.valve_opening is not None:
             point["valve_opening"] = _clean(float(pts.valve_opening[i]))
             point["valve_limited"] = bool(limited[i])
-            point["needed_coil_pressure_kpa"] = float(q.kpa(pts.needed_coil_pressure[i]))
+            point["needed_coil_pressure_kpa"] = float(display.kpa(pts.needed_coil_pressure[i]))
         points.append(point)
     s = r.stall
     v = r.valve
@@ -62,30 +62,30 @@ def to_dict(r: Result, sentences: bool = True) -> dict:
         "load_varies": r.varies,
         "minimum_load_fraction": r.minimum_load,
         "set_point_floor_load_fraction": r.set_point_floor_load,
-        "atmospheric_pressure_kpa": q.kpa(r.atmospheric_pressure),
-        "return_pressure_kpa": q.kpa(r.return_pressure),
-        "back_pressure_kpa": q.kpa(r.back_pressure),
-        "fill_head_kpa": q.kpa(r.fill_head_pressure),
-        "trap_min_differential_kpa": q.kpa(r.trap_min_differential),
-        "supply_pressure_kpa": q.kpa(r.supply_pressure),
+        "atmospheric_pressure_kpa": display.kpa(r.atmospheric_pressure),
+        "return_pressure_kpa": display.kpa(r.return_pressure),
+        "back_pressure_kpa": display.kpa(r.back_pressure),
+        "fill_head_kpa": display.kpa(r.fill_head_pressure),
+        "trap_min_differential_kpa": display.kpa(r.trap_min_differential),
+        "supply_pressure_kpa": display.kpa(r.supply_pressure),
         "design": {
-            "load_kw": q.kw(r.design.load),
-            "steam_kg_h": q.kg_h(r.design.steam_flow),
-            "coil_pressure_kpa": q.kpa(r.design.coil_pressure),
-            "steam_temperature_c": q.celsius(r.design.steam_temperature),
-            "medium_kg_h": q.kg_h(r.design.medium_mass_flow),
+            "load_kw": display.kw(r.design.load),
+            "steam_kg_h": display.kg_h(r.design.steam_flow),
+            "coil_pressure_kpa": display.kpa(r.design.coil_pressure),
+            "steam_temperature_c": display.celsius(r.design.steam_temperature),
+            "medium_kg_h": display.kg_h(r.design.medium_mass_flow),
         },
         "stall": {
             "occurs": s.floods,
             "load_fraction": s.load_fraction,
-            "coil_pressure_kpa": q.kpa(s.coil_pressure),
-            "steam_temperature_c": q.celsius(s.steam_temperature),
-            "condensate_kg_h": q.kg_h(s.condensate),
-            "inlet_temperature_c": q.celsius(s.inlet_temperature),
-            "threshold_pressure_kpa": q.kpa(s.threshold_pressure),
+            "coil_pressure_kpa": display.kpa(s.coil_pressure),
+            "steam_temperature_c": display.celsius(s.steam_temperature),
+            "condensate_kg_h": display.kg_h(s.condensate),
+            "inlet_temperature_c": display.celsius(s.inlet_temperature),
+            "threshold_pressure_kpa": display.kpa(s.threshold_pressure),
             "in_operating_range": s.floods_in_range,
             "valve_load_fraction": s.valve_load_fraction,
-            "valve_coil_pressure_kpa": q.kpa(s.valve_coil_pressure),
+            "valve_coil_pressure_kpa": display.kpa(s.valve_coil_pressure),
             "ranges": [list(pair) for pair in s.ranges],
         },
         "stalled_hours": r.stalled_hours,
@@ -106,7 +106,7 @@ def to_dict(r: Result, sentences: bool = True) -> dict:
             "capacity_ok": v.capacity_ok,
             "choked_at_design": v.choked_at_design,
             "limited_load_fraction": v.limited_load_fraction,
-            "limited_coil_pressure_kpa": q.kpa(v.limited_coil_pressure),
+            "limited_coil_pressure_kpa": display.kpa(v.limited_coil_pressure),
             "min_controllable_load_fraction": v.min_controllable_load,
             "characteristic": v.characteristic,
             "rangeability": v.rangeability,
@@ -140,7 +140,7 @@ _SI_UNIT = {"length": "m", "pressure": "Pa", "differential": "Pa", "cv": "Cv"}
 
 def _advice(r: Result):
     a = advice.advise(r, r.system)
-    return {"mode": a.mode, "fit": a.fit, "margin_kpa": q.kpa(MARGIN),
+    return {"mode": a.mode, "fit": a.fit, "margin_kpa": display.kpa(MARGIN),
             "text": list(a.lead) + [f"{m.key}: {m.note}" for m in a.changes]
             + [f"{m.key}: {m.note}" for m in a.cannot] + list(a.notes)}
 
@@ -163,9 +163,9 @@ def _weather(r: Result):
         "hours_operating": y.operating, "hours_below_minimum_load": y.below_minimum,
         "hours_above_full_load": y.above_full, "hours_stalled": y.stalled,
         "hours_stalled_freezing": y.stalled_freezing, "longest_stalled_freezing_run_h": y.longest_freezing_run,
-        "heating_dry_bulb_996_c": q.celsius(y.dry_bulb_996), "heating_dry_bulb_990_c": q.celsius(y.dry_bulb_990),
-        "entering_at_996_c": q.celsius(y.entering_996),
-        "stated_dry_bulb_996_c": q.celsius(y.stated_996), "stated_dry_bulb_990_c": q.celsius(y.stated_990),
+        "heating_dry_bulb_996_c": display.celsius(y.dry_bulb_996), "heating_dry_bulb_990_c": display.celsius(y.dry_bulb_990),
+        "entering_at_996_c": display.celsius(y.entering_996),
+        "stated_dry_bulb_996_c": display.celsius(y.stated_996), "stated_dry_bulb_990_c": display.celsius(y.stated_990),
         "load_bands": [{"load_from": lower, "load_to": upper, "hours": hours, "stalled_hours": stalled}
                        for lower, upper, hours, stalled in y.bands],
     }
@@ -179,21 +179,21 @@ def _trap(r: Result):
         "capacity_basis": t.basis,
         "bore_mm": None if t.bore is None else t.bore * 1000.0,
         "margin": t.margin,
-        "design_condensate_kg_h": q.kg_h(t.design_condensate),
-        "design_differential_kpa": q.kpa(t.design_differential),
+        "design_condensate_kg_h": display.kg_h(t.design_condensate),
+        "design_differential_kpa": display.kpa(t.design_differential),
         "working_load_fraction": t.working_load,
-        "working_condensate_kg_h": q.kg_h(t.working_condensate),
-        "working_differential_kpa": q.kpa(t.working_differential),
-        "selection_differential_kpa": q.kpa(t.selection_differential),
-        "required_capacity_kg_h": q.kg_h(t.required_capacity),
-        "installed_capacity_kg_h": q.kg_h(t.installed_capacity),
+        "working_condensate_kg_h": display.kg_h(t.working_condensate),
+        "working_differential_kpa": display.kpa(t.working_differential),
+        "selection_differential_kpa": display.kpa(t.selection_differential),
+        "required_capacity_kg_h": display.kg_h(t.required_capacity),
+        "installed_capacity_kg_h": display.kg_h(t.installed_capacity),
         "capacity_ok": t.capacity_ok,
         "drainage_limit": None if t.limit_load is None else {
             "load_fraction": t.limit_load,
-            "coil_pressure_kpa": q.kpa(t.limit_coil_pressure),
-            "differential_kpa": q.kpa(t.limit_differential),
-            "condensate_kg_h": q.kg_h(t.limit_condensate),
-            "inlet_temperature_c": q.celsius(t.limit_inlet_temperature),
+            "coil_pressure_kpa": display.kpa(t.limit_coil_pressure),
+            "differential_kpa": display.kpa(t.limit_differential),
+            "condensate_kg_h": display.kg_h(t.limit_condensate),
+            "inlet_temperature_c": display.celsius(t.limit_inlet_temperature),
         },
     }
 
@@ -204,14 +204,14 @@ def _pump_trap(r: Result):
         return None
     return {
         "installed": pt.installed,
-        "condensate_kg_h": q.kg_h(pt.condensate),
+        "condensate_kg_h": display.kg_h(pt.condensate),
         "load_fraction": pt.load_fraction,
-        "back_pressure_kpa": q.kpa(pt.back_pressure),
-        "motive_pressure_kpa": q.kpa(pt.motive_pressure),
+        "back_pressure_kpa": display.kpa(pt.back_pressure),
+        "motive_pressure_kpa": display.kpa(pt.motive_pressure),
         "motive_given": pt.motive_given,
         "fill_head_m": pt.fill_head,
         "required_fill_head_m": pt.required_fill_head,
-        "capacity_kg_h": q.kg_h(pt.capacity),
+        "capacity_kg_h": display.kg_h(pt.capacity),
         "capacity_basis": pt.capacity_basis or None,
         "outside_table": pt.outside_table,
         "capacity_ok": None if pt.capacity is None else pt.capacity >= pt.condensate,
@@ -225,8 +225,8 @@ def _purge(r: Result):
     return {
         "basis": pu.basis,
         "bore_mm": None if pu.bore is None else pu.bore * 1000.0,
-        "design_kg_h": q.kg_h(pu.design_rate),
-        "minimum_load_kg_h": q.kg_h(pu.minimum_rate),
+        "design_kg_h": display.kg_h(pu.design_rate),
+        "minimum_load_kg_h": display.kg_h(pu.minimum_rate),
         "holds_differential": pu.holds_differential,
         "hours": pu.hours,
         "hours_basis": pu.hours_basis or None,
@@ -242,13 +242,13 @@ def _flash(r: Result):
         return None
     return {
         "fraction": f.fraction,
-        "outlet_pressure_kpa": q.kpa(f.outlet_pressure),
+        "outlet_pressure_kpa": display.kpa(f.outlet_pressure),
         "return_fraction": f.return_fraction,
-        "kg_h": q.kg_h(f.flow),
+        "kg_h": display.kg_h(f.flow),
         "m3_h": f.volume_flow * 3600.0,
         "return_line_mm": None if f.line_diameter is None else f.line_diameter * 1000.0,
         "velocity_m_s": f.velocity,
-        "return_temperature_c": q.celsius(f.return_temperature),
+        "return_temperature_c": display.celsius(f.return_temperature),
     }
 
 
@@ -259,7 +259,7 @@ def _return_line(r: Result):
     return {
         "bore_mm": line.bore * 1000.0,
         "pitch": line.pitch,
-        "points": [{"where": p.where, "load_fraction": p.load_fraction, "condensate_kg_h": q.kg_h(p.condensate),
+        "points": [{"where": p.where, "load_fraction": p.load_fraction, "condensate_kg_h": display.kg_h(p.condensate),
                     "flash_fraction": p.flash_fraction, "taitel_dukler": p.taitel_dukler, "mandhane": p.mandhane,
                     "slugging": p.slugging, "riser": p.riser, "riser_slugging": p.riser_slugging}
                    for p in line.points],
@@ -281,8 +281,8 @@ def _surge(r: Result):
         "length_m": sh.length,
         "closing_time_s": sh.closing_time,
         "surge_kpa": sh.surge / 1000.0,
-        "peak_kpa": q.kpa(sh.peak),
-        "rating_kpa": q.kpa(sh.rating),
+        "peak_kpa": display.kpa(sh.peak),
+        "rating_kpa": display.kpa(sh.rating),
         "slow_closing_time_s": sh.slow_closing_time,
     }
 

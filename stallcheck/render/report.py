@@ -5,7 +5,8 @@ from __future__ import annotations
 
 import io
 
-from stallcheck.files import quantities as q
+
+from stallcheck.files import display
 from stallcheck.inputs import Unit
 from stallcheck.physics.constants import FREEZING
 from stallcheck.render import advice, chart, page, terminal, words
@@ -37,7 +38,7 @@ def markdown(unit: Unit, r: Result, system: str, version: str, date: str, pictur
     atm = r.atmospheric_pressure
 
     def show(value, kind):
-        return q.show(value, kind, system, atm)
+        return display.show(value, kind, system, atm)
 
     d = unit.design
     dr = unit.drain
@@ -171,7 +172,7 @@ def _year_picture(ax, r: Result, system: str) -> None:
     import numpy as np
 
     y = r.year
-    entering = np.asarray(q.convert_array(y.entering[y.running], "temperature", system), dtype=float)
+    entering = np.asarray(display.convert_array(y.entering[y.running], "temperature", system), dtype=float)
     stalled = y.stalled_hours[y.running]
     step = 2.0 if system == "si" else 4.0
     if entering.size:
@@ -180,14 +181,14 @@ def _year_picture(ax, r: Result, system: str) -> None:
         edges = np.array([0.0, step])
     all_hours, _ = np.histogram(entering, edges)
     stalled_hours, _ = np.histogram(entering[stalled], edges)
-    unit = q.label("temperature", system)
+    unit = display.label("temperature", system)
     ax.bar(edges[:-1], all_hours - stalled_hours, width=step, align="edge", color="tab:blue", alpha=0.6,
            label="hours the trap drains")
     ax.bar(edges[:-1], stalled_hours, width=step, align="edge", bottom=all_hours - stalled_hours, color="tab:red",
            alpha=0.7, label="hours stalled")
-    ax.axvline(q.convert(FREEZING, "temperature", system), color="tab:cyan", lw=1.2, ls="--",
+    ax.axvline(display.convert(FREEZING, "temperature", system), color="tab:cyan", lw=1.2, ls="--",
                label="freezing")
-    ax.axvline(q.convert(y.design_inlet, "temperature", system), color="black", lw=1.2, label="design entering air")
+    ax.axvline(display.convert(y.design_inlet, "temperature", system), color="black", lw=1.2, label="design entering air")
     ax.set_xlabel(f"air entering the coil, {unit}")
     ax.set_ylabel("hours a year")
     ax.set_title(f"The site's year: {y.file} ({y.stalled:,} h stalled, {y.stalled_freezing:,} h below freezing)",
@@ -215,9 +216,9 @@ def picture(r: Result, system: str, fmt: str) -> bytes:
     atm = r.atmospheric_pressure
     pts = r.points
     load = pts.load_fraction * 100
-    pressure = q.convert_array(pts.coil_pressure, "pressure", system, atm)
-    back = q.convert(r.back_pressure, "pressure", system, atm)
-    unit = q.label("pressure", system)
+    pressure = display.convert_array(pts.coil_pressure, "pressure", system, atm)
+    back = display.convert(r.back_pressure, "pressure", system, atm)
+    unit = display.label("pressure", system)
     if r.year is None:
         fig, ax = plt.subplots(figsize=(7.5, 4.5), dpi=120)
     else:
@@ -229,11 +230,11 @@ def picture(r: Result, system: str, fmt: str) -> bytes:
     ax.fill_between(load, min(min(pressure), back, 0.0), pressure, where=pts.stalled, color="tab:red", alpha=0.15,
                     label="stalled: the trap cannot discharge")
     if r.stall.occurs:
-        ax.plot([r.stall.load_fraction * 100], [q.convert(r.stall.coil_pressure, "pressure", system, atm)], "X",
+        ax.plot([r.stall.load_fraction * 100], [display.convert(r.stall.coil_pressure, "pressure", system, atm)], "X",
                 color="tab:red", ms=10, label="stall point")
     t = r.trap
     if t is not None and t.limit_load is not None and (not r.stall.occurs or t.limit_load > r.stall.load_fraction + 0.005):
-        ax.plot([t.limit_load * 100], [q.convert(t.limit_coil_pressure, "pressure", system, atm)], "D",
+        ax.plot([t.limit_load * 100], [display.convert(t.limit_coil_pressure, "pressure", system, atm)], "D",
                 color="tab:purple", ms=7, label="drainage limit")
     if r.minimum_load > 0:
         ax.axvline(r.minimum_load * 100, color="tab:green", lw=1, label="minimum load")

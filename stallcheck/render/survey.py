@@ -8,7 +8,7 @@ import textwrap
 
 from stallcheck.analysis.survey import Failure, Summary
 from stallcheck.errors import printable
-from stallcheck.files import quantities as q
+from stallcheck.files import display
 from stallcheck.render import json as json_out
 from stallcheck.render import words
 from stallcheck.result import CAUTIONS
@@ -54,7 +54,7 @@ def _rows(summaries: list[Summary], system: str | None, width: int = 80):
     for s in summaries:
         stall = "never" if s.stall_fraction is None else (
             "all loads" if s.stall_fraction >= 1.0 else f"<{words.percent(s.stall_fraction)}")
-        inlet = "" if s.stall_inlet_temperature is None else q.show(s.stall_inlet_temperature, "temperature", sys_)
+        inlet = "" if s.stall_inlet_temperature is None else display.show(s.stall_inlet_temperature, "temperature", sys_)
         hours = "" if s.stalled_hours is None else f"{s.stalled_hours:,.0f} h"
         line = [(" ".join((_cell(printable(s.tag or s.name), unit_w, unit_r), _cell(stall, stall_w, stall_r),
                            _cell(inlet, inlet_w, inlet_r), _cell(s.required, needs_w, needs_r))) + " ", None),
@@ -88,8 +88,8 @@ def _count(summaries: list[Summary], failures: list[Failure], system: str | None
     shown = display_system(summaries, system)
     if system is None and len({s.system for s in summaries}) > 1:
         other = "si" if shown == "us" else "us"
-        out.append((f"Temperatures in {q.label('temperature', shown)}, as most of the files are written "
-                    f"(--units {other} for {q.label('temperature', other)}).", "dim"))
+        out.append((f"Temperatures in {display.label('temperature', shown)}, as most of the files are written "
+                    f"(--units {other} for {display.label('temperature', other)}).", "dim"))
     if failures:
         out.append((f"{len(failures):,} could not be read: see the messages on stderr", "bold red"))
     return out
@@ -142,10 +142,10 @@ CSV_COLUMNS = ("source", "name", "tag", "stall_load_fraction", "stall_inlet_temp
 def records(summaries: list[Summary], failures: list[Failure]) -> list[dict]:
     """One record per unit with the :data:`CSV_COLUMNS` as keys (SI: °C; None where not
     known), the failures last with their messages under ``error``."""
-    out = [dict(zip(CSV_COLUMNS, (s.source, s.name, s.tag, s.stall_fraction, q.celsius(s.stall_inlet_temperature),
+    out = [dict(zip(CSV_COLUMNS, (s.source, s.name, s.tag, s.stall_fraction, display.celsius(s.stall_inlet_temperature),
                                   s.required, s.installed, s.adequate, s.stalled_hours, s.top_code,
                                   s.top_severity, s.exit_status, None, s.return_pattern, s.hours_from,
-                                  s.freezing_hours, q.celsius(s.dry_bulb_996))))
+                                  s.freezing_hours, display.celsius(s.dry_bulb_996))))
            for s in summaries]
     out += [dict.fromkeys(CSV_COLUMNS) | {"source": f.source, "exit_status": 2, "error": f.message} for f in failures]
     return out

@@ -7,7 +7,8 @@ without loading rich at all).
 
 from __future__ import annotations
 
-from stallcheck.files import quantities as q
+
+from stallcheck.files import display
 from stallcheck.physics.constants import FREEZING
 from stallcheck.render import advice, chart, page, words
 from stallcheck.render.page import BLANK, Para, bullets, runs
@@ -84,25 +85,25 @@ def report(result: Result, system: str, width: int = 80) -> list:
     atm = r.atmospheric_pressure
 
     def p(pa):
-        return q.show(pa, "pressure", system, atm)
+        return display.show(pa, "pressure", system, atm)
 
     def t(k):
-        return q.show(k, "temperature", system)
+        return display.show(k, "temperature", system)
 
     def w(kg_s):
-        return q.show(kg_s, "mass_flow", system)
+        return display.show(kg_s, "mass_flow", system)
 
     parts: list = heading(r, r.source, f"{r.medium}; load varies with {r.varies}; method {r.method}", width=width)
 
     d = r.design
-    fill_note = (f"fill head {q.show(r.fill_head, 'length', system)} = "
-                 f"{q.show(r.fill_head_pressure, 'differential', system)}")
+    fill_note = (f"fill head {display.show(r.fill_head, 'length', system)} = "
+                 f"{display.show(r.fill_head_pressure, 'differential', system)}")
     parts += [
         _heading("Design (full load)"),
-        _para(f"load {q.show(d.load, 'power', system)}, steam {w(d.steam_flow)} "
+        _para(f"load {display.show(d.load, 'power', system)}, steam {w(d.steam_flow)} "
               f"at {p(d.coil_pressure)} ({t(d.steam_temperature)}); supply {p(r.supply_pressure)}"),
         _para(f"back pressure on the trap {p(r.back_pressure)} (return {p(r.return_pressure)} plus "
-              f"{q.show(r.lift, 'length', system)} lift); "
+              f"{display.show(r.lift, 'length', system)} lift); "
               f"{fill_note}"),
         BLANK,
     ]
@@ -191,17 +192,17 @@ def _devices(r: Result, system: str) -> list:
     atm = r.atmospheric_pressure
 
     def p(pa, kind="pressure"):
-        return q.show(pa, kind, system, atm)
+        return display.show(pa, kind, system, atm)
 
     def w(kg_s):
-        return q.show(kg_s, "mass_flow", system)
+        return display.show(kg_s, "mass_flow", system)
 
     parts: list = []
     tr = r.trap
     if tr is not None:
         parts.append(_heading("Trap"))
         parts.append(Para(runs((f"  {_BASIS[tr.basis]}"
-                                + (f" ({q.show(tr.bore, 'diameter', system)} bore)" if tr.basis != "table" else ""),
+                                + (f" ({display.show(tr.bore, 'diameter', system)} bore)" if tr.basis != "table" else ""),
                                 "dim")), 0))
         flooded = "; below zero: the trap cannot discharge at all" if tr.design_differential <= 0 else ""
         parts.append(_para(f"full load: {w(tr.design_condensate)} at {p(tr.design_differential, 'differential')} "
@@ -231,7 +232,7 @@ def _devices(r: Result, system: str) -> list:
                                f"trap keeps up"))
         else:
             stall = f"; the stall proper is at {words.percent(r.stall.load_fraction)}" if r.stall.occurs else ""
-            where = f", entering {q.show(tr.limit_inlet_temperature, 'temperature', system)}" \
+            where = f", entering {display.show(tr.limit_inlet_temperature, 'temperature', system)}" \
                 if tr.limit_inlet_temperature is not None else ""
             parts.append(_para(f"drainage limit: {words.percent(tr.limit_load)} load{where} ({w(tr.limit_condensate)} at "
                                f"{p(tr.limit_differential, 'differential')}); below it the trap falls short{stall}"))
@@ -248,8 +249,8 @@ def _devices(r: Result, system: str) -> list:
         parts.append(_para(f"motive {p(pt.motive_pressure)} ({source}): "
                            f"{p(pt.motive_pressure - pt.back_pressure, 'differential')} above the back pressure"))
         need = "the maker's figure" if pt.fill_head_given else "common practice"
-        parts.append(_para(f"fill head {q.show(pt.fill_head, 'length', system)}; needs "
-                           f"{q.show(pt.required_fill_head, 'length', system)} ({need})"))
+        parts.append(_para(f"fill head {display.show(pt.fill_head, 'length', system)}; needs "
+                           f"{display.show(pt.required_fill_head, 'length', system)} ({need})"))
         if pt.outside_table:
             parts.append(_para("the back pressure is above the maker's capacity table: not rated for this duty",
                                style="yellow"))
@@ -261,7 +262,7 @@ def _devices(r: Result, system: str) -> list:
     pu = r.purge
     if pu is not None:
         parts.append(_heading("Constant purge"))
-        size = (f"orifice {q.show(pu.bore, 'diameter', system)} bleeds" if pu.basis == "orifice"
+        size = (f"orifice {display.show(pu.bore, 'diameter', system)} bleeds" if pu.basis == "orifice"
                 else "stated rate:")
         parts.append(_para(f"{size} {w(pu.design_rate)} at full load, {w(pu.minimum_rate)} at the minimum load"))
         if pu.yearly_mass is not None:
@@ -269,7 +270,7 @@ def _devices(r: Result, system: str) -> list:
             cost = ""
             if pu.yearly_cost is not None:
                 cost = f", costing {pu.yearly_cost:,.0f} {pu.currency}".rstrip()
-            parts.append(_para(f"{pu.hours:,.0f} h a year ({hours}): {q.show(pu.yearly_mass, 'mass', system)} "
+            parts.append(_para(f"{pu.hours:,.0f} h a year ({hours}): {display.show(pu.yearly_mass, 'mass', system)} "
                                f"of steam{cost}"))
         else:
             parts.append(_para("give site.hours_per_year (or load bins) and site.steam_price for its yearly cost",
@@ -278,7 +279,7 @@ def _devices(r: Result, system: str) -> list:
     fl = r.flash
     if fl is not None:
         parts.append(_heading("Flash steam at the trap outlet"))
-        outlet = q.show(fl.outlet_pressure, 'pressure', system, r.atmospheric_pressure)
+        outlet = display.show(fl.outlet_pressure, 'pressure', system, r.atmospheric_pressure)
         lifted = fl.return_fraction > fl.fraction + 1e-9
         if fl.fraction > 0:
             parts.append(_para(f"{fl.fraction:.1%} of the condensate at full load, at the trap outlet's {outlet}"
@@ -290,12 +291,12 @@ def _devices(r: Result, system: str) -> list:
         if fl.return_fraction > 0:
             parts.append(_para((f"growing up the lift to {fl.return_fraction:.1%} at the return: " if lifted
                                 else "at the return: ")
-                               + f"{w(fl.flow)}, {q.show(fl.volume_flow, 'volume_flow', system)}"))
+                               + f"{w(fl.flow)}, {display.show(fl.volume_flow, 'volume_flow', system)}"))
         if fl.velocity is not None:
             from stallcheck.physics.constants import VELOCITY_LIMIT
-            parts.append(_para(f"return line {q.show(fl.line_diameter, 'diameter', system)} bore: "
-                               f"{q.show(fl.velocity, 'velocity', system)} (keep under about "
-                               f"{q.show_about(VELOCITY_LIMIT, 'velocity', system)})"))
+            parts.append(_para(f"return line {display.show(fl.line_diameter, 'diameter', system)} bore: "
+                               f"{display.show(fl.velocity, 'velocity', system)} (keep under about "
+                               f"{display.show_about(VELOCITY_LIMIT, 'velocity', system)})"))
         parts.append(BLANK)
     return parts
 
@@ -312,10 +313,10 @@ def year_section(r: Result, system: str, width: int = 80) -> list:
         return []
 
     def t(k):
-        return q.show(k, "temperature", system)
+        return display.show(k, "temperature", system)
 
     where = f"{y.file}: {y.station}" if y.station else y.file
-    elevation = (f", {q.convert(y.station_elevation, 'length', system):,.0f} {q.label('length', system)}"
+    elevation = (f", {display.convert(y.station_elevation, 'length', system):,.0f} {display.label('length', system)}"
                  if y.station_elevation is not None else "")
     parts = [_heading("The site's year"), _para(f"{where} ({y.form.upper()}{elevation}), {y.hours:,} h")]
     off = y.hours - y.scheduled
@@ -381,12 +382,12 @@ def hammer_sections(r: Result, system: str) -> list:
             f"falling {line.pitch:.1%} with the flow" if line.pitch >= 0 else f"rising {-line.pitch:.1%} against it")
         lift = any(pt.riser is not None for pt in line.points)
         parts += [_heading("Return line from the trap"),
-                  _para(f"{q.show(line.bore, 'diameter', system)} bore"
-                        + (f": up the {q.show(r.lift, 'length', system)} lift (vertical upflow, Taitel, Barnea & "
+                  _para(f"{display.show(line.bore, 'diameter', system)} bore"
+                        + (f": up the {display.show(r.lift, 'length', system)} lift (vertical upflow, Taitel, Barnea & "
                            f"Dukler), then the run, {pitch}" if lift else f", {pitch}")
                         + "; the run's pattern by Taitel & Dukler (Mandhane's map beside it):")]
         for pt in line.points:
-            flow = q.show(pt.condensate, "mass_flow", system)
+            flow = display.show(pt.condensate, "mass_flow", system)
             text = runs(f"{pt.where} ({words.percent(pt.load_fraction)}): ")
             if pt.riser is not None:
                 text += runs("lift ", (pt.riser, "bold red" if pt.riser_slugging else None), "; run ")
@@ -398,7 +399,7 @@ def hammer_sections(r: Result, system: str) -> list:
             parts.append(Para(text, 4, runs("  - ")))
         if line.slugging:
             parts.append(_para(f"stratified at every load from {line.stratified_size} "
-                               f"({q.show(line.stratified_bore, 'diameter', system)} bore)" if line.stratified_bore
+                               f"({display.show(line.stratified_bore, 'diameter', system)} bore)" if line.stratified_bore
                                else "no line up to 6 in keeps it stratified at every load", style="yellow"))
         parts.append(BLANK)
     sh = r.surge
@@ -412,11 +413,11 @@ def hammer_sections(r: Result, system: str) -> list:
         elif sh.closing_time:
             what += f"; the check valve after it closes in {sh.closing_time:g} s"
         parts += [_heading("Surge (hydraulic shock)"), _para(what),
-                  _para(f"{q.show(sh.velocity, 'velocity', system)} stopped; wave speed "
-                        f"{q.show_about(sh.wave_speed, 'velocity', system)} (Korteweg): a rise of "
-                        f"{q.show_about(sh.surge, 'differential', system)} (Joukowsky"
-                        + (", slowed by the closure" if sh.slowed else "") + f"), to {q.show(sh.peak, 'pressure', system, atm)}"
-                        + (f" against a rating of {q.show(sh.rating, 'pressure', system, atm)}" if sh.rating else "")),
+                  _para(f"{display.show(sh.velocity, 'velocity', system)} stopped; wave speed "
+                        f"{display.show_about(sh.wave_speed, 'velocity', system)} (Korteweg): a rise of "
+                        f"{display.show_about(sh.surge, 'differential', system)} (Joukowsky"
+                        + (", slowed by the closure" if sh.slowed else "") + f"), to {display.show(sh.peak, 'pressure', system, atm)}"
+                        + (f" against a rating of {display.show(sh.rating, 'pressure', system, atm)}" if sh.rating else "")),
                   *([_para("flash steam collapsing in the riser can strike harder; no published method sizes "
                            "that from these inputs", style="dim")] if sh.basis == "lift" else []),
                   _para("a screening figure: relief, ratings and the fix follow the piping code and licensed "

@@ -10,10 +10,10 @@ touching a rule. The README's findings table lists the same codes
 (``tests/test_words.py`` keeps the two in step).
 
 A template is a :meth:`str.format` string. A field's format spec is either an ordinary
-one (``{load:.0%}``) or a display kind of :data:`stallcheck.files.quantities.DISPLAY`
+one (``{load:.0%}``) or a display kind of :data:`stallcheck.files.display.DISPLAY`
 (``{back:pressure}``, ``{flow:mass_flow}``): the SI value is then converted and rounded
-as :func:`stallcheck.files.quantities.show` prints it; ``~kind`` quotes a limit of practice
-the way practitioners round it (:func:`stallcheck.files.quantities.show_about`).
+as :func:`stallcheck.files.display.show` prints it; ``~kind`` quotes a limit of practice
+the way practitioners round it (:func:`stallcheck.files.display.show_about`).
 
 A figure a user may act on is rounded in the safe direction, never to the nearest: a
 spec ending in ``+`` rounds up and one ending in ``-`` rounds down at the printed
@@ -32,6 +32,7 @@ from typing import Any, Mapping
 
 from stallcheck.analysis.remedies import MARGIN
 from stallcheck.files import quantities as q
+from stallcheck.files import display
 
 #: What fitting each required arrangement means (the "what to do" section and
 #: diagnose's remedies say the same).
@@ -400,16 +401,16 @@ class _Fill(string.Formatter):
         if format_spec == "where":
             return valve_stall_loads(value, 0.0)
         if format_spec.startswith("~"):
-            return q.show_about(value, format_spec[1:], self.system)
-        if format_spec in q.DISPLAY[self.system]:
-            return q.show(value, format_spec, self.system, self.atmospheric)
+            return display.show_about(value, format_spec[1:], self.system)
+        if format_spec in display.DISPLAY[self.system]:
+            return display.show(value, format_spec, self.system, self.atmospheric)
         return format(value, format_spec)
 
     def safe(self, value: float, spec: str, up: bool) -> str:
         """``value`` rounded up (or down) at the precision ``spec`` prints it: a display
         kind, or a fixed-point or percent spec such as ``.0%``."""
-        if spec in q.DISPLAY[self.system]:
-            return q.show(q.rounded(value, spec, self.system, self.atmospheric, up=up), spec, self.system,
+        if spec in display.DISPLAY[self.system]:
+            return display.show(display.rounded(value, spec, self.system, self.atmospheric, up=up), spec, self.system,
                           self.atmospheric)
         places = int(spec[1:-1])
         return format(_round_at(value, 10.0 ** places * (100.0 if spec.endswith("%") else 1.0), up), spec)
@@ -499,7 +500,7 @@ def _round_at(value: float, scale: float, up: bool) -> float:
 
 
 def safe(value: float, kind: str, system: str, atmospheric: float, up: bool) -> str:
-    """An SI value printed as :func:`stallcheck.files.quantities.show` prints it, but
+    """An SI value printed as :func:`stallcheck.files.display.show` prints it, but
     rounded up (or down) rather than to the nearest: the ``kind+`` / ``kind-`` specs."""
     return _Fill(system, atmospheric).safe(value, kind, up)
 
@@ -508,8 +509,8 @@ def valve_floods(s, system: str, atmospheric: float) -> str:
     """Where a too-small valve floods the coil, in one sentence (no full stop), for the
     stall point section of every presenter."""
     return (f"the control valve, wide open, holds the coil at "
-            f"{q.show(s.valve_coil_pressure, 'pressure', system, atmospheric)} at full load, under the stall "
-            f"pressure of {q.show(s.threshold_pressure, 'pressure', system, atmospheric)}: it floods "
+            f"{display.show(s.valve_coil_pressure, 'pressure', system, atmospheric)} at full load, under the stall "
+            f"pressure of {display.show(s.threshold_pressure, 'pressure', system, atmospheric)}: it floods "
             f"{valve_stall_loads(s.valve_load_fraction, s.load_fraction if s.in_range else 0.0)}")
 
 
@@ -526,7 +527,7 @@ def stall_summary(s) -> str:
 def cv_up(value: float) -> str:
     """A flow coefficient someone will select a valve by, to three significant figures
     rounded up: a valve of at least the printed Cv does what the text says."""
-    up = q.up_to_figures(value, 3)
+    up = display.up_to_figures(value, 3)
     return f"{up:.{max(0, 2 - math.floor(math.log10(up)))}f}"
 
 
@@ -610,7 +611,7 @@ def assumptions(r, system: str) -> tuple[str, ...]:
 def _year_basis(b, system: str) -> str:
     """What the hours of the weather year stand for."""
     def t(kelvin):
-        return q.show(kelvin, "temperature", system)
+        return display.show(kelvin, "temperature", system)
 
     if b.outdoor_air >= 1.0:
         air = "all outdoor air"
