@@ -314,8 +314,6 @@ STALLS_WHERE = {
     "part": "it stalls below {load:.0%+} load, where the coil pressure falls to {stall_pressure:pressure}",
     "full": "it stalls at every load: the trap needs the coil above {stall_pressure:pressure}, more than it "
             "has at full load",
-    "valve": "its control valve, wide open, holds the coil at {valve_pressure:pressure} at full load, under the "
-             "stall pressure of {stall_pressure:pressure}, so it stalls {valve_where}",
 }
 #: Whether the installed drainage covers what is required (``Drainage.why_adequate``).
 ADEQUACY = {
@@ -507,11 +505,20 @@ def safe(value: float, kind: str, system: str, atmospheric: float, up: bool) -> 
 
 def valve_floods(s, system: str, atmospheric: float) -> str:
     """Where a too-small valve floods the coil, in one sentence (no full stop), for the
-    stall point section of every presenter."""
+    stall point section of every presenter (and the drainage reasons: one sentence)."""
+    return valve_floods_at(s.valve_coil_pressure, s.threshold_pressure, s.valve_load_fraction,
+                           s.load_fraction if s.in_range else 0.0, system, atmospheric)
+
+
+def valve_floods_at(valve_pressure: float, stall_pressure: float, valve_load: float, below: float, system: str,
+                    atmospheric: float) -> str:
+    """:func:`valve_floods` from its figures: the pressure the open valve holds at full
+    load and the stall pressure [Pa], the load it floods from and the load below which
+    the load itself stalls the coil (0: none) [-]."""
     return (f"the control valve, wide open, holds the coil at "
-            f"{display.show(s.valve_coil_pressure, 'pressure', system, atmospheric)} at full load, under the stall "
-            f"pressure of {display.show(s.threshold_pressure, 'pressure', system, atmospheric)}: it floods "
-            f"{valve_stall_loads(s.valve_load_fraction, s.load_fraction if s.in_range else 0.0)}")
+            f"{display.show(valve_pressure, 'pressure', system, atmospheric)} at full load, under the stall "
+            f"pressure of {display.show(stall_pressure, 'pressure', system, atmospheric)}: it floods "
+            f"{valve_stall_loads(valve_load, below)}")
 
 
 def stall_summary(s) -> str:
@@ -548,11 +555,10 @@ def drainage_reasons(drainage, system: str, atmospheric: float) -> tuple[str, st
     facts = dict(drainage.facts, installed=drainage.installed, required=drainage.required)
     if drainage.why_required in ("vacuum-breaker", "gravity-short", "above-atmospheric"):
         if facts.get("valve_load") is not None:
-            facts["valve_where"] = valve_stall_loads(facts["valve_load"], facts["load"] if facts["by_load"] else 0.0)
-            where = STALLS_WHERE["valve"]
+            facts["where"] = valve_floods_at(facts["valve_pressure"], facts["stall_pressure"], facts["valve_load"],
+                                             facts["load"] if facts["by_load"] else 0.0, system, atmospheric)
         else:
-            where = STALLS_WHERE["full" if facts["load"] >= 1 else "part"]
-        facts["where"] = fill(where, facts, system, atmospheric)
+            facts["where"] = fill(STALLS_WHERE["full" if facts["load"] >= 1 else "part"], facts, system, atmospheric)
     return (fill(REQUIREMENTS[drainage.why_required], facts, system, atmospheric),
             fill(ADEQUACY[drainage.why_adequate], facts, system, atmospheric))
 
