@@ -25,8 +25,8 @@ from stallcheck.files.readings import Readings
 from stallcheck.inputs import Unit
 from stallcheck.physics import coil as coilmod
 from stallcheck.physics import properties
-from stallcheck.physics.constants import GRAVITY
-from stallcheck.analysis.devices import MOTIVE_MARGIN, RATING_SHARE, TrapCapacity
+from stallcheck.physics.constants import FREEZING, GRAVITY
+from stallcheck.analysis.devices import RATING_SHARE, TrapCapacity
 from stallcheck.result import Result
 
 #: Gauge and model agree within the larger of this [Pa] (about 1.5 psi) ...
@@ -252,8 +252,8 @@ def _facts(unit, r, readings, load, model_p, condensate, back, fill, stalled_mod
                                        and coil_reading < atm - BREAKER_VACUUM),
         "breaker_cannot_act": bool(installed == "trap-vacuum-breaker" and r.drainage.required == "pump-trap"),
         "pump_flooding": bool(pump and flooding),
-        "pump_motive_low": bool(pump and pt.motive_pressure - pt.back_pressure < MOTIVE_MARGIN),
-        "pump_short": bool(pump and pt.capacity is not None and pt.capacity < pt.condensate),
+        "pump_motive_low": "pump-trap-motive-low" in found,
+        "pump_short": "pump-trap-undersized" in found,
         "trap_cold_with_differential": bool(readings.trap_outlet == "cold" and coil_reading is not None
                                             and installed != "pump-trap" and not stalled_gauges),
         "drainage_covers_stall": bool(r.drainage.adequate and s.in_range),
@@ -281,11 +281,11 @@ def _facts(unit, r, readings, load, model_p, condensate, back, fill, stalled_mod
         "not_pitched": "tubes-not-pitched" in found,
         "lift_after_trap": dr.lift > 0,
         "trap_short_now": trap_short,
-        "trap_undersized": bool(r.trap is not None and r.trap.capacity_ok is False),
+        "trap_undersized": "trap-undersized" in found,
         "poor_trap_type": dr.trap in POOR_AT_LOW_DIFFERENTIAL,
         "valve_cycling": bool(v is not None and load is not None and load < v.min_controllable_load),
         "valve_oversized": "valve-oversized" in found,
-        "freezing_air": bool(r.medium == "air" and inlet_now is not None and inlet_now < 273.15),
+        "freezing_air": bool(r.medium == "air" and inlet_now is not None and inlet_now < FREEZING),
         "cool_return": "flash-into-cool-return" in found,
         "return_slugging": "return-line-slug-flow" in found,
         **_surge_facts(r),
