@@ -296,24 +296,28 @@ def summary(answers: dict) -> list[tuple[str, str]]:
 
 
 def to_toml(answers: dict) -> str:
-    """A commented unit file (format 1) from the answers, each text escaped as TOML
-    requires (by tomlkit: quotes, backslashes and control characters)."""
+    """A commented unit file (format 1) from the answers, written through the TOML
+    library (tomlkit: every text escaped as TOML requires), each value commented with
+    its line from the key table."""
     import tomlkit
 
-    lines = ["# Unit file written by stallcheck new. Each value is commented with what it means;",
-             "# stallcheck's reference (docs/reference.md) lists every key the format accepts.", "format = 1"]
-    section = None
+    doc = tomlkit.document()
+    doc.add(tomlkit.comment("Unit file written by stallcheck new. Each value is commented with what it means;"))
+    doc.add(tomlkit.comment("stallcheck's reference (docs/reference.md) lists every key the format accepts."))
+    doc["format"] = 1
+    tables: dict = {}
     for x in QUESTIONS:
         if x.key not in answers:
             continue
         part, name = x.key.split(".")
-        if part != section:
-            lines += ["", f"[{part}]"]
-            section = part
         value = answers[x.key]
         explain = x.explain
         if isinstance(value, Kv):
             name, explain = "kv", keys.BY_NAME["valve.kv"].help
-        written = f"{value:g}" if isinstance(value, float) else tomlkit.item(str(value)).as_string()
-        lines.append(f"{name} = {written}".ljust(40) + f"# {explain}")
-    return "\n".join(lines) + "\n"
+        item = tomlkit.item(float(value) if isinstance(value, float) else str(value))
+        item.comment(explain)
+        item.trivia.comment_ws = " " * max(2, 40 - len(f"{name} = {item.as_string()}"))   # comments in a column
+        tables.setdefault(part, tomlkit.table())[name] = item
+    for part, table in tables.items():
+        doc[part] = table
+    return tomlkit.dumps(doc)

@@ -34,7 +34,8 @@ def _g(x: float) -> str:
 
 
 def dumps(unit: Unit, system: str | None = None, folder: str | Path | None = None) -> str:
-    """The unit as TOML text.
+    """The unit as TOML text, written through the TOML library (tomlkit: every text
+    escaped as TOML requires).
 
     Parameters
     ----------
@@ -45,6 +46,8 @@ def dumps(unit: Unit, system: str | None = None, folder: str | Path | None = Non
         Where the text will be written: a weather file is named relative to it
         (default: by its absolute path).
     """
+    import tomlkit
+
     system = system or unit.system
     names = _UNITS[system]
     atm = unit.site.atmospheric_pressure
@@ -52,74 +55,72 @@ def dumps(unit: Unit, system: str | None = None, folder: str | Path | None = Non
     def val(value: float, kind: str) -> str:
         if kind == "pressure":
             unit_name, spelled = names["pressure"]
-            return f'"{_g(display.express(value - atm, "Pa", unit_name))} {spelled}"'
-        return f'"{_g(display.express(value, _SI[kind], names[kind]))} {names[kind]}"'
+            return f"{_g(display.express(value - atm, 'Pa', unit_name))} {spelled}"
+        return f"{_g(display.express(value, _SI[kind], names[kind]))} {names[kind]}"
 
-    def text(s: str) -> str:
-        import tomlkit
-
-        return tomlkit.item(s).as_string()   # escaped as TOML requires: quotes, backslashes, controls
+    def number(x: float):
+        return float(_g(x))
 
     d, dr, ld = unit.design, unit.drain, unit.load
-    out = ["format = 1", "", "[unit]", f"name = {text(unit.name)}"]
-    if unit.tag:
-        out.append(f"tag = {text(unit.tag)}")
-    site = []
+    doc = tomlkit.document()
+    doc["format"] = 1
+    doc["unit"] = {"name": unit.name, **({"tag": unit.tag} if unit.tag else {})}
+    site: dict = {}
     if unit.site.elevation is not None:
-        site.append(f"elevation = {val(unit.site.elevation, 'length')}")
+        site["elevation"] = val(unit.site.elevation, "length")
     elif abs(atm - q.STANDARD_ATMOSPHERE) > 1e-6:
-        site.append(f'atmospheric_pressure = "{_g(display.express(atm, "Pa", "kPa"))} kPaa"')
+        site["atmospheric_pressure"] = f"{_g(display.express(atm, 'Pa', 'kPa'))} kPaa"
     if unit.site.weather is not None:
-        site.append(f"weather = {text(weather_path(unit, folder))}")
+        site["weather"] = weather_path(unit, folder)
     if unit.site.hours_per_year is not None:
-        site.append(f"hours_per_year = {_g(unit.site.hours_per_year)}")
+        site["hours_per_year"] = number(unit.site.hours_per_year)
     if unit.site.steam_price is not None:
-        site += [f"steam_price = {_g(unit.site.steam_price)}",
-                 f"steam_price_per = {val(unit.site.steam_price_per, 'mass')}"]
+        site.update(steam_price=number(unit.site.steam_price), steam_price_per=val(unit.site.steam_price_per, "mass"))
     if unit.site.currency:
-        site.append(f"currency = {text(unit.site.currency)}")
+        site["currency"] = unit.site.currency
     if site:
-        out += ["", "[site]"] + site
+        doc["site"] = site
 
-    out += ["", "[design]", f'medium = "{d.medium}"']
+    design: dict = {"medium": d.medium}
     if d.concentration is not None:
-        out.append(f'concentration = "{_g(d.concentration * 100)} %"')
+        design["concentration"] = f"{_g(d.concentration * 100)} %"
     if d.flow_is_mass:
-        out.append(f"flow = {val(d.flow, 'mass_flow')}")
+        design["flow"] = val(d.flow, "mass_flow")
     else:
         volume = "cfm" if system == "us" and d.medium == "air" else "gpm" if system == "us" else "m3/h"
-        out.append(f'flow = "{_g(display.express(d.flow, "m**3/s", volume))} {volume}"')
-    out += [f"inlet_temperature = {val(d.inlet_temperature, 'temperature')}",
-            f"outlet_temperature = {val(d.outlet_temperature, 'temperature')}",
-            f"steam_pressure = {val(d.steam_pressure, 'pressure')}",
-            f"ua_flow_exponent = {_g(d.ua_flow_exponent)}", f'method = "{d.method}"',
-            "", "[steam]", f"supply_pressure = {val(unit.supply_pressure, 'pressure')}"]
+        design["flow"] = f"{_g(display.express(d.flow, 'm**3/s', volume))} {volume}"
+    design.update(inlet_temperature=val(d.inlet_temperature, "temperature"),
+                  outlet_temperature=val(d.outlet_temperature, "temperature"),
+                  steam_pressure=val(d.steam_pressure, "pressure"), ua_flow_exponent=number(d.ua_flow_exponent),
+                  method=d.method)
+    doc["design"] = design
+    doc["steam"] = {"supply_pressure": val(unit.supply_pressure, "pressure")}
     if unit.valve is not None:
         v = unit.valve
-        coefficient = f"kv = {_g(v.cv / q.CV_PER_KV)}" if v.given_as == "kv" else f"cv = {_g(v.cv)}"
-        out += ["", "[valve]", coefficient, f'characteristic = "{v.characteristic}"',
-                f"rangeability = {_g(v.rangeability)}", f"xt = {_g(v.xt)}"]
-    out += ["", "[load]", f'varies = "{ld.varies}"', f"minimum = {_g(ld.minimum)}"]
+        coefficient = {"kv": number(v.cv / q.CV_PER_KV)} if v.given_as == "kv" else {"cv": number(v.cv)}
+        doc["valve"] = {**coefficient, "characteristic": v.characteristic, "rangeability": number(v.rangeability),
+                        "xt": number(v.xt)}
+    load: dict = {"varies": ld.varies, "minimum": number(ld.minimum)}
     if unit.site.weather is not None:
-        out.append(f"outdoor_air_minimum = {_g(ld.outdoor_air_minimum)}")
+        load["outdoor_air_minimum"] = number(ld.outdoor_air_minimum)
         if ld.return_air_temperature is not None:
-            out.append(f"return_air_temperature = {val(ld.return_air_temperature, 'temperature')}")
+            load["return_air_temperature"] = val(ld.return_air_temperature, "temperature")
         if ld.mixed_air_temperature is not None:
-            out.append(f"mixed_air_temperature = {val(ld.mixed_air_temperature, 'temperature')}")
+            load["mixed_air_temperature"] = val(ld.mixed_air_temperature, "temperature")
         if ld.season:
-            out.append(f'season = "{", ".join(MONTHS[m - 1][:3].title() for m in ld.season)}"')
+            load["season"] = ", ".join(MONTHS[m - 1][:3].title() for m in ld.season)
         if ld.daily_hours is not None:
-            out.append(f'daily_hours = "{ld.daily_hours[0]:02d}:00-{ld.daily_hours[1]:02d}:00"')
-    for b in ld.bins:
-        out += ["[[load.bins]]", (f"inlet_temperature = {val(b.inlet_temperature, 'temperature')}"
-                                  if b.inlet_temperature is not None else f"load = {_g(b.load)}"),
-                f"hours = {_g(b.hours)}"]
+            load["daily_hours"] = f"{ld.daily_hours[0]:02d}:00-{ld.daily_hours[1]:02d}:00"
+    if ld.bins:
+        load["bins"] = _rows([({"inlet_temperature": val(b.inlet_temperature, "temperature")}
+                               if b.inlet_temperature is not None else {"load": number(b.load)})
+                              | {"hours": number(b.hours)} for b in ld.bins])
+    doc["load"] = load
 
-    out += ["", "[drain]", f'arrangement = "{dr.arrangement}"', f'trap = "{dr.trap}"',
-            f"fill_head = {val(dr.fill_head, 'length')}", f"lift = {val(dr.lift, 'length')}",
-            f"return_pressure = {val(dr.return_pressure, 'pressure')}",
-            f"trap_min_differential = {val(dr.trap_min_differential, 'differential')}",
-            f"capacity_margin = {_g(dr.capacity_margin)}"]
+    drain: dict = {"arrangement": dr.arrangement, "trap": dr.trap, "fill_head": val(dr.fill_head, "length"),
+                   "lift": val(dr.lift, "length"), "return_pressure": val(dr.return_pressure, "pressure"),
+                   "trap_min_differential": val(dr.trap_min_differential, "differential"),
+                   "capacity_margin": number(dr.capacity_margin)}
     optional = [("trap_orifice", dr.trap_orifice, "diameter"), ("motive_pressure", dr.motive_pressure, "pressure"),
                 ("pump_fill_head", dr.pump_fill_head, "length"), ("pump_capacity", dr.pump_capacity, "mass_flow"),
                 ("purge_orifice", dr.purge_orifice, "diameter"), ("purge_rate", dr.purge_rate, "mass_flow"),
@@ -127,39 +128,47 @@ def dumps(unit: Unit, system: str | None = None, folder: str | Path | None = Non
                 ("return_temperature", dr.return_temperature, "temperature"),
                 ("return_length", dr.return_length, "length"), ("return_wall", dr.return_wall, "diameter"),
                 ("return_rating", dr.return_rating, "pressure"), ("pump_rate", dr.pump_rate, "mass_flow")]
-    out += [f"{key} = {val(value, kind)}" for key, value, kind in optional if value is not None]
+    drain.update({key: val(value, kind) for key, value, kind in optional if value is not None})
     if dr.pump_rate_volume is not None:
         volume = "gpm" if system == "us" else "m3/h"
-        out.append(f'pump_rate = "{_g(display.express(dr.pump_rate_volume, "m**3/s", volume))} {volume}"')
+        drain["pump_rate"] = f"{_g(display.express(dr.pump_rate_volume, 'm**3/s', volume))} {volume}"
     if dr.return_pitch is not None:
-        out.append(f'return_pitch = "{_g(dr.return_pitch * 100.0)} %"')
+        drain["return_pitch"] = f"{_g(dr.return_pitch * 100.0)} %"
     if dr.return_material != "steel":
-        out.append(f"return_material = {text(dr.return_material)}")
+        drain["return_material"] = dr.return_material
     if dr.check_closing_time:
-        out.append(f'check_closing_time = "{_g(dr.check_closing_time)} s"')
-    for back, flow in dr.pump_table:
-        out += ["[[drain.pump_capacity]]", f"back_pressure = {val(back, 'pressure')}",
-                f"flow = {val(flow, 'mass_flow')}"]
-    for c in dr.capacity:
-        out += ["[[drain.capacity]]", f"differential = {val(c.differential, 'differential')}",
-                f"flow = {val(c.flow, 'mass_flow')}"]
+        drain["check_closing_time"] = f"{_g(dr.check_closing_time)} s"
+    if dr.pump_table:
+        drain["pump_capacity"] = _rows([{"back_pressure": val(back, "pressure"), "flow": val(flow, "mass_flow")}
+                                        for back, flow in dr.pump_table])
+    if dr.capacity:
+        drain["capacity"] = _rows([{"differential": val(c.differential, "differential"),
+                                    "flow": val(c.flow, "mass_flow")} for c in dr.capacity])
+    doc["drain"] = drain
 
     g = unit.geometry
     if g is not None:
-        rows = []
-        for key in ("tubes", "supply_feed"):
-            if getattr(g, key) is not None:
-                rows.append(f'{key} = "{getattr(g, key)}"')
-        for key in ("distributing_tubes", "pitched_to_return", "drop_vented", "drip_before_valve"):
-            if getattr(g, key) is not None:
-                rows.append(f"{key} = {'true' if getattr(g, key) else 'false'}")
-        if g.coils_per_trap is not None:
-            rows.append(f"coils_per_trap = {g.coils_per_trap}")
+        rows = {key: getattr(g, key) for key in ("tubes", "supply_feed", "distributing_tubes", "pitched_to_return",
+                                                 "drop_vented", "drip_before_valve", "coils_per_trap")
+                if getattr(g, key) is not None}
         if g.drop_to_trap is not None:
-            rows.append(f"drop_to_trap = {val(g.drop_to_trap, 'length')}")
+            rows["drop_to_trap"] = val(g.drop_to_trap, "length")
         if rows:
-            out += ["", "[geometry]"] + rows
-    return "\n".join(out) + "\n"
+            doc["geometry"] = rows
+    return tomlkit.dumps(doc)
+
+
+def _rows(tables: list[dict]):
+    """An array of tables (``[[load.bins]]``), as tomlkit writes it."""
+    import tomlkit
+
+    rows = tomlkit.aot()
+    for values in tables:
+        table = tomlkit.table()
+        for key, value in values.items():
+            table[key] = value
+        rows.append(table)
+    return rows
 
 
 def weather_path(unit: Unit, folder: str | Path | None) -> str:
