@@ -387,3 +387,20 @@ def test_the_check_cli_refuses_a_bad_weather_file_with_status_2(tmp_path):
     result = CliRunner().invoke(app, ["check", str(unit)])
     assert result.exit_code == 2 and "Traceback" not in result.output
     assert "site.weather" in result.output and "w.csv" in result.output
+
+
+def test_a_station_name_in_latin1_and_a_leap_year_are_read(tmp_path):
+    # Some EPW sources write the station's name in Latin-1 ("São Paulo"); an actual
+    # (not typical) leap year holds 8,784 hours: here Greensboro's year with a 29
+    # February made of the 28th's hours (EPW data dictionary: hours in file order).
+    lines = _epw_text().splitlines()
+    lines[0] = lines[0].replace("GREENSBORO PIEDMONT TRIAD INT", "São Paulo Congonhas")
+    feb28 = [line for line in lines[8:] if line.split(",")[1:3] == ["2", "28"]]
+    feb29 = [line.replace(",2,28,", ",2,29,", 1) for line in feb28]
+    at = lines.index(feb28[-1]) + 1
+    leap = lines[:at] + feb29 + lines[at:]
+    path = tmp_path / "leap.epw"
+    path.write_bytes(("\n".join(leap) + "\n").encode("latin-1"))
+    year = weather.read(path)
+    assert year.dry_bulb.size == 8784 and "São Paulo" in year.station
+    assert int((year.month == 2).sum()) == 29 * 24

@@ -115,9 +115,19 @@ def _cached(resolved: str, mtime_ns: int, size: int) -> WeatherYear:
 
 
 def _text(path: Path) -> str:
+    """The file's text. Weather files are ASCII but for a station's name, which some
+    sources write in Latin-1 (a "São Paulo" EPW): where the file is not UTF-8 it is read
+    as Latin-1, in which every byte is a character (the figures are ASCII either way)."""
     from stallcheck.files.unitfile import read_text
 
-    return read_text(path, max_bytes=MAX_WEATHER_BYTES, kind="weather file (EPW or TMY3 CSV)", suffix=".epw or .csv")
+    try:
+        return read_text(path, max_bytes=MAX_WEATHER_BYTES, kind="weather file (EPW or TMY3 CSV)",
+                         suffix=".epw or .csv")
+    except InputError as exc:
+        if "not UTF-8" not in exc.message:
+            raise
+    with open(path, "rb") as handle:
+        return handle.read(MAX_WEATHER_BYTES + 1).decode("latin-1")
 
 
 def _number(text: str, file: str, line: int, what: str) -> float:
