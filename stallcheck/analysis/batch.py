@@ -39,7 +39,7 @@ AIR_CP = 1006.0
 LOAD_GRID = np.linspace(0.0, 1.0, 101)
 #: The valve's solves stop within these: load fraction [-], coil pressure [Pa].
 LOAD_TOLERANCE = 1e-10
-PRESSURE_TOLERANCE = 1e-4
+SOLVE_TOLERANCE = 1e-4
 
 
 def analyse(unit: Unit, system: str | None = None, method: str | None = None) -> Result:
@@ -342,7 +342,7 @@ def _analyse(units: list[Unit], systems: list[str], tabulate: bool = True, compl
         f = LOAD_GRID[None, :]
         steam_t, coil_p, steam_flow = b.state(np.broadcast_to(f, (n, LOAD_GRID.size)))
         differential = coil_p + b.fill_pressure[:, None] - b.back[:, None]
-        stalled = differential <= b.trap_min[:, None] - drainage.PRESSURE_TOLERANCE
+        stalled = drainage.cannot_discharge(differential, b.trap_min[:, None])
         grid = (steam_t, coil_p, steam_flow, differential, stalled, coilmod.inlet_temperature(b.coil.column(), f))
 
     valves, opening = _valves(b, None if grid is None else grid[1], None if grid is None else grid[2])
@@ -497,7 +497,7 @@ def _valves(b: Batch, coil_p, steam_flow):
                          properties.P_MIN)
 
         excess = _valve_excess(b, units, np.ones(units.size), cv[short], p1[short], rho1[short], xt[short])
-        found = illinois(excess, low, b.design_pressure[units], PRESSURE_TOLERANCE)
+        found = illinois(excess, low, b.design_pressure[units], SOLVE_TOLERANCE)
         solved = np.isfinite(found)
         p_lim = np.where(solved, found, low)
         f_solved = coilmod.delivered_fraction(coil, properties.saturation_temperature(p_lim))
@@ -688,14 +688,14 @@ def _valve_limited_grid(b: Batch, valves, grid, opening):
         coil = b.coil.take(unit_of)
         low = np.maximum(properties.saturation_pressure(
             np.maximum(coilmod.inlet_temperature(coil, loads), properties.T_MIN)), properties.P_MIN)
-        p = illinois(excess, low, coil_p[unit_of, load_of], PRESSURE_TOLERANCE)
+        p = illinois(excess, low, coil_p[unit_of, load_of], SOLVE_TOLERANCE)
         p = np.where(np.isfinite(p), p, low)
         coil_p[unit_of, load_of] = p
         steam_t[unit_of, load_of] = properties.saturation_temperature(p)
         steam_flow[unit_of, load_of] = valvemod.steam_flow(cv, p1, p, rho1, xt)
         opening[unit_of, load_of] = 1.0
         differential = coil_p + b.fill_pressure[:, None] - b.back[:, None]
-        stalled = differential <= b.trap_min[:, None] - drainage.PRESSURE_TOLERANCE
+        stalled = drainage.cannot_discharge(differential, b.trap_min[:, None])
     return steam_t, coil_p, steam_flow, differential, stalled, inlet_t
 
 

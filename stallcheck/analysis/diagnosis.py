@@ -24,7 +24,7 @@ from stallcheck.files import display
 from stallcheck.files.readings import Readings
 from stallcheck.inputs import Unit
 from stallcheck.physics import coil as coilmod
-from stallcheck.physics import properties
+from stallcheck.physics import drainage, properties
 from stallcheck.physics.constants import FREEZING, GRAVITY
 from stallcheck.analysis.devices import RATING_SHARE, TrapCapacity
 from stallcheck.result import Result
@@ -208,10 +208,11 @@ def diagnose(unit: Unit, result: Result, readings: Readings) -> Diagnosis:
     if load is not None:
         _, p_arr, w_arr = analysis.state_at(unit, r, np.array([load]))
         model_p, condensate = float(p_arr[0]), float(w_arr[0])
-        stalled_model = model_p + fill <= back + dr.trap_min_differential
+        stalled_model = bool(drainage.cannot_discharge(model_p + fill - back, dr.trap_min_differential))
     stalled_gauges = None
     if readings.coil_pressure is not None:
-        stalled_gauges = readings.coil_pressure + fill <= back + dr.trap_min_differential
+        stalled_gauges = bool(drainage.cannot_discharge(readings.coil_pressure + fill - back,
+                                                        dr.trap_min_differential))
     agreement = ""
     if readings.coil_pressure is not None and model_p is not None and basis != "coil pressure":
         tolerance = max(AGREE_ABSOLUTE, AGREE_RELATIVE * model_p)

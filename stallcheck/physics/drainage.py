@@ -81,6 +81,14 @@ def stalls_in_range(stall_fraction, minimum, stall_pressure, coil_pressure_at_mi
     return (stall_fraction > minimum) & (stall_pressure - coil_pressure_at_minimum > PRESSURE_TOLERANCE)
 
 
+def cannot_discharge(differential, trap_min_differential):
+    """True where the trap cannot discharge: the differential across it (coil pressure
+    plus fill head, less the back pressure [Pa]) is at or below the least it opens at
+    [Pa], by more than :data:`PRESSURE_TOLERANCE` (arrays or floats). The one stall rule
+    of the check's chart and of ``diagnose``'s readings."""
+    return differential <= trap_min_differential - PRESSURE_TOLERANCE
+
+
 def vacuum_breaker_acts(stall_pressure, atmospheric):
     """True where a vacuum breaker lets the coil drain by gravity: with the coil held at
     atmospheric pressure, the fill head leaves the trap at least :data:`GRAVITY_MARGIN`
