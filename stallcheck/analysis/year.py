@@ -95,12 +95,12 @@ def figures(unit: Unit, coil: coilmod.CoilModel, stall_fraction: float,
         stalled |= running & (at >= valve_load)
     freezing = stalled & (entering < FREEZING)
     low, high = (design_dry_bulb(w.dry_bulb, share) for share in DESIGN_SHARES)
-    index = np.minimum(np.floor(np.clip(load[running], 0.0, None) / BAND + 1e-9), round(1 / BAND)).astype(int)
-    bands_all = np.bincount(index, minlength=round(1 / BAND) + 1)
-    bands_stalled = np.bincount(index[stalled[running]], minlength=round(1 / BAND) + 1)
-    last = len(bands_all) - 1
+    last = round(1 / BAND)   # the band of the hours at or above full load
+    index = np.minimum(np.floor(np.clip(load[running], 0.0, None) / BAND + 1e-9), last).astype(int)
+    bands_all = np.bincount(index, minlength=last + 1)
+    bands_stalled = np.bincount(index[stalled[running]], minlength=last + 1)
     bands = tuple((round(k * BAND, 10), None if k == last else round((k + 1) * BAND, 10), int(bands_all[k]),
-                   int(bands_stalled[k])) for k in range(len(bands_all)))
+                   int(bands_stalled[k])) for k in range(last + 1))
     year = YearFigures(
         file=w.path, form=w.form, station=w.station, station_elevation=w.elevation, hours=int(w.dry_bulb.size),
         scheduled=int(on.sum()), no_load=int((on & ~running).sum()), operating=int(running.sum()),

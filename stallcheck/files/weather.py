@@ -26,7 +26,9 @@ References
 
 from __future__ import annotations
 
+import csv
 import io
+import math
 import re
 from functools import lru_cache
 from pathlib import Path
@@ -69,15 +71,13 @@ def read(path: str | Path, as_written: str | None = None) -> WeatherYear:
         For a file that cannot be read, is neither format, or is truncated or damaged.
     """
     path = Path(path)
+    resolved = path.resolve()
     try:
-        info = path.resolve().stat()
-    except OSError:
-        info = None
-    if info is None:
-        # the reader says what is wrong (no such file, a folder, permission)
-        _text(path)
-    key = (str(path.resolve()), info.st_mtime_ns, info.st_size)
-    year = _cached(*key)
+        info = resolved.stat()
+    except OSError as exc:
+        _text(path)   # the reader says what is wrong (no such file, a folder, permission)
+        raise InputError("", f"cannot be read ({exc.strerror or exc}).", file=str(path)) from None
+    year = _cached(str(resolved), info.st_mtime_ns, info.st_size)
     written = str(path) if as_written is None else as_written
     return year if year.path == written else _renamed(year, written)
 
@@ -87,10 +87,20 @@ def is_weather(path: str | Path) -> bool:
     of units may hold the weather files they name; a survey passes them by)."""
     try:
         with open(path, "rb") as handle:
-            head = handle.read(4096).decode("utf-8", "replace")
+            head = handle.read(4096).decode("latin-1")
     except OSError:
         return False
-    return head.startswith("LOCATION,") or "\nDate (MM/DD/YYYY),Time (HH:MM)," in head.replace("\r\n", "\n")
+    return _form(head) is not None
+
+
+def _form(head: str) -> str | None:
+    """``"epw"`` or ``"tmy3"`` from a file's first few thousand characters, else None."""
+    if head.startswith("LOCATION,"):
+        return "epw"
+    lines = head.splitlines()
+    if len(lines) > 1 and lines[1].startswith("Date (MM/DD/YYYY),Time (HH:MM)"):
+        return "tmy3"
+    return None
 
 
 def _renamed(year: WeatherYear, written: str) -> WeatherYear:
@@ -102,12 +112,11 @@ def _renamed(year: WeatherYear, written: str) -> WeatherYear:
 @lru_cache(maxsize=8)
 def _cached(resolved: str, mtime_ns: int, size: int) -> WeatherYear:
     """One reading per file and version (a survey of many units sharing a file reads it once)."""
-    path = Path(resolved)
-    text = _text(path)
-    first = text[: text.find("\n")] if "\n" in text else text
-    if first.startswith("LOCATION,"):
+    text = _text(Path(resolved))
+    form = _form(text[:4096])
+    if form == "epw":
         return _epw(text, resolved)
-    if _TMY3_ROW.search(text[:4000]) or "Date (MM/DD/YYYY)" in text[:4000]:
+    if form == "tmy3":
         return _tmy3(text, resolved)
     raise InputError("", "is not a weather file this program reads: an EnergyPlus EPW file begins "
                          "\"LOCATION,\" and an NREL TMY3 CSV has a \"Date (MM/DD/YYYY)\" header line.",
@@ -135,7 +144,7 @@ def _number(text: str, file: str, line: int, what: str) -> float:
         value = float(text)
     except ValueError:
         raise InputError("", f"{what} \"{text.strip()}\" is not a number.", file=file, line=line) from None
-    if value != value or value in (float("inf"), float("-inf")):
+    if not math.isfinite(value):
         raise InputError("", f"{what} \"{text.strip()}\" is not a number.", file=file, line=line)
     return value
 
@@ -193,7 +202,7 @@ def _tmy3(text: str, file: str) -> WeatherYear:
     if len(lines) < 3:
         raise InputError("", "ends inside the TMY3 header: a TMY3 file has a station line and a column "
                              "header line, then one line an hour.", file=file, line=len(lines))
-    head = next(iter(__import__("csv").reader([lines[0]])), [])
+    head = next(csv.reader([lines[0]]), [])
     if len(head) < 7:
         raise InputError("", "has a first line with fewer than seven fields (USAF number, name, state, time "
                              "zone, latitude, longitude, elevation).", file=file, line=1)
@@ -230,7 +239,7 @@ def _columns(body: str, file: str, first_line: int, usecols: tuple[int, ...], wh
                            comments=None, quotechar='"')
     except ValueError as exc:
         found = re.search(r"(?:at row|line) (\d+)", str(exc))
-        line = first_line + int(found.group(1)) - (1 if "row" in found.group(0) else 1) if found else None
+        line = first_line + int(found.group(1)) - 1 if found else None   # numpy counts rows from 1
         raise InputError("", f"has a line whose {what} cannot be read as numbers (a truncated or damaged "
                              f"line, or too few fields).", file=file, line=line) from None
     if not np.isfinite(table).all():
