@@ -518,12 +518,13 @@ class LinePoint:
     flash_fraction : float  [-]
     taitel_dukler, mandhane : str
         The flow pattern in the run to the return by each map
-        (:class:`stallcheck.physics.hammer.Pattern`).
+        (:func:`stallcheck.physics.hammer.taitel_dukler_many`, and Mandhane's map from
+        ``fluids``).
     slugging : bool
         Intermittent (slug) flow in the run by Taitel & Dukler's map.
     riser : str or None
         Where a plain trap lifts: the worse of the vertical-upflow patterns at the
-        riser's foot and head (:func:`stallcheck.physics.hammer.vertical_pattern`);
+        riser's foot and head (:func:`stallcheck.physics.hammer.vertical_regime`);
         None without a lift.
     """
 

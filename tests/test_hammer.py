@@ -7,7 +7,7 @@ import subprocess
 import sys
 
 import pytest
-from conftest import BASE_UNIT
+from conftest import BASE_UNIT, ROOT
 from iapws import IAPWS95, IAPWS97
 
 from stallcheck import analysis
@@ -117,8 +117,9 @@ def test_the_pitch_of_the_line_moves_the_pattern_as_the_paper_s_y_term_says():
 def test_the_maps_need_no_scipy():
     # Our Taitel & Dukler is plain arithmetic; Mandhane's map comes from fluids, whose
     # import brings no SciPy (SciPy would cost more than a whole check).
-    code = ("import sys\nfrom stallcheck.physics import hammer\n"
-            "hammer.flow_pattern(0.2, 0.05, 101325.0, 0.025, 0.0)\nprint('scipy' in sys.modules)")
+    code = ("import sys\nfrom stallcheck import analysis\nfrom stallcheck.files import unitfile\n"
+            f"r = analysis.analyse(unitfile.load({str(ROOT / 'sample_units' / 'us_outdoor_air_preheat.toml')!r}))\n"
+            "assert r.return_line is not None\nprint('scipy' in sys.modules)")
     assert subprocess.run([sys.executable, "-c", code], capture_output=True, text=True,
                           check=True).stdout.strip() == "False"
 
@@ -375,22 +376,29 @@ def test_the_standard_wall_is_that_of_the_nearest_schedule_40_bore():
 
 
 def test_the_line_s_pattern_is_both_maps_with_saturated_properties():
-    # flow_pattern feeds the maps saturated water and steam at the line's pressure
-    # (IF97 via iapws for the densities) and reports what each map says.
+    # The check feeds the maps saturated water and steam at the line's pressure (IF97
+    # via iapws for the densities and viscosities) and reports what each map says, at
+    # each load it judges; a line with no flash runs liquid by both accounts.
     from fluids.two_phase import Mandhane_Gregory_Aziz_regime
 
-    p = 101325.0
+    r = analysis.analyse(_unit('return_line = "1 in"\n'))
+    p = r.return_pressure
     liquid, steam = IAPWS97(P=p / 1e6, x=0), IAPWS97(P=p / 1e6, x=1)
-    got = hammer.flow_pattern(0.25, 0.007, p, 0.025, 0.0)
-    assert got.taitel_dukler == _td(0.25, 0.007, 0.025, 0.0, rhol=liquid.rho, rhog=steam.rho, mul=liquid.mu,
-                                    mug=steam.mu)
-    assert got.mandhane == Mandhane_Gregory_Aziz_regime(m=0.25, x=0.007, rhol=liquid.rho, rhog=steam.rho,
-                                                        mul=liquid.mu, mug=steam.mu, sigma=0.0589, D=0.025)[0]
-    assert got.slugging is (got.taitel_dukler == "intermittent")
-    # no flash, or no flow: the line runs liquid (or empty) by both accounts
-    for condensate, fraction in ((0.25, 0.0), (0.0, 0.05)):
-        none = hammer.flow_pattern(condensate, fraction, p, 0.025, 0.0)
-        assert (none.taitel_dukler, none.mandhane, none.slugging) == (hammer.LIQUID, hammer.LIQUID, False)
+    bore = 0.0254
+    flashing = [point for point in r.return_line.points if point.flash_fraction > hammer.NO_FLASH]
+    assert flashing and len(r.return_line.points) >= 2
+    for point in flashing:
+        m, x = point.condensate, point.flash_fraction
+        assert point.taitel_dukler == _td(m, x, bore, 0.0, rhol=liquid.rho, rhog=steam.rho, mul=liquid.mu,
+                                          mug=steam.mu)
+        assert point.mandhane == Mandhane_Gregory_Aziz_regime(m=m, x=x, rhol=liquid.rho, rhog=steam.rho,
+                                                              mul=liquid.mu, mug=steam.mu, sigma=0.0589, D=bore)[0]
+        assert point.slugging is (point.taitel_dukler == "intermittent")
+    # a return above the coil's pressure: nothing flashes, the line runs liquid
+    text = BASE_UNIT.replace('return_pressure = "0 psig"', 'return_pressure = "10 psig"')
+    flooded = analysis.analyse(unitfile.parse(text + 'return_line = "1 in"\n', "hammer.toml"))
+    for point in flooded.return_line.points:
+        assert (point.taitel_dukler, point.mandhane, point.slugging) == (hammer.LIQUID, hammer.LIQUID, False)
 
 
 # --- a lift after the trap: vertical upflow ----------------------------------------------

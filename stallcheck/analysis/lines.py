@@ -23,8 +23,6 @@ from stallcheck.result import LinePoint, ReturnLineFigures, StallPoint
 
 #: Vertical-upflow patterns in a riser, worst first: slugs and churn hammer.
 RISER_PATTERNS = ("churn", "slug", "annular", "dispersed bubble", "bubbly", hammer.LIQUID)
-#: Loads at which the return line's flow pattern is found, in the order reported.
-LINE_LOADS = ("full load", "stall point", "minimum load")
 #: A trial bore is judged this much smaller than the standard bore: the bore is printed
 #: to three figures, and a line built from the printed figure must hold it too [-].
 BORE_ALLOWANCE = 0.995

@@ -3,9 +3,11 @@ line, and hydraulic shock where a moving column of condensate is stopped.
 
 * **Differential shock.** Flash steam and condensate share the line from the trap. Where
   the flow is intermittent (slug) a wave of condensate seals the pipe and the steam
-  behind drives it as a slug. The flow pattern comes from two published maps, as
-  implemented in the ``fluids`` library: Taitel & Dukler (1976), with the line's
-  inclination, and Mandhane, Gregory & Aziz (1974) as a second opinion.
+  behind drives it as a slug. The flow pattern comes from Taitel & Dukler (1976),
+  written out here with the line's inclination (:func:`taitel_dukler_many`), and up a
+  riser from Taitel, Barnea & Dukler (1980) (:func:`vertical_regime`); Mandhane,
+  Gregory & Aziz (1974), from the ``fluids`` library, is the second opinion
+  (:mod:`stallcheck.analysis.lines` runs them over a batch).
 * **Hydraulic shock.** A column moving at v stopped within one wave round trip 2L/a
   raises the pressure by Joukowsky's Δp = ρ·a·Δv; the wave speed a in a pipe follows
   Korteweg's correction for the elasticity of its wall. A slower closure, t_c > 2L/a,
@@ -17,11 +19,9 @@ SI throughout: pressures [Pa], lengths [m], velocities [m/s], flows [kg/s].
 from __future__ import annotations
 
 import math
-from dataclasses import dataclass
 
 import numpy as np
 
-from stallcheck.physics import properties
 from stallcheck.physics.constants import GRAVITY
 
 #: Young's modulus of pipe materials [Pa]: carbon steel 200 GPa, copper 117 GPa
@@ -45,12 +45,13 @@ LIQUID = "liquid only"
 STRATIFIED = ("stratified smooth", "stratified wavy", LIQUID)
 
 
-def vertical_pattern(condensate: float, fraction: float, pressure: float, bore: float,
-                     height: float) -> str:
-    """The flow pattern of condensate and its flash steam rising in a vertical pipe.
-
-    Taitel, Barnea & Dukler's transitions for steady upward flow, in superficial
-    velocities U_Ls, U_Gs and U_M = U_Ls + U_Gs:
+def vertical_regime(u_ls: float, u_gs: float, rho_l: float, rho_g: float, mu_l: float, sigma: float,
+                    bore: float, height: float) -> str:
+    """The flow pattern of a gas and a liquid rising in a vertical pipe, from superficial
+    velocities U_Ls, U_Gs [m/s] (U_M = U_Ls + U_Gs) and the two phases' properties
+    (densities [kg/m³], liquid viscosity [Pa·s], surface tension [N/m]): for condensate
+    and its flash steam up a lift, or any gas and liquid. Taitel, Barnea & Dukler's
+    transitions for steady upward flow:
 
     * **annular** where the gas can carry the largest drop up the wall:
       U_Gs·ρ_G^½ / [σ·g·(ρ_L − ρ_G)]^¼ ≥ 3.1 (eq. 20);
@@ -60,27 +61,14 @@ def vertical_pattern(condensate: float, fraction: float, pressure: float, bore: 
       liquid's properties), while the gas is less than 52 % of the volume;
     * **bubbly** in a pipe wider than D* = 19·[(ρ_L − ρ_G)σ/(ρ_L²g)]^½ (eq. 9) while
       the void is under 25 %: U_Ls ≥ 3.0·U_Gs − 1.15·[g(ρ_L − ρ_G)σ/ρ_L²]^¼ (eq. 4);
-    * otherwise **slug**, or **churn** where the pipe is shorter than the entry length
-      over which churn develops into slugs, l_E/D = 40.6·(U_M/√(gD) + 0.22) (eq. 21).
-
-    Parameters
-    ----------
-    condensate : float
-        Mass flow, steam and water together. [kg/s]
-    fraction : float
-        Flash fraction (mass quality). [-]
-    pressure : float
-        Absolute pressure (properties at saturation there). [Pa]
-    bore : float
-        Inside diameter. [m]
-    height : float
-        Height of the riser (for the entry length). [m]
+    * otherwise **slug**, or **churn** where the pipe (``height`` [m]) is shorter than
+      the entry length over which churn develops into slugs,
+      l_E/D = 40.6·(U_M/√(gD) + 0.22) (eq. 21).
 
     Returns
     -------
     str
-        ``annular``, ``dispersed bubble``, ``bubbly``, ``slug``, ``churn``, or
-        :data:`LIQUID` where nothing flashes.
+        ``annular``, ``dispersed bubble``, ``bubbly``, ``slug`` or ``churn``.
 
     References
     ----------
@@ -88,20 +76,6 @@ def vertical_pattern(condensate: float, fraction: float, pressure: float, bore: 
        transitions for steady upward gas-liquid flow in vertical tubes. AIChE J. 26(3),
        345-354.
     """
-    if fraction <= NO_FLASH or condensate <= 0:
-        return LIQUID
-    rho_l, rho_g = float(properties.liquid_density(pressure)), float(properties.vapour_density(pressure))
-    mu_l, sigma = float(properties.liquid_viscosity(pressure)), float(properties.surface_tension(pressure))
-    area = math.pi * bore ** 2 / 4.0
-    return vertical_regime(condensate * (1.0 - fraction) / (rho_l * area), condensate * fraction / (rho_g * area),
-                           rho_l, rho_g, mu_l, sigma, bore, height)
-
-
-def vertical_regime(u_ls: float, u_gs: float, rho_l: float, rho_g: float, mu_l: float, sigma: float,
-                    bore: float, height: float) -> str:
-    """:func:`vertical_pattern` from superficial velocities [m/s] and the two phases'
-    properties (densities [kg/m³], liquid viscosity [Pa·s], surface tension [N/m]),
-    for any gas and liquid."""
     u_m = u_ls + u_gs
     drho = rho_l - rho_g
     if u_gs * math.sqrt(rho_g) / (sigma * GRAVITY * drho) ** 0.25 >= 3.1:
@@ -121,73 +95,6 @@ def vertical_regime(u_ls: float, u_gs: float, rho_l: float, rho_g: float, mu_l: 
 def standard_wall(bore: float) -> float:
     """Wall thickness [m] of the Schedule 40 steel pipe whose bore is nearest ``bore`` [m]."""
     return min(SCHEDULE_40, key=lambda row: abs(row[1] - bore))[2]
-
-
-@dataclass(frozen=True)
-class Pattern:
-    """The two-phase flow pattern in a line at one load.
-
-    Attributes
-    ----------
-    taitel_dukler : str
-        ``annular``, ``bubbly``, ``intermittent``, ``stratified wavy``,
-        ``stratified smooth``, or :data:`LIQUID` where nothing flashes.
-    mandhane : str
-        ``elongated bubble``, ``stratified``, ``annular mist``, ``slug``,
-        ``dispersed bubble``, ``wave``, or :data:`LIQUID`.
-    """
-
-    taitel_dukler: str
-    mandhane: str
-
-    @property
-    def slugging(self) -> bool:
-        """True where Taitel & Dukler's map, which takes the line's inclination, puts the
-        flow in intermittent (slug) flow; Mandhane's map is the second opinion shown
-        beside it."""
-        return self.taitel_dukler == "intermittent"
-
-
-def flow_pattern(condensate: float, fraction: float, pressure: float, bore: float, angle: float) -> Pattern:
-    """The flow pattern of condensate and its flash steam in a line.
-
-    Parameters
-    ----------
-    condensate : float
-        Mass flow through the line, steam and water together. [kg/s]
-    fraction : float
-        Flash fraction (mass quality) in the line. [-]
-    pressure : float
-        Absolute pressure in the line (properties at saturation there). [Pa]
-    bore : float
-        Inside diameter. [m]
-    angle : float
-        Inclination in the direction of flow, from horizontal; negative where the line
-        falls (pitched with the flow). [degrees]
-
-    References
-    ----------
-    .. [1] Taitel, Y., Dukler, A. E. (1976). A model for predicting flow regime
-       transitions in horizontal and near horizontal gas-liquid flow. AIChE J. 22(1),
-       47-55 (:func:`taitel_dukler`, written out here with its inclination term).
-    .. [2] Mandhane, J. M., Gregory, G. A., Aziz, K. (1974). A flow pattern map for
-       gas-liquid flow in horizontal pipes. Int. J. Multiphase Flow 1, 537-553 (as the
-       ``fluids`` library implements it: ``fluids.two_phase``).
-    """
-    if fraction <= NO_FLASH or condensate <= 0:
-        return Pattern(LIQUID, LIQUID)
-    from fluids.two_phase import Mandhane_Gregory_Aziz_regime
-
-    x = min(fraction, 1.0 - 1e-6)
-    rho_l, rho_g = float(properties.liquid_density(pressure)), float(properties.vapour_density(pressure))
-    mu_l, mu_g = float(properties.liquid_viscosity(pressure)), float(properties.vapour_viscosity(pressure))
-    sigma = float(properties.surface_tension(pressure))
-    area = math.pi * bore ** 2 / 4.0
-    td = taitel_dukler(condensate * (1.0 - x) / (rho_l * area), condensate * x / (rho_g * area), rho_l, rho_g,
-                       mu_l, mu_g, bore, -math.radians(angle))
-    mga = Mandhane_Gregory_Aziz_regime(m=condensate, x=x, rhol=rho_l, rhog=rho_g, mul=mu_l, mug=mu_g,
-                                       sigma=sigma, D=bore)[0]
-    return Pattern(td, mga)
 
 
 #: Wave-growth sheltering coefficient of Taitel & Dukler's stratified-wavy transition
