@@ -397,19 +397,19 @@ def _analyse(units: list[Unit], systems: list[str], tabulate: bool = True, compl
         s = stall[i]
         year = None
         if u.site.weather is not None:
-            year, bins_load = yearmod.figures(u, b.coil.take(i), s.load_fraction or 0.0, s.valve_load_fraction)
-            bins_hours, hours_basis = np.ones(bins_load.size), "weather"
+            year, loads = yearmod.figures(u, b.coil.take(i), s.load_fraction or 0.0, s.valve_load_fraction)
+            hours, hours_basis = np.ones(loads.size), "weather"
             stalled_hours, total_hours = float(year.stalled), float(year.operating)
         else:
-            bins_load, bins_hours = _bin_loads(u, b.coil, i)
+            loads, hours = _bin_loads(u, b.coil, i)
             hours_basis = "bins"
-            stalled_hours, total_hours = _hours(u, s.load_fraction or 0.0, bins_load, bins_hours,
+            stalled_hours, total_hours = _hours(u, s.load_fraction or 0.0, loads, hours,
                                                 s.valve_load_fraction)
         pump = devices.pump_trap_figures(u, drains[i].required, s, float(b.back[i]), float(b.supply[i]))
         line = lines_all[i]
         shock = devices.surge_figures(u, pump, float(b.back[i]), float(b.condensate_design[i]))
         purge = devices.purge_figures(u, b.one(i), float(b.back[i]), float(b.design_pressure[i]),
-                                      float(p_min[i]), bins_load, bins_hours, hours_basis)
+                                      float(p_min[i]), loads, hours, hours_basis)
         result = Result(
             unit=u.name, tag=u.tag, source=u.source, system=systems[i], method=u.design.method,
             varies=u.load.varies, medium=u.design.medium, minimum_load=u.load.minimum,
@@ -715,18 +715,11 @@ def _bin_loads(unit: Unit, coils, i: int) -> tuple[np.ndarray | None, np.ndarray
 
 def _hours(unit: Unit, stall_fraction: float, load, hours,
            valve_load: float | None = None) -> tuple[float | None, float | None]:
-    """Hours stalled and total hours from the load bins (None without bins): below the
-    stall load, and at or above the load from which the valve holds the coil under its
-    stall pressure (``valve_load``, None where it never does)."""
+    """Hours stalled and total hours from the load bins (None without bins), by the rule
+    a weather year's hours follow too (:func:`stallcheck.analysis.year.stalled_hours`)."""
     if load is None:
         return None, None
-    running = load > 0
-    # A unit asked for less than its minimum load runs at the minimum; more than full
-    # load, at full load.
-    at = np.clip(load, unit.load.minimum, 1.0)
-    stalled = running & (at <= stall_fraction) & (stall_fraction > 0)
-    if valve_load is not None:
-        stalled |= running & (at >= valve_load)
+    _, stalled = yearmod.stalled_hours(load, unit.load.minimum, stall_fraction, valve_load)
     return float(hours[stalled].sum()), float(hours.sum())
 
 

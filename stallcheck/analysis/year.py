@@ -48,6 +48,33 @@ def design_dry_bulb(dry_bulb, share: float) -> float:
     return float(np.partition(t, k - 1)[k - 1])
 
 
+def stalled_hours(load, minimum: float, stall_fraction: float, valve_load: float | None):
+    """Which hours (or load bins) run, and which run stalled: the one rule for load bins
+    and a weather year. An hour runs where its load is above 0; asked for less than the
+    minimum it runs at the minimum, for more than full load at full load; it is stalled
+    at or below the stall load, and at or above the load from which the open valve
+    holds the coil under its stall pressure (``valve_load``, None where it never does).
+
+    Parameters
+    ----------
+    load : ndarray
+        Each hour's load fraction. [-]
+    minimum, stall_fraction : float  [-]
+    valve_load : float or None  [-]
+
+    Returns
+    -------
+    running, stalled : ndarray of bool
+    """
+    load = np.asarray(load, dtype=float)
+    running = load > 0
+    at = np.clip(load, minimum, 1.0)
+    stalled = running & (at <= stall_fraction) & (stall_fraction > 0)
+    if valve_load is not None:
+        stalled |= running & (at >= valve_load)
+    return running, stalled
+
+
 def scheduled(unit: Unit) -> np.ndarray:
     """Which hours of the weather year fall in the unit's season and daily hours."""
     w = unit.site.weather
@@ -88,11 +115,9 @@ def figures(unit: Unit, coil: coilmod.CoilModel, stall_fraction: float,
                                     ld.mixed_air_temperature)
     load = coilmod.load_at_inlet_temperature(coil, entering)
     on = scheduled(unit)
-    running = on & (load > 0)
-    at = np.clip(load, ld.minimum, 1.0)
-    stalled = running & (at <= stall_fraction) & (stall_fraction > 0)
-    if valve_load is not None:
-        stalled |= running & (at >= valve_load)
+    running, stalled = stalled_hours(load, ld.minimum, stall_fraction, valve_load)
+    running &= on
+    stalled &= on
     freezing = stalled & (entering < FREEZING)
     low, high = (design_dry_bulb(w.dry_bulb, share) for share in DESIGN_SHARES)
     last = round(1 / BAND)   # the band of the hours at or above full load
