@@ -84,3 +84,30 @@ def test_csv_columns_and_the_questions_of_new_come_from_the_table():
     assert csvunits.NUMBERS == keys.of_kind("number") and csvunits.FLAGS == keys.of_kind("flag")
     for question in wizard.QUESTIONS:
         assert question.explain == keys.BY_NAME[question.key].help
+
+
+@pytest.mark.parametrize("row", [r for r in keys.KEYS if r.kind == "number" and r.key.count(".") == 1],
+                         ids=lambda r: r.key)
+def test_a_plain_number_is_held_to_its_row_s_range_in_a_file_and_in_new(row):
+    # just inside each end is read; just outside is refused naming the key, by the unit
+    # file and by new's question alike (one range: a file and new never disagree)
+    step = 1e-6 * max(1.0, abs(row.high))
+    inside = (row.low + step if row.low_open else row.low, row.high - step if row.high_open else row.high)
+    outside = (row.low if row.low_open else row.low - step, row.high if row.high_open else row.high + step)
+    section, name = row.key.split(".")
+    for value, ok in [(v, True) for v in inside] + [(v, False) for v in outside]:
+        data = _data(row)
+        data.setdefault(section, {})[name] = value
+        if row.key == "load.outdoor_air_minimum" and value >= 1:
+            data["load"].pop("return_air_temperature")   # all outdoor air: nothing mixed in
+        if ok:
+            unitfile.from_data(data, "pellham.toml")
+        else:
+            with pytest.raises(InputError) as err:
+                unitfile.from_data(data, "pellham.toml")
+            assert err.value.key == row.key and "out of range" in err.value.message
+    question = next((x for x in wizard.QUESTIONS if x.key == row.key and x.kind == "number"), None)
+    if question is not None:
+        with pytest.raises(InputError, match="out of range"):
+            wizard.accept(question, f"{outside[1]!r}", {})
+        assert wizard.accept(question, f"{inside[0]!r}", {}) == pytest.approx(inside[0])

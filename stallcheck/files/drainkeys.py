@@ -52,7 +52,7 @@ def _drain_devices(r, d: dict, atm: float) -> dict:
     """The optional keys that size the trap, pump-trap, purge and return line."""
     out: dict = {}
     if "capacity_margin" in d:
-        out["capacity_margin"] = r.number(d, "drain", "capacity_margin", 1.0, 10.0)
+        out["capacity_margin"] = r.number(d, "drain", "capacity_margin")
     for key in ("trap_orifice", "purge_orifice", "return_line"):
         value = r.optional(d, "drain", key, q.length)
         if value is not None:

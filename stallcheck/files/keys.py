@@ -10,7 +10,11 @@ Adding a key: its row here, and its reading (range, unit) where its section is r
 
 from __future__ import annotations
 
+import math
 from dataclasses import dataclass
+
+from stallcheck.errors import InputError
+from stallcheck.files.ranges import HOURS_A_YEAR
 
 
 @dataclass(frozen=True)
@@ -28,11 +32,21 @@ class Key:
         an array of tables, of the keys named under it), or ``"quantity-or-table"``.
     help : str
         What it is, in a line.
+    low, high : float or None
+        For a plain number: the range it is taken in (``low_open``, ``high_open``: the
+        end itself excluded).
+    default : float or None
+        For a plain number: the value taken where the file leaves it out.
     """
 
     key: str
     kind: str
     help: str
+    low: float | None = None
+    high: float | None = None
+    low_open: bool = False
+    high_open: bool = False
+    default: float | None = None
 
 
 KEYS = (
@@ -43,8 +57,9 @@ KEYS = (
     Key("site", "table", "where the unit is"),
     Key("site.elevation", "quantity", "sets the atmospheric pressure that gauge readings are relative to"),
     Key("site.atmospheric_pressure", "quantity", "the atmospheric pressure itself, absolute"),
-    Key("site.hours_per_year", "number", "hours a year the unit runs, for a purge's yearly steam"),
-    Key("site.steam_price", "number", "price of steam per site.steam_price_per"),
+    Key("site.hours_per_year", "number", "hours a year the unit runs, for a purge's yearly steam",
+        low=0.0, high=HOURS_A_YEAR),
+    Key("site.steam_price", "number", "price of steam per site.steam_price_per", low=0.0, high=1e6),
     Key("site.steam_price_per", "quantity", "the mass of steam the price is for"),
     Key("site.currency", "words", "the price's currency, shown beside costs"),
     Key("site.weather", "words", "an hourly EPW or TMY3 CSV weather year, relative to the unit file"),
@@ -56,26 +71,32 @@ KEYS = (
         "entering temperature at full load (for an outdoor-air coil, the coldest air)"),
     Key("design.outlet_temperature", "quantity", "the leaving set point the control valve holds"),
     Key("design.steam_pressure", "quantity", "the coil pressure at full load; it fixes the coil's size"),
-    Key("design.ua_flow_exponent", "number", "n in UA proportional to flow to the n"),
+    Key("design.ua_flow_exponent", "number", "n in UA proportional to flow to the n",
+        low=0.0, high=1.0, default=0.0),
     Key("design.method", "words", "heat transfer: ntu or mean-temperature"),
     Key("steam", "table", "the steam supply"),
     Key("steam.supply_pressure", "quantity",
         "steam pressure ahead of the control valve, above the coil's so it can pass steam"),
     Key("valve", "table", "the modulating control valve"),
-    Key("valve.cv", "number", "full-travel flow coefficient, Cv"),
-    Key("valve.kv", "number", "full-travel flow coefficient, Kv (m³/h of water at 1 bar drop; Cv = 1.156 Kv)"),
+    Key("valve.cv", "number", "full-travel flow coefficient, Cv", low=0.01, high=1e5),
+    Key("valve.kv", "number", "full-travel flow coefficient, Kv (m³/h of water at 1 bar drop; Cv = 1.156 Kv)",
+        low=0.01, high=1e5),
     Key("valve.characteristic", "words", "inherent flow characteristic"),
-    Key("valve.rangeability", "number", "largest over smallest controllable Cv"),
-    Key("valve.xt", "number", "pressure-differential ratio factor at choked flow (IEC 60534-2-1)"),
+    Key("valve.rangeability", "number", "largest over smallest controllable Cv",
+        low=1.0, high=1000.0, low_open=True, default=50.0),
+    Key("valve.xt", "number", "pressure-differential ratio factor at choked flow (IEC 60534-2-1)",
+        low=0.0, high=1.0, low_open=True, default=0.70),
     Key("load", "table", "how the load moves"),
     Key("load.varies", "words", "what moves the load: inlet-temperature or flow"),
     Key("load.minimum", "number",
-        "lowest load fraction it runs at; below it the unit is off or held by other controls"),
+        "lowest load fraction it runs at; below it the unit is off or held by other controls",
+        low=0.0, high=1.0, high_open=True, default=0.0),
     Key("load.bins", "table", "operating hours by entering temperature or load"),
     Key("load.bins.inlet_temperature", "quantity", "the bin's entering temperature"),
-    Key("load.bins.load", "number", "or the bin's load fraction"),
-    Key("load.bins.hours", "number", "the bin's hours a year"),
-    Key("load.outdoor_air_minimum", "number", "with a weather file: the least outdoor-air share"),
+    Key("load.bins.load", "number", "or the bin's load fraction", low=0.0, high=1.0),
+    Key("load.bins.hours", "number", "the bin's hours a year", low=0.0, high=HOURS_A_YEAR),
+    Key("load.outdoor_air_minimum", "number", "with a weather file: the least outdoor-air share",
+        low=0.0, high=1.0, low_open=True, default=1.0),
     Key("load.return_air_temperature", "quantity", "with a weather file: the air mixed with the outdoor air"),
     Key("load.mixed_air_temperature", "quantity", "with a weather file: an economiser's mixed-air set point"),
     Key("load.season", "words", "with a weather file: the months it runs"),
@@ -92,7 +113,8 @@ KEYS = (
     Key("drain.capacity", "table", "the trap's rated capacity against differential"),
     Key("drain.capacity.differential", "quantity", "a row's differential"),
     Key("drain.capacity.flow", "quantity", "a row's rated flow"),
-    Key("drain.capacity_margin", "number", "margin on the full-load condensate when selecting the trap"),
+    Key("drain.capacity_margin", "number", "margin on the full-load condensate when selecting the trap",
+        low=1.0, high=10.0),
     Key("drain.trap_orifice", "quantity", "seat bore of the trap"),
     Key("drain.motive_pressure", "quantity", "a pump-trap's motive pressure"),
     Key("drain.pump_fill_head", "quantity", "the filling head the pump-trap's maker asks for"),
@@ -140,3 +162,21 @@ def known() -> dict[str, set[str]]:
 def of_kind(*kinds: str) -> frozenset[str]:
     """The dotted keys written as any of ``kinds``."""
     return frozenset(row.key for row in KEYS if row.kind in kinds)
+
+
+def check_number(key: str, value: float) -> float:
+    """A plain number for ``key`` held to its row's range (the unit file's reader and
+    ``new``'s questions both ask here); InputError naming the key where it is outside."""
+    row = BY_NAME[key]
+    below = value <= row.low if row.low_open else value < row.low
+    above = value >= row.high if row.high_open else value > row.high
+    if not math.isfinite(value) or below or above:
+        raise InputError(key, f"{value:g} is out of range; accepted: {accepted(key)}.")
+    return value
+
+
+def accepted(key: str) -> str:
+    """A plain number's range in words: ``"above 1 to 1000"``."""
+    row = BY_NAME[key]
+    return (f"{'above' if row.low_open else 'from'} {row.low:g} {'below' if row.high_open else 'to'} "
+            f"{row.high:g}")

@@ -10,7 +10,6 @@ The format is fixed in the README's "Unit file" section.
 from __future__ import annotations
 
 import difflib
-import math
 import os
 import re
 import stat
@@ -207,6 +206,10 @@ def _line_of(text: str, key: str) -> int | None:
     return text.count("\n", 0, match.start()) + 1 if match else None
 
 
+#: A row's index in a section's name (``load.bins[2]``).
+_ROW_INDEX = re.compile(r"\[\d+\]$")
+
+
 class _Reader:
     """Walks the TOML tables, recording unknown keys and defaults taken."""
 
@@ -285,27 +288,26 @@ class _Reader:
             raise InputError(full, f"'{value}' is not one of: {', '.join(choices)}.{hint}")
         return value
 
-    def number(self, table: dict, section: str, key: str, low: float, high: float, default=None,
-               low_open: bool = False, high_open: bool = False):
+    def number(self, table: dict, section: str, key: str):
+        """A plain number, held to its row's range in the key table (a row of an array of
+        tables, ``load.bins[2]``, by the table's row ``load.bins.hours``); its default
+        where the file leaves it out (required where the row has none)."""
         full = f"{section}.{key}"
+        row = keys.BY_NAME[_ROW_INDEX.sub("", section) + "." + key]
         if key not in table:
-            if default is None:
-                raise InputError(full, f"is required: a plain number from {low:g} to {high:g}.")
-            self.defaults.append(f"{full} = {default:g} (not given)")
-            return float(default)
+            if row.default is None:
+                raise InputError(full, f"is required: a plain number {keys.accepted(row.key)}.")
+            self.defaults.append(f"{full} = {row.default:g} (not given)")
+            return float(row.default)
         value = table[key]
         if isinstance(value, str):
             raise InputError(full, f"takes a plain number with no unit, got \"{value}\".")
         if isinstance(value, bool) or not isinstance(value, (int, float)):
             raise InputError(full, f"takes a plain number, got a {_kind(value)}.")
-        value = float(value)
-        below = value <= low if low_open else value < low
-        above = value >= high if high_open else value > high
-        if not math.isfinite(value) or below or above:
-            lo = "above" if low_open else "from"
-            hi = "below" if high_open else "to"
-            raise InputError(full, f"{value:g} is out of range; accepted: {lo} {low:g} {hi} {high:g}.")
-        return value
+        try:
+            return keys.check_number(row.key, float(value))
+        except InputError as exc:
+            raise InputError(full, exc.message) from None
 
     def flag(self, table: dict, section: str, key: str):
         if key not in table:
@@ -397,9 +399,9 @@ def _costs(r: _Reader, site: dict) -> dict:
     """Hours and steam price, for yearly purge figures."""
     out: dict = {}
     if "hours_per_year" in site:
-        out["hours_per_year"] = r.number(site, "site", "hours_per_year", 0.0, HOURS_A_YEAR)
+        out["hours_per_year"] = r.number(site, "site", "hours_per_year")
     if "steam_price" in site:
-        out["steam_price"] = r.number(site, "site", "steam_price", 0.0, 1e6)
+        out["steam_price"] = r.number(site, "site", "steam_price")
         if "steam_price_per" in site:
             per = r.quantity(site, "site", "steam_price_per", q.mass)
             require_positive("site.steam_price_per", per, f", got \"{site['steam_price_per']}\"")
@@ -474,7 +476,7 @@ def _design(r: _Reader, atm: float) -> Design:
     if p > 2.0e6:
         raise InputError("design.steam_pressure", f"\"{d['steam_pressure']}\" is above 2 MPa (about 275 psig); "
                                                   "coils on modulating valves run far lower. Check the units.")
-    n = r.number(d, "design", "ua_flow_exponent", 0.0, 1.0, default=0.0)
+    n = r.number(d, "design", "ua_flow_exponent")
     method = r.choice(d, "design", "method", METHODS, default="ntu")
     return Design(medium, concentration, flow.value, flow.is_mass, t_in, t_out, p, n, method)
 
@@ -486,12 +488,12 @@ def _valve(r: _Reader) -> Valve | None:
     if ("cv" in v) == ("kv" in v):
         raise InputError("valve.cv", "give exactly one of cv or kv (a plain number).")
     if "cv" in v:
-        cv = r.number(v, "valve", "cv", 0.01, 1e5)
+        cv = r.number(v, "valve", "cv")
     else:
-        cv = CV_PER_KV * r.number(v, "valve", "kv", 0.01, 1e5)
+        cv = CV_PER_KV * r.number(v, "valve", "kv")
     char = r.choice(v, "valve", "characteristic", CHARACTERISTICS)
-    rangeability = r.number(v, "valve", "rangeability", 1.0, 1000.0, default=50.0, low_open=True)
-    xt = r.number(v, "valve", "xt", 0.0, 1.0, default=0.70, low_open=True)
+    rangeability = r.number(v, "valve", "rangeability")
+    xt = r.number(v, "valve", "xt")
     return Valve(cv, char, rangeability, xt, "cv" if "cv" in v else "kv")
 
 
@@ -503,10 +505,10 @@ def _load(r: _Reader, design: Design, weather: bool) -> Load:
         varies = default_varies
     else:
         varies = r.choice(table, "load", "varies", VARIES)
-    minimum = r.number(table, "load", "minimum", 0.0, 1.0, default=0.0, high_open=True)
+    minimum = r.number(table, "load", "minimum")
     bins = []
     for section, b in r.rows(table, "load", "bins"):
-        hours = r.number(b, section, "hours", 0.0, HOURS_A_YEAR)
+        hours = r.number(b, section, "hours")
         if varies == "inlet-temperature":
             if "inlet_temperature" not in b:
                 raise InputError(f"{section}.inlet_temperature",
@@ -520,7 +522,7 @@ def _load(r: _Reader, design: Design, weather: bool) -> Load:
         else:
             if "load" not in b:
                 raise InputError(f"{section}.load", "is required: bins are by load fraction where load.varies = \"flow\".")
-            bins.append(LoadBin(hours=hours, load=r.number(b, section, "load", 0.0, 1.0)))
+            bins.append(LoadBin(hours=hours, load=r.number(b, section, "load")))
     total = sum(b.hours for b in bins)
     if total > HOURS_A_YEAR:
         raise InputError("load.bins", f"hold {total:,.0f} h in all, more than a year has; accepted: at most "
@@ -550,7 +552,7 @@ def _year_keys(r: _Reader, table: dict, design: Design, varies: str, weather: bo
                                          "entering temperature (medium = \"air\", load.varies = "
                                          "\"inlet-temperature\"); this unit's load does not.")
     out: dict = {}
-    share = r.number(table, "load", "outdoor_air_minimum", 0.0, 1.0, default=1.0, low_open=True)
+    share = r.number(table, "load", "outdoor_air_minimum")
     out["outdoor_air_minimum"] = share
     if share < 1.0:
         if "return_air_temperature" not in table:
