@@ -241,7 +241,7 @@ def new(file: Optional[Path] = typer.Argument(None, help="Where to write the uni
             break
         out = terminal.console()
         verdict = words.stall_summary(result.stall)
-        out.print(printable(f"{result.unit}: {verdict}; needs {result.drainage.required}, has "
+        out.print(printable(f"{result.name}: {verdict}; needs {result.drainage.required}, has "
                             f"{result.drainage.installed} ({'adequate' if result.drainage.adequate else 'NOT adequate'})"),
                   highlight=False, markup=False)
         page.emit([terminal.chart_block(result, result.system, width=min(out.width, page.MAX_WIDTH) - 2)],

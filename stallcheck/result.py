@@ -724,12 +724,12 @@ class Basis:
 class Result:
     """Everything ``check`` reports about one unit.
 
-    Pressures [Pa] absolute; ``back_pressure`` is return pressure plus the lift head,
-    ``fill_head_pressure`` the head of the fill height [Pa]; ``lift`` and ``fill_head``
-    are heights [m].
+    ``name`` is the unit's name (the contract's ``unit``). Pressures [Pa] absolute;
+    ``back_pressure`` is return pressure plus the lift head, ``fill_head_pressure`` the
+    head of the fill height [Pa]; ``lift`` and ``fill_head`` are heights [m].
     """
 
-    unit: str
+    name: str
     tag: str
     source: str
     system: str

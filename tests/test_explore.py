@@ -110,7 +110,7 @@ def test_every_sample_opens(tmp_path):
         async def script(pilot):
             await pilot.press("m", "M")
         _run(app, script)
-        assert app.result.unit == unitfile.load(sample).name
+        assert app.result.name == unitfile.load(sample).name
 
 
 # --- the layout at 80x24 and 120x40 ---------------------------------------------------

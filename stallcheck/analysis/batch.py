@@ -411,7 +411,7 @@ def _analyse(units: list[Unit], systems: list[str], tabulate: bool = True, compl
         purge = devices.purge_figures(u, b.one(i), float(b.back[i]), float(b.design_pressure[i]),
                                       float(p_min[i]), loads, hours, hours_basis)
         result = Result(
-            unit=u.name, tag=u.tag, source=u.source, system=systems[i], method=u.design.method,
+            name=u.name, tag=u.tag, source=u.source, system=systems[i], method=u.design.method,
             varies=u.load.varies, medium=u.design.medium, minimum_load=u.load.minimum,
             atmospheric_pressure=float(b.atm[i]), return_pressure=float(b.return_pressure[i]),
             back_pressure=float(b.back[i]), fill_head_pressure=float(b.fill_pressure[i]),

@@ -85,7 +85,7 @@ class Summary:
     def of(cls, r: Result) -> "Summary":
         top = r.findings[0] if r.findings else None
         s = r.stall
-        return cls(r.source, r.unit, r.tag, r.system, s.load_fraction if s.occurs else None,
+        return cls(r.source, r.name, r.tag, r.system, s.load_fraction if s.occurs else None,
                    s.inlet_temperature if s.occurs else None, r.drainage.required, r.drainage.installed,
                    r.drainage.adequate, r.stalled_hours, top.code if top else None,
                    top.severity if top else None, r.exit_status, r.warnings, _worst_pattern(r),

@@ -326,7 +326,7 @@ def to_dict(d: Diagnosis) -> dict:
     rd = d.readings
     return {
         "format": 1,
-        "unit": d.result.unit,
+        "unit": d.result.name,
         "readings": {
             "coil_pressure_kpa": display.kpa(rd.coil_pressure),
             "return_pressure_kpa": display.kpa(rd.return_pressure),

@@ -55,7 +55,7 @@ def to_dict(r: Result, sentences: bool = True) -> dict:
     v = r.valve
     out = {
         "format": r.format,
-        "unit": r.unit,
+        "unit": r.name,
         "tag": r.tag,
         "source": r.source,
         "method": r.method,

@@ -42,7 +42,7 @@ def markdown(unit: Unit, r: Result, system: str, version: str, date: str, pictur
 
     d = unit.design
     dr = unit.drain
-    out: list[str] = [f"# Stall check: {r.unit}" + (f" ({r.tag})" if r.tag else ""), ""]
+    out: list[str] = [f"# Stall check: {r.name}" + (f" ({r.tag})" if r.tag else ""), ""]
     out += [f"Unit file `{r.source}`, analysed by stallcheck {version} on {date}. "
             "A screening aid: the cautions at the end apply.", ""]
 
@@ -241,7 +241,7 @@ def picture(r: Result, system: str, fmt: str) -> bytes:
     ax.set_xlim(0, 100)
     ax.set_xlabel("load, % of design")
     ax.set_ylabel(f"coil pressure, {unit}")
-    ax.set_title(r.unit + (f" ({r.tag})" if r.tag else ""))
+    ax.set_title(r.name + (f" ({r.tag})" if r.tag else ""))
     ax.grid(True, alpha=0.3)
     ax.legend(loc="upper left", fontsize=8)
     fig.tight_layout()

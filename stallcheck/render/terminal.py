@@ -46,7 +46,7 @@ def chart_text(result: Result, system: str, width: int, x_axis: str = "load", he
 def heading(r: Result, *lines: str, width: int = 80) -> list:
     """The unit's name and tag in bold, then dim lines (a path too long for a line
     folded after a folder separator, not inside a name), then a blank line."""
-    title = runs((r.unit, "bold"), f"  ({r.tag})" if r.tag else "")
+    title = runs((r.name, "bold"), f"  ({r.tag})" if r.tag else "")
     return [Para(title, 0), *(Para(((piece, "dim"),), 0) for line in lines for piece in fold_path(line, width)),
             BLANK]
 
