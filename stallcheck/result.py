@@ -422,6 +422,9 @@ class YearFigures:
         The air entering the coil at the 99.6 % condition (mixed where it mixes). [K]
     design_inlet : float
         The design entering temperature, for comparison. [K]
+    coldest_entering : float
+        The coldest air entering the coil in the year's scheduled hours (mixed where it
+        mixes). [K]
     stated_996, stated_990 : float or None
         The heating design dry bulbs the file itself states, where it does. [K]
     bands : tuple of (float, float or None, int, int)
@@ -452,6 +455,7 @@ class YearFigures:
     dry_bulb_990: float
     entering_996: float
     design_inlet: float
+    coldest_entering: float
     stated_996: float | None
     stated_990: float | None
     bands: tuple[tuple[float, float | None, int, int], ...]

@@ -225,6 +225,7 @@ def test_a_mixed_air_unit_counts_its_hours_on_the_mixed_air(tmp_path):
     set_point = (55 - 32) / 1.8
     assert r.year.operating == sum(1 for t in mixed if t < set_point)
     assert r.year.entering_996 - k == pytest.approx(0.25 * sorted(_by_hand(GREENSBORO)["dry"])[35] + 0.75 * t_return)
+    assert r.year.coldest_entering - k == pytest.approx(min(mixed))
 
 
 def test_the_purge_steam_of_the_year_is_that_of_its_hours_as_load_bins(tmp_path):

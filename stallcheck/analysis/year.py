@@ -134,7 +134,8 @@ def figures(unit: Unit, coil: coilmod.CoilModel, stall_fraction: float,
         longest_freezing_run=longest_run(freezing), dry_bulb_996=low, dry_bulb_990=high,
         entering_996=float(coilmod.entering_air(low, ld.outdoor_air_minimum, ld.return_air_temperature,
                                                 ld.mixed_air_temperature)),
-        design_inlet=unit.design.inlet_temperature, stated_996=w.design_996, stated_990=w.design_990, bands=bands,
+        design_inlet=unit.design.inlet_temperature,
+        coldest_entering=float(entering[on].min()) if on.any() else float(entering.min()), stated_996=w.design_996, stated_990=w.design_990, bands=bands,
         entering=entering, running=running, stalled_hours=stalled, month=w.month)
     return year, load[running]
 

@@ -165,6 +165,7 @@ def _weather(r: Result):
         "hours_stalled_freezing": y.stalled_freezing, "longest_stalled_freezing_run_h": y.longest_freezing_run,
         "heating_dry_bulb_996_c": display.celsius(y.dry_bulb_996), "heating_dry_bulb_990_c": display.celsius(y.dry_bulb_990),
         "entering_at_996_c": display.celsius(y.entering_996),
+        "coldest_entering_c": display.celsius(y.coldest_entering),
         "stated_dry_bulb_996_c": display.celsius(y.stated_996), "stated_dry_bulb_990_c": display.celsius(y.stated_990),
         "load_bands": [{"load_from": lower, "load_to": upper, "hours": hours, "stalled_hours": stalled}
                        for lower, upper, hours, stalled in y.bands],

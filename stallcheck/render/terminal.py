@@ -330,8 +330,8 @@ def year_section(r: Result, system: str, width: int = 80) -> list:
               and y.stated_990 is not None else "")
     parts.append(_para(f"heating design dry bulb from its hours: 99.6 % {t(y.dry_bulb_996)}, 99 % "
                        f"{t(y.dry_bulb_990)}{stated}"))
-    mixed = (f"; at 99.6 % the mixed air enters at {t(y.entering_996)}"
-             if abs(y.entering_996 - y.dry_bulb_996) > 1e-9 else "")
+    mixed = (f"; at 99.6 % the mixed air enters at {t(y.entering_996)}, and the coldest it enters in "
+             f"the year's hours is {t(y.coldest_entering)}" if abs(y.entering_996 - y.dry_bulb_996) > 1e-9 else "")
     parts.append(_para(f"design entering air {t(y.design_inlet)}{mixed}; {y.above_full:,} h colder (full load, "
                        f"the air leaving short of its set point)"
                        + (f"; {y.below_minimum:,} h ask less than the minimum load and run at it"
