@@ -140,16 +140,19 @@ def _risers(units, owner, st: _Rows, bore) -> list[str | None]:
     p_foot = p_ret + st.rho_l[k] * GRAVITY * lift
     coil = st.coil[k]
     x_foot = np.where(coil > p_foot, flashmod.flash_fraction(np.maximum(coil, p_foot), p_foot), 0.0)
+    w, area = st.condensate[k], math.pi * bore[k] ** 2 / 4.0
     ends = []
     for pressure, x in ((p_foot, x_foot), (p_ret, st.flash[k])):
         rho_l, rho_g = properties.liquid_density(pressure), properties.vapour_density(pressure)
         mu_l, sigma = properties.liquid_viscosity(pressure), properties.surface_tension(pressure)
-        area = math.pi * bore[k] ** 2 / 4.0
-        w = st.condensate[k]
-        ends.append([hammer.LIQUID if x[j] <= hammer.NO_FLASH or w[j] <= 0 else
-                     hammer.vertical_regime(w[j] * (1.0 - x[j]) / (rho_l[j] * area[j]), w[j] * x[j] / (rho_g[j] * area[j]),
-                                            rho_l[j], rho_g[j], mu_l[j], sigma[j], bore[k][j], lift[j])
-                     for j in range(len(lifted))])
+        flows = (x > hammer.NO_FLASH) & (w > 0)
+        end = np.full(len(lifted), hammer.LIQUID, dtype=object)
+        if flows.any():
+            f = flows   # the rows with flash steam to rise
+            end[f] = hammer.vertical_regime_many(w[f] * (1.0 - x[f]) / (rho_l[f] * area[f]),
+                                                 w[f] * x[f] / (rho_g[f] * area[f]), rho_l[f], rho_g[f], mu_l[f],
+                                                 sigma[f], bore[k][f], lift[f])
+        ends.append(end)
     for j, row in enumerate(lifted):
         out[row] = min(ends[0][j], ends[1][j], key=RISER_PATTERNS.index)
     return out

@@ -45,8 +45,17 @@ LIQUID = "liquid only"
 STRATIFIED = ("stratified smooth", "stratified wavy", LIQUID)
 
 
+#: Taitel, Barnea & Dukler's upward patterns, as :func:`vertical_regime_many` names them.
+VERTICAL_PATTERNS = ("annular", "dispersed bubble", "bubbly", "churn", "slug")
+
+
 def vertical_regime(u_ls: float, u_gs: float, rho_l: float, rho_g: float, mu_l: float, sigma: float,
                     bore: float, height: float) -> str:
+    """:func:`vertical_regime_many` for one riser and flow: the pattern's name."""
+    return str(vertical_regime_many(u_ls, u_gs, rho_l, rho_g, mu_l, sigma, bore, height).flat[0])
+
+
+def vertical_regime_many(u_ls, u_gs, rho_l, rho_g, mu_l, sigma, bore, height):
     """The flow pattern of a gas and a liquid rising in a vertical pipe, from superficial
     velocities U_Ls, U_Gs [m/s] (U_M = U_Ls + U_Gs) and the two phases' properties
     (densities [kg/m³], liquid viscosity [Pa·s], surface tension [N/m]): for condensate
@@ -65,9 +74,11 @@ def vertical_regime(u_ls: float, u_gs: float, rho_l: float, rho_g: float, mu_l: 
       the entry length over which churn develops into slugs,
       l_E/D = 40.6·(U_M/√(gD) + 0.22) (eq. 21).
 
+    Every argument may be an array (one pattern an element, broadcast).
+
     Returns
     -------
-    str
+    ndarray of str
         ``annular``, ``dispersed bubble``, ``bubbly``, ``slug`` or ``churn``.
 
     References
@@ -76,20 +87,20 @@ def vertical_regime(u_ls: float, u_gs: float, rho_l: float, rho_g: float, mu_l: 
        transitions for steady upward gas-liquid flow in vertical tubes. AIChE J. 26(3),
        345-354.
     """
+    u_ls, u_gs, rho_l, rho_g, mu_l, sigma, bore, height = np.broadcast_arrays(
+        *(np.asarray(v, dtype=float) for v in (u_ls, u_gs, rho_l, rho_g, mu_l, sigma, bore, height)))
     u_m = u_ls + u_gs
     drho = rho_l - rho_g
-    if u_gs * math.sqrt(rho_g) / (sigma * GRAVITY * drho) ** 0.25 >= 3.1:
-        return "annular"
+    annular = u_gs * np.sqrt(rho_g) / (sigma * GRAVITY * drho) ** 0.25 >= 3.1
     friction = 0.046 * (rho_l * u_m * bore / mu_l) ** -0.2
-    breakup = (2.0 * math.sqrt(0.4 * sigma / (drho * GRAVITY)) * (rho_l / sigma) ** 0.6
+    breakup = (2.0 * np.sqrt(0.4 * sigma / (drho * GRAVITY)) * (rho_l / sigma) ** 0.6
                * (2.0 * friction / bore) ** 0.4 * u_m ** 1.2)
-    if u_gs / u_m < 0.52 and breakup >= 0.725 + 4.15 * math.sqrt(u_gs / u_m):
-        return "dispersed bubble"
-    wide = bore > 19.0 * math.sqrt(drho * sigma / (rho_l ** 2 * GRAVITY))
-    if wide and u_ls >= 3.0 * u_gs - 1.15 * (GRAVITY * drho * sigma / rho_l ** 2) ** 0.25:
-        return "bubbly"
-    entry = 40.6 * (u_m / math.sqrt(GRAVITY * bore) + 0.22) * bore
-    return "churn" if height < entry else "slug"
+    dispersed = (u_gs / u_m < 0.52) & (breakup >= 0.725 + 4.15 * np.sqrt(u_gs / u_m))
+    wide = bore > 19.0 * np.sqrt(drho * sigma / (rho_l ** 2 * GRAVITY))
+    bubbly = wide & (u_ls >= 3.0 * u_gs - 1.15 * (GRAVITY * drho * sigma / rho_l ** 2) ** 0.25)
+    entry = 40.6 * (u_m / np.sqrt(GRAVITY * bore) + 0.22) * bore
+    code = np.select([annular, dispersed, bubbly, height < entry], [0, 1, 2, 3], default=4)
+    return np.asarray(VERTICAL_PATTERNS, dtype=object)[code.reshape(-1)].reshape(code.shape)
 
 
 def standard_wall(bore: float) -> float:
