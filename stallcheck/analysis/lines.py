@@ -161,28 +161,28 @@ def _risers(units, owner, st: _Rows, bore) -> list[str | None]:
 def _stratified_bores(units, owner, st: _Rows, inclination, slugging: dict) -> dict[int, tuple[float, str]]:
     """For each slugging unit, the smallest Schedule 40 bore, not below its own, that
     keeps its line stratified at every load reported (judged at :data:`BORE_ALLOWANCE`
-    of the bore): its inside diameter [m] and nominal size. The sizes are tried in
-    turn, each only for the units the smaller ones did not settle."""
-    waiting = {i: int(np.searchsorted([row[1] + 1e-9 for row in hammer.SCHEDULE_40], units[i].drain.return_line))
-               for i, slugs in slugging.items() if slugs}
-    mine = {i: np.flatnonzero(owner == i) for i in waiting}
+    of the bore): its inside diameter [m] and nominal size. Every size of every such
+    unit is tried in one call of the map (the call, not the rows, is what costs)."""
+    rows, trial, size_of = [], [], []
+    for i, slugs in slugging.items():
+        if not slugs:
+            continue
+        mine = np.flatnonzero(owner == i)
+        for c, (_, inside, _) in enumerate(hammer.SCHEDULE_40):
+            if inside + 1e-9 >= units[i].drain.return_line:
+                rows.append(mine)
+                trial.append(np.full(len(mine), inside * BORE_ALLOWANCE))
+                size_of += [(i, c)] * len(mine)
+    if not rows:
+        return {}
+    picked = np.concatenate(rows)
+    patterns = st.taitel_dukler(np.concatenate(trial), inclination[picked], pick=picked)
+    held: dict[tuple[int, int], bool] = {}
+    for key, pattern in zip(size_of, patterns):
+        held[key] = held.get(key, True) and pattern in hammer.STRATIFIED
     out: dict[int, tuple[float, str]] = {}
-    while waiting:
-        waiting = {i: c for i, c in waiting.items() if c < len(hammer.SCHEDULE_40)}
-        if not waiting:
-            break
-        rows = np.concatenate([mine[i] for i in waiting])
-        trial = np.concatenate([np.full(len(mine[i]), hammer.SCHEDULE_40[c][1] * BORE_ALLOWANCE)
-                                for i, c in waiting.items()])
-        patterns = st.taitel_dukler(trial, inclination[rows], pick=rows)
-        at = 0
-        for i, c in list(waiting.items()):
-            held = all(p in hammer.STRATIFIED for p in patterns[at:at + len(mine[i])])
-            at += len(mine[i])
-            if held:
-                name, inside, _ = hammer.SCHEDULE_40[c]
-                out[i] = (inside, name)
-                del waiting[i]
-            else:
-                waiting[i] = c + 1
+    for (i, c), ok in sorted(held.items()):
+        if ok and i not in out:
+            name, inside, _ = hammer.SCHEDULE_40[c]
+            out[i] = (inside, name)
     return out
