@@ -576,3 +576,19 @@ def test_freeze_risk_with_a_weather_file_counts_the_years_stalled_freezing_hours
     hours, _ = greensboro_hours()
     t_stall = r.stall.inlet_temperature - 273.15
     assert f.facts["hours"] == sum(1 for t in hours if t_stall <= t < 0.0) > 0
+
+
+def test_a_warm_selection_the_schedule_keeps_from_the_cold_hours_is_information():
+    # Run only April to October, the coil never meets air colder than its 20 °F design
+    # in the Greensboro year (by hand: no such hour in those months), so the design
+    # warmer than the annual 99.6 % condition is told as information, not a warning.
+    import csv
+
+    with open(GREENSBORO, newline="", encoding="utf-8") as handle:
+        rows = list(csv.reader(handle))[2:]
+    summer = [float(row[2]) for row in rows if 4 <= int(row[0][:2]) <= 10]
+    assert min(summer) > (20 - 32) / 1.8
+    r = analyse(site={"weather": GREENSBORO, "elevation": "273 m"}, design={"inlet_temperature": "20 degF"},
+                load={"season": "Apr-Oct", "minimum": 0.0})
+    f = found(r, "design-warmer-than-site")
+    assert f is not None and f.severity == "info" and f.parts[-1] == "why-none" and f.facts["hours"] == 0

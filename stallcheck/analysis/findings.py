@@ -239,7 +239,11 @@ def _climate(unit: Unit, r: Result) -> list[Finding]:
     design = unit.design.inlet_temperature
     if design > y.entering_996 + _AT:
         mixed = unit.load.outdoor_air_minimum < 1.0
-        out.append(Finding("design-warmer-than-site", "warning", ("", "mixed" if mixed else "outdoor", "why"),
+        # short of heat in some hour the unit runs: a warning; its season and hours keep
+        # it out of the cold hours of this year: information (a colder year may not)
+        short = y.above_full > 0
+        out.append(Finding("design-warmer-than-site", "warning" if short else "info",
+                           ("", "mixed" if mixed else "outdoor", "why" if short else "why-none"),
                            {"design": design, "dry_bulb": y.dry_bulb_996, "entering": y.entering_996,
                             "hours": y.above_full, "file": y.file}))
     if y.station_elevation is not None and not unit.site.pressure_given:

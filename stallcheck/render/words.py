@@ -105,6 +105,8 @@ FINDINGS: dict[str, dict[str, str]] = {
                "load with the air leaving below its set point, and steam held short in freezing air puts the "
                "tubes at risk. Check the selection with air entering at {entering:temperature-} (more coil or "
                "more steam pressure), then check the stall point again.",
+        "why-none": ". Its season and hours keep it out of the year's colder hours, but a colder year can bring "
+                    "them; if it may run then, check the selection with air entering at {entering:temperature-}.",
     },
     "site-elevation-differs": {
         "": "The weather file's station ({name}) is at {station:length}",
