@@ -23,9 +23,11 @@ def _clean(value):
     return value
 
 
-#: The sentences of the contract: left out of a result by ``to_dict(..., sentences=False)``
-#: (``survey --json`` without ``--words``), the figures and codes kept.
-SENTENCES = ("message", "note", "reasons", "text", "assumptions", "cautions")
+#: Where the contract holds sentences, as (field, key): a field's own key, each item's key
+#: of a list field, or a top-level key (field None). ``to_dict(..., sentences=False)``
+#: (``survey --json`` without ``--words``) leaves them out, the figures and codes kept.
+SENTENCES = (("findings", "message"), ("remedies", "note"), ("drainage", "reasons"), ("advice", "text"),
+             (None, "assumptions"), (None, "cautions"))
 
 
 def to_dict(r: Result, sentences: bool = True) -> dict:
@@ -291,13 +293,10 @@ def _surge(r: Result):
 def _without_sentences(r: Result) -> dict:
     """:func:`to_dict` without the :data:`SENTENCES`."""
     out = to_dict(r)
-    for f in out["findings"]:
-        f.pop("message")
-    out.pop("assumptions"), out.pop("cautions")
-    out["drainage"].pop("reasons")
-    out["advice"].pop("text")
-    for m in out["remedies"]:
-        m.pop("note")
+    for field, key in SENTENCES:
+        holder = out if field is None else out[field]
+        for item in holder if isinstance(holder, list) else (holder,):
+            item.pop(key)
     return out
 
 
