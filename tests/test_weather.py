@@ -368,6 +368,9 @@ def test_year_keys_without_a_weather_file_and_a_weather_file_on_a_water_heater_a
     _refused(_unit(tmp_path, season="Octember"), "load.season", "Oct-Apr")
     _refused(_unit(tmp_path, daily_hours="6 to 18"), "load.daily_hours", "06:00-18:00")
     _refused(_unit(tmp_path, daily_hours="25:00-06:00"), "load.daily_hours")
+    # the same hour at both ends, however written, is no span
+    for same in ("06:00-6:00", "24:00-00:00", "00:00-00:00"):
+        _refused(_unit(tmp_path, daily_hours=same), "load.daily_hours")
 
 
 def test_a_season_may_wrap_the_new_year_and_be_a_list():

@@ -612,11 +612,14 @@ def _month(word: str) -> int | None:
 def _daily_hours(text) -> tuple[int, int]:
     """``"06:00-18:00"`` → (6, 18): the hours of the day the unit runs (whole hours)."""
     match = _HOUR.match(text) if isinstance(text, str) else None
-    if not match or int(match.group(1)) > 24 or int(match.group(2)) > 24 or match.group(1) == match.group(2):
+    start, stop = (int(match.group(1)), int(match.group(2))) if match else (0, 0)
+    # the same hour at both ends (compared as hours: "06:00-6:00", "24:00-00:00") is no
+    # span; the whole day is written "00:00-24:00"
+    if not match or start > 24 or stop > 24 or (start % 24 == stop % 24 and (start, stop) != (0, 24)):
         raise InputError("load.daily_hours", f"{text!r} is not a span of hours; accepted: whole hours, start "
                                              f"and stop, such as \"06:00-18:00\" or \"22:00-06:00\" (past "
                                              f"midnight); local standard time, as in the weather file.")
-    return int(match.group(1)) % 24, int(match.group(2)) % 24 or 24
+    return start % 24, stop % 24 or 24
 
 
 def _geometry(r: _Reader) -> Geometry | None:
