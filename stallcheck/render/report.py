@@ -84,11 +84,9 @@ def markdown(unit: Unit, r: Result, system: str, version: str, date: str, pictur
         out.append(f"**Stalls below {words.percent(s.load_fraction)} load**{inlet}: coil pressure {show(s.coil_pressure, 'pressure')}, "
                    f"steam {show(s.steam_temperature, 'temperature')}, condensate {show(s.condensate, 'mass_flow')}.")
     if s.valve_load_fraction is not None:
-        sentence = words.valve_floods(s, system, atm)
-        out.append(sentence[:1].upper() + sentence[1:] + ".")
+        out.append(_sentence(words.valve_floods(s, system, atm)))
     if r.stalled_hours is not None:
-        sentence = words.stalled_hours(r)
-        out.append(sentence[:1].upper() + sentence[1:] + ".")
+        out.append(_sentence(words.stalled_hours(r)))
     out.append("")
 
     dn = r.drainage
@@ -125,6 +123,12 @@ def markdown(unit: Unit, r: Result, system: str, version: str, date: str, pictur
     out += [f"- **{SEVERITY_WORD[f.severity]}** `{f.code}`: {words.finding(f, r, system)}" for f in r.findings] or ["None."]
     out += ["", "## Cautions", ""] + [f"- {c}" for c in r.cautions] + [""]
     return "\n".join(out)
+
+
+def _sentence(clause: str) -> str:
+    """A clause of the terminal's words as a sentence: its first letter raised (not
+    ``capitalize``, which would lower "inHg") and a full stop."""
+    return clause[:1].upper() + clause[1:] + "."
 
 
 def _figures(r: Result, show) -> list[str]:
