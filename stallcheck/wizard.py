@@ -18,7 +18,7 @@ from stallcheck.errors import InputError
 from stallcheck.files import keys
 from stallcheck.files import quantities as q
 from stallcheck.files.ranges import ELEVATION_RANGE
-from stallcheck.inputs import ARRANGEMENTS, CHARACTERISTICS, MEDIA, TRAPS
+from stallcheck.inputs import MEDIA
 
 
 @dataclass(frozen=True)
@@ -85,15 +85,15 @@ QUESTIONS = (
              _help("valve.cv"), "coefficient",
              optional=True),
     Question("valve.characteristic", "Valve characteristic", _help("valve.characteristic"), "choice",
-             {"us": "equal-percentage", "si": "equal-percentage"}, choices=CHARACTERISTICS,
+             {"us": "equal-percentage", "si": "equal-percentage"}, choices=keys.BY_NAME["valve.characteristic"].choices,
              when=lambda a: "valve.cv" in a),
     Question("load.minimum", "Lowest load it runs at, as a fraction (0 to below 1)", _help("load.minimum"),
              "number",
              {"us": "0", "si": "0"}),
     Question("drain.arrangement", "What drains it now?", _help("drain.arrangement"), "choice",
-             {"us": "trap", "si": "trap"}, choices=ARRANGEMENTS),
+             {"us": "trap", "si": "trap"}, choices=keys.BY_NAME["drain.arrangement"].choices),
     Question("drain.trap", "Trap type", _help("drain.trap"), "choice",
-             {"us": "float-thermostatic", "si": "float-thermostatic"}, choices=TRAPS),
+             {"us": "float-thermostatic", "si": "float-thermostatic"}, choices=keys.BY_NAME["drain.trap"].choices),
     Question("drain.fill_head", "Height from the coil outlet down to the trap inlet", _help("drain.fill_head"),
              "length", {"us": "12 in", "si": "0.3 m"}),
     Question("drain.lift", "Rise in the discharge after the trap (0 if none)", _help("drain.lift"),

@@ -111,3 +111,107 @@ def test_a_plain_number_is_held_to_its_row_s_range_in_a_file_and_in_new(row):
         with pytest.raises(InputError, match="out of range"):
             wizard.accept(question, f"{outside[1]!r}", {})
         assert wizard.accept(question, f"{inside[0]!r}", {}) == pytest.approx(inside[0])
+
+
+# --- plain keys: read, ranged, defaulted and written from their row alone ------------------
+
+#: Each section's record (stallcheck.inputs), whose field of a plain key's name it fills.
+RECORDS = {"site": "Site", "design": "Design", "valve": "Valve", "load": "Load", "drain": "Drain",
+           "geometry": "Geometry"}
+#: The fields each record has that no plain row fills: read by their section's own code
+#: (they depend on other keys, or are given one of two ways). A field added to a record
+#: with neither a plain row nor a place here fails below.
+READ_BY_CODE = {
+    "Site": {"atmospheric_pressure", "steam_price", "steam_price_per", "currency", "elevation", "pressure_given",
+             "weather"},
+    "Design": {"medium", "concentration", "flow", "flow_is_mass", "inlet_temperature", "outlet_temperature",
+               "steam_pressure"},
+    "Valve": {"cv", "given_as"},
+    "Load": {"varies", "bins", "outdoor_air_minimum", "return_air_temperature", "mixed_air_temperature", "season",
+             "daily_hours"},
+    "Drain": {"fill_head", "lift", "return_pressure", "trap_min_differential", "capacity", "pump_capacity",
+              "pump_table", "pump_rate", "pump_rate_volume"},
+    "Geometry": set(),
+}
+
+
+def test_every_field_of_a_record_is_a_plain_row_or_read_by_its_section_s_code():
+    import dataclasses
+
+    from stallcheck import inputs
+
+    for section, name in RECORDS.items():
+        fields = {f.name for f in dataclasses.fields(getattr(inputs, name))}
+        rows = {row.name for row in keys.plain(section)}
+        assert rows <= fields, (section, rows - fields)
+        assert fields - rows == READ_BY_CODE[name], (section, fields - rows)
+
+
+def test_a_plain_row_s_default_is_its_record_s():
+    # the reader fills a row's default where the file leaves the key out; the writer
+    # leaves out words or a quantity equal to the record's own default: the two agree
+    import dataclasses
+
+    from stallcheck import inputs
+
+    for row in (r for r in keys.KEYS if r.plain):
+        field = next(f for f in dataclasses.fields(getattr(inputs, RECORDS[row.section])) if f.name == row.name)
+        if row.default is not None and field.default is not dataclasses.MISSING:
+            assert field.default == row.default, row.key
+
+
+#: A value inside its range for each plain quantity, and one just outside (as written).
+QUANTITIES = {
+    "drain.trap_orifice": ("0.25 in", "1.2 m"),
+    "drain.motive_pressure": ("50 psig", "3000 psig"),
+    "drain.pump_fill_head": ("12 in", "10.1 m"),
+    "drain.purge_orifice": ("3 mm", "0 mm"),
+    "drain.purge_rate": ("4 lb/h", "0 lb/h"),
+    "drain.return_line": ("1.049 in", "4 mm"),
+    "drain.return_temperature": ("180 degF", "201 degC"),
+    "drain.return_length": ("120 ft", "2001 m"),
+    "drain.return_pitch": ("0.5 %", "101 %"),
+    "drain.return_wall": ("0.133 in", "51 mm"),
+    "drain.return_rating": ("150 psig", "3000 psig"),
+    "drain.check_closing_time": ("0.4 s", "601 s"),
+    "geometry.drop_to_trap": ("2 ft", "-1 ft"),
+}
+
+
+def test_every_plain_quantity_has_a_value_in_and_out_of_its_range_here():
+    assert set(QUANTITIES) == {r.key for r in keys.KEYS if r.plain and r.kind == "quantity"}
+
+
+@pytest.mark.parametrize("key", sorted(QUANTITIES))
+def test_a_plain_quantity_is_read_in_its_range_and_refused_outside_naming_its_key(key):
+    section, name = key.split(".")
+    inside, outside = QUANTITIES[key]
+    data = copy.deepcopy(BASE)
+    data[section][name] = inside
+    unitfile.from_data(data, "pellham.toml")
+    data[section][name] = outside
+    with pytest.raises(InputError) as err:
+        unitfile.from_data(data, "pellham.toml")
+    assert err.value.key == key
+    assert any(said in err.value.message for said in ("out of range", "greater than zero", "critical pressure"))
+
+
+@pytest.mark.parametrize("system", ["us", "si"])
+@pytest.mark.parametrize("row", [r for r in keys.KEYS if r.plain], ids=lambda r: r.key)
+def test_every_plain_key_written_reads_back_the_same(row, system):
+    # a value other than its default, read, written by the writer, read again
+    from stallcheck.files import unitwriter
+
+    if row.kind == "number":
+        given = (row.low + row.high) / 2
+    elif row.kind == "words":
+        given = row.choices[-1]
+    else:
+        given = {"flag": True, "whole": 2}.get(row.kind) or QUANTITIES[row.key][0]
+    data = copy.deepcopy(BASE)
+    data.setdefault(row.section, {})[row.name] = given
+    unit = unitfile.from_data(data, "pellham.toml")
+    again = unitfile.parse(unitwriter.dumps(unit, system), "written.toml")
+    first, second = getattr(unit, row.section), getattr(again, row.section)
+    first, second = getattr(first, row.name), getattr(second, row.name)
+    assert second == (pytest.approx(first, rel=1e-8) if isinstance(first, float) else first)

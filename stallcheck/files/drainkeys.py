@@ -7,16 +7,14 @@ from __future__ import annotations
 
 from stallcheck.errors import InputError
 from stallcheck.files import quantities as q
-from stallcheck.files.ranges import (NARROWEST_LINE, TRAP_DIFFERENTIAL_LIMIT, check_pressure_range,
-                                     require_positive)
-from stallcheck.inputs import ARRANGEMENTS, TRAPS, CapacityPoint, Drain
+from stallcheck.files.ranges import TRAP_DIFFERENTIAL_LIMIT, check_pressure_range, require_positive
+from stallcheck.inputs import CapacityPoint, Drain
 
 
 def read(r, atm: float) -> Drain:
     """The validated ``[drain]`` table (``r``: the unit file's reader)."""
     d = r.table("drain")
-    arrangement = r.choice(d, "drain", "arrangement", ARRANGEMENTS)
-    trap = r.choice(d, "drain", "trap", TRAPS, default="float-thermostatic")
+    plain = r.plain(d, "drain")
     fill = r.quantity(d, "drain", "fill_head", q.length, default="0 in",
                       note="height from the coil outlet down to the trap inlet, such as \"18 in\".")
     lift = r.quantity(d, "drain", "lift", q.length, default="0 ft")
@@ -44,102 +42,27 @@ def read(r, atm: float) -> Drain:
     for a, b in zip(capacity, capacity[1:]):
         if b.differential <= a.differential:
             raise InputError("drain.capacity", "differentials must increase from row to row.")
-    extra = _drain_devices(r, d, atm)
-    return Drain(arrangement, trap, fill, lift, ret, dpmin, tuple(capacity), **extra)
+    if "purge_orifice" in plain and "purge_rate" in plain:
+        raise InputError("drain.purge_orifice", "give either purge_orifice or purge_rate, not both.")
+    return Drain(fill_head=fill, lift=lift, return_pressure=ret, trap_min_differential=dpmin,
+                 capacity=tuple(capacity), **plain, **_pump(r, d, atm))
 
 
-def _drain_devices(r, d: dict, atm: float) -> dict:
-    """The optional keys that size the trap, pump-trap, purge and return line."""
+def _pump(r, d: dict, atm: float) -> dict:
+    """A pump-trap's capacity (a figure, or a table against back pressure) and its
+    discharge rate (by mass or by volume of condensate)."""
     out: dict = {}
-    if "capacity_margin" in d:
-        out["capacity_margin"] = r.number(d, "drain", "capacity_margin")
-    for key in ("trap_orifice", "purge_orifice", "return_line"):
-        value = r.optional(d, "drain", key, q.length)
-        if value is not None:
-            require_positive(f"drain.{key}", value, f", got \"{d[key]}\"")
-            if value > 1.0:
-                raise InputError(f"drain.{key}", f"\"{d[key]}\" is over 1 m; check the units.")
-            if key == "return_line" and value < NARROWEST_LINE:
-                raise InputError(f"drain.{key}", f"\"{d[key]}\" is narrower than any line from a trap; accepted: "
-                                                 "5 mm (0.2 in) to 1 m.")
-            out[key] = value
     if isinstance(d.get("pump_capacity"), list):
         out["pump_table"] = _pump_table(r, d, atm)
-    for key in ("purge_rate",) if "pump_table" in out else ("pump_capacity", "purge_rate"):
-        value = r.optional(d, "drain", key, q.mass_flow)
+    else:
+        value = r.optional(d, "drain", "pump_capacity", q.mass_flow)
         if value is not None:
-            require_positive(f"drain.{key}", value, f", got \"{d[key]}\"")
-            out[key] = value
-    if "purge_orifice" in out and "purge_rate" in out:
-        raise InputError("drain.purge_orifice", "give either purge_orifice or purge_rate, not both.")
-    fill = r.optional(d, "drain", "pump_fill_head", q.length)
-    if fill is not None:
-        if not 0.0 <= fill <= 10.0:
-            raise InputError("drain.pump_fill_head", f"\"{d['pump_fill_head']}\" is out of range; "
-                                                     "accepted: 0 to 10 m.")
-        out["pump_fill_head"] = fill
-    motive = _absolute(r, d, "motive_pressure", atm)
-    if motive is not None:
-        out["motive_pressure"] = motive
-    t = r.optional(d, "drain", "return_temperature", q.temperature)
-    if t is not None:
-        if not 273.15 <= t <= 473.15:
-            raise InputError("drain.return_temperature", f"\"{d['return_temperature']}\" is out of range; "
-                                                         "accepted: 0 °C to 200 °C.")
-        out["return_temperature"] = t
-    out.update(_return_line(r, d, atm))
-    return out
-
-
-def _absolute(r, d: dict, key: str, atm: float) -> float | None:
-    """An optional pressure of the ``[drain]`` table, absolute [Pa] and on the steam
-    tables' range; None where the file leaves it out."""
-    pressure = r.optional(d, "drain", key, q.pressure)
-    if pressure is None:
-        return None
-    value = pressure.absolute(atm)
-    check_pressure_range(f"drain.{key}", value, d[key])
-    return value
-
-
-def _return_line(r, d: dict, atm: float) -> dict:
-    """The optional keys of the line from the trap: its run, pitch, wall and rating,
-    and what drives or stops the flow in it."""
-    out: dict = {}
-    length = r.optional(d, "drain", "return_length", q.length)
-    if length is not None:
-        if not 0.0 < length <= 2000.0:
-            raise InputError("drain.return_length", f"\"{d['return_length']}\" is out of range; accepted: above "
-                                                    "0 to 2000 m.")
-        out["return_length"] = length
-    pitch = r.optional(d, "drain", "return_pitch", q.fraction)
-    if pitch is not None:
-        if not -1.0 <= pitch <= 1.0:
-            raise InputError("drain.return_pitch", f"\"{d['return_pitch']}\" is out of range; accepted: -100 % "
-                                                   "to 100 % (fall per length; negative rises against the flow).")
-        out["return_pitch"] = pitch
-    if "return_material" in d:
-        out["return_material"] = r.choice(d, "drain", "return_material", ("steel", "copper"))
-    wall = r.optional(d, "drain", "return_wall", q.length)
-    if wall is not None:
-        require_positive("drain.return_wall", wall, f", got \"{d['return_wall']}\"")
-        if wall > 0.05:
-            raise InputError("drain.return_wall", f"\"{d['return_wall']}\" is over 50 mm; check the units.")
-        out["return_wall"] = wall
-    rating = _absolute(r, d, "return_rating", atm)
-    if rating is not None:
-        out["return_rating"] = rating
+            out["pump_capacity"] = require_positive("drain.pump_capacity", value, f", got \"{d['pump_capacity']}\"")
     rate = r.optional(d, "drain", "pump_rate", q.flow)
     if rate is not None:
         require_positive("drain.pump_rate", rate.value, f", got \"{d['pump_rate']}\"")
         # pump-trap ratings are given by mass or by volume of condensate (gpm, m3/h)
         out["pump_rate" if rate.is_mass else "pump_rate_volume"] = rate.value
-    closing = r.optional(d, "drain", "check_closing_time", q.duration)
-    if closing is not None:
-        if not 0.0 <= closing <= 600.0:
-            raise InputError("drain.check_closing_time", f"\"{d['check_closing_time']}\" is out of range; "
-                                                         "accepted: 0 to 600 s.")
-        out["check_closing_time"] = closing
     return out
 
 

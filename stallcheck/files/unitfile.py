@@ -24,9 +24,7 @@ from stallcheck.files import quantities as q
 from stallcheck.files.ranges import (COLDEST_AIR, ELEVATION_RANGE, HOURS_A_YEAR, RETURN_AIR_RANGE,
                                      check_pressure_range, require_positive)
 from stallcheck.inputs import (
-    CHARACTERISTICS,
     MEDIA,
-    METHODS,
     VARIES,
     Design,
     Geometry,
@@ -206,10 +204,6 @@ def _line_of(text: str, key: str) -> int | None:
     return text.count("\n", 0, match.start()) + 1 if match else None
 
 
-#: A row's index in a section's name (``load.bins[2]``).
-_ROW_INDEX = re.compile(r"\[\d+\]$")
-
-
 class _Reader:
     """Walks the TOML tables, recording unknown keys and defaults taken."""
 
@@ -219,6 +213,9 @@ class _Reader:
         self.defaults: list[str] = []
         self.us_votes = 0
         self.si_votes = 0
+        #: The site's atmospheric pressure [Pa], once read: gauge pressures are made
+        #: absolute with it.
+        self.atm = q.STANDARD_ATMOSPHERE
 
     def table(self, name: str, required: bool = True) -> dict | None:
         value = self.data.get(name)
@@ -293,7 +290,7 @@ class _Reader:
         tables, ``load.bins[2]``, by the table's row ``load.bins.hours``); its default
         where the file leaves it out (required where the row has none)."""
         full = f"{section}.{key}"
-        row = keys.BY_NAME[_ROW_INDEX.sub("", section) + "." + key]
+        row = keys.BY_NAME[keys.ROW_INDEX.sub("", section) + "." + key]
         if key not in table:
             if row.default is None:
                 raise InputError(full, f"is required: a plain number {keys.accepted(row.key)}.")
@@ -316,6 +313,55 @@ class _Reader:
         if not isinstance(value, bool):
             raise InputError(f"{section}.{key}", f"takes true or false, got {value!r}.")
         return value
+
+    def whole(self, table: dict, section: str, key: str) -> int:
+        """A whole number, held to its row's range."""
+        row = keys.BY_NAME[f"{section}.{key}"]
+        value = table[key]
+        if isinstance(value, bool) or not isinstance(value, int) or not row.low <= value <= row.high:
+            raise InputError(f"{section}.{key}", f"takes a whole number from {row.low:g} to {row.high:g}, "
+                                                 f"got {value!r}.")
+        return value
+
+    def measured(self, table: dict, section: str, key: str):
+        """A quantity read by its row's measure (a pressure made absolute) and held to its
+        row's range."""
+        row = keys.BY_NAME[f"{section}.{key}"]
+        full, text = f"{section}.{key}", table[key]
+        self.vote(text)
+        if row.measure == "pressure":
+            value = q.pressure(full, text).absolute(self.atm)
+            check_pressure_range(full, value, text)
+        else:
+            value = _MEASURES[row.measure](full, text)
+        return keys.check_quantity(full, value, text) if row.words or row.low is not None else value
+
+    def plain(self, table: dict, section: str) -> dict:
+        """The plain keys of a section (:func:`stallcheck.files.keys.plain`), each read by
+        its row into the record's field of its name: given, defaulted, or left out."""
+        out: dict = {}
+        for row in keys.plain(section):
+            if row.kind == "number":
+                if row.name in table or row.default is not None or row.required:
+                    out[row.name] = self.number(table, section, row.name)
+            elif row.kind == "words":
+                if row.name in table or row.default is not None or row.required:
+                    out[row.name] = self.choice(table, section, row.name, row.choices, default=row.default)
+            elif row.name not in table:
+                continue
+            elif row.kind == "flag":
+                out[row.name] = self.flag(table, section, row.name)
+            elif row.kind == "whole":
+                out[row.name] = self.whole(table, section, row.name)
+            else:
+                out[row.name] = self.measured(table, section, row.name)
+        return out
+
+
+#: How a quantity of each measure is read (a pressure: :meth:`_Reader.measured`).
+_MEASURES = {"length": q.length, "diameter": q.length, "temperature": q.temperature,
+             "differential": q.differential, "mass_flow": q.mass_flow, "fraction": q.fraction,
+             "duration": q.duration, "mass": q.mass}
 
 
 def _kind(value) -> str:
@@ -344,7 +390,7 @@ def _build(data: dict, source: str, folder: str | Path | None = None) -> Unit:
         raise InputError("unit.tag", "takes a string, such as \"AHU-2 PHC\".")
 
     site = _site(r, folder)
-    atm = site.atmospheric_pressure
+    atm = r.atm = site.atmospheric_pressure
     design = _design(r, atm)
     steam = r.table("steam")
     supply = r.quantity(steam, "steam", "supply_pressure", q.pressure).absolute(atm)
@@ -397,9 +443,7 @@ def _weather(site: dict, folder: str | Path | None):
 
 def _costs(r: _Reader, site: dict) -> dict:
     """Hours and steam price, for yearly purge figures."""
-    out: dict = {}
-    if "hours_per_year" in site:
-        out["hours_per_year"] = r.number(site, "site", "hours_per_year")
+    out = r.plain(site, "site")
     if "steam_price" in site:
         out["steam_price"] = r.number(site, "site", "steam_price")
         if "steam_price_per" in site:
@@ -476,9 +520,7 @@ def _design(r: _Reader, atm: float) -> Design:
     if p > 2.0e6:
         raise InputError("design.steam_pressure", f"\"{d['steam_pressure']}\" is above 2 MPa (about 275 psig); "
                                                   "coils on modulating valves run far lower. Check the units.")
-    n = r.number(d, "design", "ua_flow_exponent")
-    method = r.choice(d, "design", "method", METHODS, default="ntu")
-    return Design(medium, concentration, flow.value, flow.is_mass, t_in, t_out, p, n, method)
+    return Design(medium, concentration, flow.value, flow.is_mass, t_in, t_out, p, **r.plain(d, "design"))
 
 
 def _valve(r: _Reader) -> Valve | None:
@@ -491,10 +533,7 @@ def _valve(r: _Reader) -> Valve | None:
         cv = r.number(v, "valve", "cv")
     else:
         cv = CV_PER_KV * r.number(v, "valve", "kv")
-    char = r.choice(v, "valve", "characteristic", CHARACTERISTICS)
-    rangeability = r.number(v, "valve", "rangeability")
-    xt = r.number(v, "valve", "xt")
-    return Valve(cv, char, rangeability, xt, "cv" if "cv" in v else "kv")
+    return Valve(cv=cv, given_as="cv" if "cv" in v else "kv", **r.plain(v, "valve"))
 
 
 def _load(r: _Reader, design: Design, weather: bool) -> Load:
@@ -505,7 +544,7 @@ def _load(r: _Reader, design: Design, weather: bool) -> Load:
         varies = default_varies
     else:
         varies = r.choice(table, "load", "varies", VARIES)
-    minimum = r.number(table, "load", "minimum")
+    plain = r.plain(table, "load")
     bins = []
     for section, b in r.rows(table, "load", "bins"):
         hours = r.number(b, section, "hours")
@@ -528,7 +567,7 @@ def _load(r: _Reader, design: Design, weather: bool) -> Load:
         raise InputError("load.bins", f"hold {total:,.0f} h in all, more than a year has; accepted: at most "
                                       f"8,784 h (a leap year) across the bins.")
     year = _year_keys(r, table, design, varies, weather)
-    return Load(varies, minimum, tuple(bins), **year)
+    return Load(varies, bins=tuple(bins), **plain, **year)
 
 
 #: Keys of [load] that shape the weather year: they take effect only with site.weather.
@@ -624,21 +663,4 @@ def _daily_hours(text) -> tuple[int, int]:
 
 def _geometry(r: _Reader) -> Geometry | None:
     g = r.table("geometry", required=False)
-    if g is None:
-        return None
-    tubes = r.choice(g, "geometry", "tubes", ("horizontal", "vertical")) if "tubes" in g else None
-    feed = r.choice(g, "geometry", "supply_feed", ("end", "center")) if "supply_feed" in g else None
-    coils = None
-    if "coils_per_trap" in g:
-        coils = g["coils_per_trap"]
-        if isinstance(coils, bool) or not isinstance(coils, int) or coils < 1:
-            raise InputError("geometry.coils_per_trap", f"takes a whole number of 1 or more, got {coils!r}.")
-    drop = r.quantity(g, "geometry", "drop_to_trap", q.length) if "drop_to_trap" in g else None
-    if drop is not None and drop < 0:
-        raise InputError("geometry.drop_to_trap", "cannot be negative.")
-    return Geometry(tubes=tubes, supply_feed=feed,
-                    distributing_tubes=r.flag(g, "geometry", "distributing_tubes"),
-                    pitched_to_return=r.flag(g, "geometry", "pitched_to_return"),
-                    coils_per_trap=coils, drop_to_trap=drop,
-                    drop_vented=r.flag(g, "geometry", "drop_vented"),
-                    drip_before_valve=r.flag(g, "geometry", "drip_before_valve"))
+    return None if g is None else Geometry(**r.plain(g, "geometry"))

@@ -7,13 +7,14 @@ to the same unit within about 1e-8.
 
 from __future__ import annotations
 
+import dataclasses
 import math
 import os
 from pathlib import Path
 
 from stallcheck.files import quantities as q
 
-from stallcheck.files import display
+from stallcheck.files import display, keys
 from stallcheck.files.unitfile import MONTHS
 from stallcheck.inputs import Unit
 
@@ -61,6 +62,21 @@ def dumps(unit: Unit, system: str | None = None, folder: str | Path | None = Non
     def number(x: float):
         return float(_g(x))
 
+    def plain(section: str, record, special: dict) -> dict:
+        """A section's keys in the key table's order: those its own code writes
+        (``special``), and its plain keys from the record's field of each name."""
+        out: dict = {}
+        for row in keys.KEYS:
+            if row.section != section:
+                continue
+            if row.name in special:
+                out[row.name] = special[row.name]
+            elif row.plain and record is not None:
+                value = getattr(record, row.name)
+                if value is not None and not (row.kind in ("words", "quantity") and value == _default(record, row.name)):
+                    out[row.name] = _plain(row, value, val, number)
+        return out
+
     d, dr, ld = unit.design, unit.drain, unit.load
     doc = tomlkit.document()
     doc["format"] = 1
@@ -72,12 +88,11 @@ def dumps(unit: Unit, system: str | None = None, folder: str | Path | None = Non
         site["atmospheric_pressure"] = f"{_g(display.express(atm, 'Pa', 'kPa'))} kPaa"
     if unit.site.weather is not None:
         site["weather"] = weather_path(unit, folder)
-    if unit.site.hours_per_year is not None:
-        site["hours_per_year"] = number(unit.site.hours_per_year)
     if unit.site.steam_price is not None:
         site.update(steam_price=number(unit.site.steam_price), steam_price_per=val(unit.site.steam_price_per, "mass"))
     if unit.site.currency:
         site["currency"] = unit.site.currency
+    site = plain("site", unit.site, site)
     if site:
         doc["site"] = site
 
@@ -91,16 +106,14 @@ def dumps(unit: Unit, system: str | None = None, folder: str | Path | None = Non
         design["flow"] = f"{_g(display.express(d.flow, 'm**3/s', volume))} {volume}"
     design.update(inlet_temperature=val(d.inlet_temperature, "temperature"),
                   outlet_temperature=val(d.outlet_temperature, "temperature"),
-                  steam_pressure=val(d.steam_pressure, "pressure"), ua_flow_exponent=number(d.ua_flow_exponent),
-                  method=d.method)
-    doc["design"] = design
+                  steam_pressure=val(d.steam_pressure, "pressure"))
+    doc["design"] = plain("design", d, design)
     doc["steam"] = {"supply_pressure": val(unit.supply_pressure, "pressure")}
     if unit.valve is not None:
         v = unit.valve
         coefficient = {"kv": number(v.cv / q.CV_PER_KV)} if v.given_as == "kv" else {"cv": number(v.cv)}
-        doc["valve"] = {**coefficient, "characteristic": v.characteristic, "rangeability": number(v.rangeability),
-                        "xt": number(v.xt)}
-    load: dict = {"varies": ld.varies, "minimum": number(ld.minimum)}
+        doc["valve"] = plain("valve", v, coefficient)
+    load: dict = {"varies": ld.varies}
     if unit.site.weather is not None:
         load["outdoor_air_minimum"] = number(ld.outdoor_air_minimum)
         if ld.return_air_temperature is not None:
@@ -115,47 +128,50 @@ def dumps(unit: Unit, system: str | None = None, folder: str | Path | None = Non
         load["bins"] = _rows([({"inlet_temperature": val(b.inlet_temperature, "temperature")}
                                if b.inlet_temperature is not None else {"load": number(b.load)})
                               | {"hours": number(b.hours)} for b in ld.bins])
-    doc["load"] = load
+    doc["load"] = plain("load", ld, load)
 
-    drain: dict = {"arrangement": dr.arrangement, "trap": dr.trap, "fill_head": val(dr.fill_head, "length"),
-                   "lift": val(dr.lift, "length"), "return_pressure": val(dr.return_pressure, "pressure"),
-                   "trap_min_differential": val(dr.trap_min_differential, "differential"),
-                   "capacity_margin": number(dr.capacity_margin)}
-    optional = [("trap_orifice", dr.trap_orifice, "diameter"), ("motive_pressure", dr.motive_pressure, "pressure"),
-                ("pump_fill_head", dr.pump_fill_head, "length"), ("pump_capacity", dr.pump_capacity, "mass_flow"),
-                ("purge_orifice", dr.purge_orifice, "diameter"), ("purge_rate", dr.purge_rate, "mass_flow"),
-                ("return_line", dr.return_line, "diameter"),
-                ("return_temperature", dr.return_temperature, "temperature"),
-                ("return_length", dr.return_length, "length"), ("return_wall", dr.return_wall, "diameter"),
-                ("return_rating", dr.return_rating, "pressure"), ("pump_rate", dr.pump_rate, "mass_flow")]
-    drain.update({key: val(value, kind) for key, value, kind in optional if value is not None})
-    if dr.pump_rate_volume is not None:
-        volume = "gpm" if system == "us" else "m3/h"
-        drain["pump_rate"] = f"{_g(display.express(dr.pump_rate_volume, 'm**3/s', volume))} {volume}"
-    if dr.return_pitch is not None:
-        drain["return_pitch"] = f"{_g(dr.return_pitch * 100.0)} %"
-    if dr.return_material != "steel":
-        drain["return_material"] = dr.return_material
-    if dr.check_closing_time:
-        drain["check_closing_time"] = f"{_g(dr.check_closing_time)} s"
+    drain: dict = {"fill_head": val(dr.fill_head, "length"), "lift": val(dr.lift, "length"),
+                   "return_pressure": val(dr.return_pressure, "pressure"),
+                   "trap_min_differential": val(dr.trap_min_differential, "differential")}
+    if dr.pump_capacity is not None:
+        drain["pump_capacity"] = val(dr.pump_capacity, "mass_flow")
     if dr.pump_table:
         drain["pump_capacity"] = _rows([{"back_pressure": val(back, "pressure"), "flow": val(flow, "mass_flow")}
                                         for back, flow in dr.pump_table])
+    if dr.pump_rate is not None:
+        drain["pump_rate"] = val(dr.pump_rate, "mass_flow")
+    if dr.pump_rate_volume is not None:
+        volume = "gpm" if system == "us" else "m3/h"
+        drain["pump_rate"] = f"{_g(display.express(dr.pump_rate_volume, 'm**3/s', volume))} {volume}"
     if dr.capacity:
         drain["capacity"] = _rows([{"differential": val(c.differential, "differential"),
                                     "flow": val(c.flow, "mass_flow")} for c in dr.capacity])
-    doc["drain"] = drain
+    doc["drain"] = plain("drain", dr, drain)
 
-    g = unit.geometry
-    if g is not None:
-        rows = {key: getattr(g, key) for key in ("tubes", "supply_feed", "distributing_tubes", "pitched_to_return",
-                                                 "drop_vented", "drip_before_valve", "coils_per_trap")
-                if getattr(g, key) is not None}
-        if g.drop_to_trap is not None:
-            rows["drop_to_trap"] = val(g.drop_to_trap, "length")
-        if rows:
-            doc["geometry"] = rows
+    geometry = plain("geometry", unit.geometry, {})
+    if geometry:
+        doc["geometry"] = geometry
     return tomlkit.dumps(doc)
+
+
+def _default(record, name: str):
+    """A record's own default for a field (None where it has none)."""
+    default = next(f.default for f in dataclasses.fields(record) if f.name == name)
+    return None if default is dataclasses.MISSING else default
+
+
+def _plain(row, value, val, number):
+    """A plain key's value as the file writes it (``val``: a quantity in the unit's
+    system; ``number``: a plain number to nine figures)."""
+    if row.kind == "number":
+        return number(value)
+    if row.kind != "quantity":
+        return value            # words, a flag, a whole number
+    if row.measure == "fraction":
+        return f"{_g(value * 100.0)} %"
+    if row.measure == "duration":
+        return f"{_g(value)} s"
+    return val(value, row.measure)
 
 
 def _rows(tables: list[dict]):
