@@ -232,6 +232,9 @@ class Drain:
         The trap's rated capacity against differential, differentials increasing.
     capacity_margin : float
         Margin on the full-load condensing rate when selecting the trap. [-]
+    trap_max_differential : float or None
+        The largest differential the trap opens against (its maker's maximum
+        operating differential), where given. [Pa]
     trap_orifice : float or None
         Bore of the trap seat, used where no capacity table is given. [m]
     motive_pressure : float or None
@@ -280,6 +283,7 @@ class Drain:
     trap_min_differential: float
     capacity: tuple[CapacityPoint, ...] = ()
     capacity_margin: float = DEFAULT_MARGIN
+    trap_max_differential: float | None = None
     trap_orifice: float | None = None
     motive_pressure: float | None = None
     pump_fill_head: float | None = None

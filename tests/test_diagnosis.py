@@ -134,6 +134,22 @@ SCENARIOS = {
 }
 
 
+def test_a_trap_over_its_rating_is_evidence_it_stays_shut_and_is_replaced_by_one_rated_for_it():
+    # a trap rated for 1 bar on a coil whose supply can put far more across it: the
+    # cold trap with the coil gauge high is then most likely shut by its differential,
+    # and the remedy does not ask for another of the same rating
+    text, extra, given = SCENARIOS["trap-failed-closed"]
+    d = _diagnose(text, 'trap_max_differential = "1 bar"\n', **given)
+    first = d.causes[0]
+    assert first.code == "trap-failed-closed" and "trap_over_rating" in first.evidence
+    from stallcheck.render.diagnosis import said
+
+    remedy = said(d)[0].remedy
+    assert "rated for the differential it can see" in remedy and "same rating" not in remedy
+    plain = _diagnose(text, extra, **given)
+    assert "same rating" in said(plain)[0].remedy
+
+
 @pytest.mark.parametrize("cause", sorted(SCENARIOS))
 def test_each_cause_ranks_first_on_its_evidence(cause):
     # A consequence (a coil split by frost) ranks after the cause to act on (the stall

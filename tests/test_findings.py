@@ -282,6 +282,28 @@ def test_trap_undersized_and_capacity_short_from_a_rated_table():
     assert found(fine, "trap-undersized") is None and found(fine, "trap-capacity-short") is None
 
 
+def test_a_trap_rated_for_less_differential_than_its_inlet_can_see():
+    # Common practice: a trap is rated (its maker's maximum operating differential) for
+    # the most its inlet can see against the least its outlet can: here the 15 psig
+    # supply with the control valve wide open, plus 18 in of fill head, against the
+    # open return with the line after it empty. At full load it sees the 5 psig coil
+    # plus the fill head against the back pressure (no lift: the same open return).
+    head = rho_liquid(ATM) * G * 18 * INCH
+    working, widest = 5 * PSI + head, 15 * PSI + head
+    f = found(analyse(drain={"trap_max_differential": "10 psi"}), "trap-differential-over-rating")
+    assert f is not None and f.severity == "warning" and f.parts[1] == "open"
+    assert f.facts["rated"] == pytest.approx(10 * PSI, rel=1e-9)
+    assert f.facts["working"] == pytest.approx(working, rel=1e-6)
+    assert f.facts["widest"] == pytest.approx(widest, rel=1e-6)
+    # rated under the full-load differential: it cannot open in normal running
+    f = found(analyse(drain={"trap_max_differential": "5 psi"}), "trap-differential-over-rating")
+    assert f is not None and f.severity == "danger" and f.parts[1] == "full"
+    # rated for the widest differential: nothing to say (nor without a rating)
+    assert found(analyse(drain={"trap_max_differential": f"{widest / PSI + 0.01:.2f} psi"}),
+                 "trap-differential-over-rating") is None
+    assert found(analyse(), "trap-differential-over-rating") is None
+
+
 def test_pump_trap_motive_low_against_the_back_pressure():
     # 6 psig motive against 8 ft of lift to an open return: the margin is the motive's
     # absolute pressure less 101.325 kPa + ρ·g·2.4384 m, well under the 15 psi wanted.

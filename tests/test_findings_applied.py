@@ -186,3 +186,12 @@ def test_the_station_elevation_printed_removes_the_elevation_note(system):
     text = message(r, "site-elevation-differs", system)
     printed = figure(text, "the station's,", "ft|m")
     assert found(analyse(site={"weather": GREENSBORO, "elevation": printed}), "site-elevation-differs") is None
+
+
+@pytest.mark.parametrize("system", SYSTEMS)
+def test_the_trap_rating_a_trap_over_its_rating_is_told_to_fit_is_enough(system):
+    # the differential printed, written as the new trap's rating, clears the finding
+    for rated in ("5 psi", "10 psi", "14.9 psi"):
+        text = message(analyse(drain={"trap_max_differential": rated}), "trap-differential-over-rating", system)
+        printed = figure(text, "Fit a trap rated for at least", "psi|kPa|bar")
+        assert found(analyse(drain={"trap_max_differential": printed}), "trap-differential-over-rating") is None

@@ -163,6 +163,7 @@ def test_a_plain_row_s_default_is_its_record_s():
 #: A value inside its range for each plain quantity, and one just outside (as written).
 QUANTITIES = {
     "drain.trap_orifice": ("0.25 in", "1.2 m"),
+    "drain.trap_max_differential": ("15 psi", "31 bar"),
     "drain.motive_pressure": ("50 psig", "3000 psig"),
     "drain.pump_fill_head": ("12 in", "10.1 m"),
     "drain.purge_orifice": ("3 mm", "0 mm"),

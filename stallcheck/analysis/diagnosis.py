@@ -72,7 +72,7 @@ CAUSES = (
           "trap_cold": 1, "noise_low_load": 1, "noise_mild_weather": 1, "trap_blowing": -3}),
     Cause("pump-trap-not-pumping", {"pump_flooding": 4, "pump_motive_low": 3, "pump_short": 3,
           "noise_low_load": 1, "noise_all_the_time": 1, "trap_blowing": -3}),
-    Cause("trap-failed-closed", {"trap_cold_with_differential": 4, "outlet_low": 1, "reading_high": 1,
+    Cause("trap-failed-closed", {"trap_cold_with_differential": 4, "trap_over_rating": 3, "outlet_low": 1, "reading_high": 1,
           "noise_all_the_time": 1, "trap_blowing": -5}),
     Cause("return-line-slugging", {"return_slugging": 4, "noise_all_the_time": 1, "noise_valve_opens": 1,
           "trap_hot": 1, "stalled_model": -1, "trap_cold": -1}),
@@ -103,7 +103,7 @@ REQUIRES = {
     "check-valve-slam": ("pump_surge_near_rating", "pump_surge_large"),
     "lift-column-shock": ("lift_surge_near_rating", "lift_surge_large"),
     "flash-into-cool-return": ("cool_return",),
-    "trap-failed-closed": ("trap_cold_with_differential",),
+    "trap-failed-closed": ("trap_cold_with_differential", "trap_over_rating"),
 }
 
 #: A vacuum breaker lets air in before the coil holds more vacuum than this [Pa]:
@@ -257,6 +257,7 @@ def _facts(unit, r, readings, load, model_p, condensate, back, fill, stalled_mod
         "pump_short": "pump-trap-undersized" in found,
         "trap_cold_with_differential": bool(readings.trap_outlet == "cold" and coil_reading is not None
                                             and installed != "pump-trap" and not stalled_gauges),
+        "trap_over_rating": "trap-differential-over-rating" in found,
         "drainage_covers_stall": bool(r.drainage.adequate and s.in_range),
         "stalled_model": bool(stalled_model),
         "stalled_gauges": bool(stalled_gauges),

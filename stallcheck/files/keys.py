@@ -157,6 +157,9 @@ KEYS = (
     Key("drain.capacity", "table", "the trap's rated capacity against differential"),
     Key("drain.capacity.differential", "quantity", "a row's differential"),
     Key("drain.capacity.flow", "quantity", "a row's rated flow"),
+    Key("drain.trap_max_differential", "quantity", "the largest differential the trap opens against, from its "
+        "maker", low=0.0, high=3.0e6, low_open=True, measure="differential", words="above 0 to 30 bar (435 psi)",
+        plain=True),
     Key("drain.capacity_margin", "number", "margin on the full-load condensate when selecting the trap",
         low=1.0, high=10.0, plain=True),
     Key("drain.trap_orifice", "quantity", "seat bore of the trap", low=0.0, low_open=True, high=1.0, measure="diameter",

@@ -116,7 +116,7 @@ CAUSE_WORDS = {
         ("With the coil gauge above the back pressure the trap should discharge: a cold trap with a "
          "cold pipe ahead of it means it is not opening. Test it (ultrasonic, or temperatures either "
          "side), then isolate it and look at the strainer and the trap's internals."),
-        "Clean the strainer, or repair or replace the trap with one of the same rating.",
+        "Clean the strainer, or repair or replace the trap {trap_replacement}.",
     ),
     "return-line-slugging": (
         "Flash steam drives condensate as slugs along the line from the trap (differential shock)",
@@ -184,6 +184,7 @@ FACT_WORDS = {
     "pump_motive_low": "the pump-trap's motive pressure is not well above the back pressure",
     "pump_short": "the condensate at the stall point is more than the pump-trap is rated for",
     "trap_cold_with_differential": "the trap outlet is cold although the coil gauge is above the back pressure",
+    "trap_over_rating": "the trap is rated for less differential than it can see (drain.trap_max_differential)",
     "drainage_covers_stall": ("the installed drainage is the one the check requires for its stall, so a stall floods the "
      "coil only where that equipment fails"),
     "return_slugging": "by the flow-pattern map the line from the trap runs in slug flow (see the return line)",
@@ -217,7 +218,12 @@ def drain_context(r: Result) -> dict:
                  + (", or make one of the changes under 'what to do'." if changes else
                     "; by the check no single change lets the installed drainage do it."))
         freeze = f"Drain the coil so it cannot hold water at any load: fit {required} as the check requires."
-    return {"drain_advice": drain, "freeze_advice": freeze, "required_words": required}
+    # a trap rated for less differential than it sees is replaced by one that is rated for it
+    over = any(f.code == "trap-differential-over-rating" for f in r.findings)
+    replacement = ("with one rated for the differential it can see (the check's trap-differential-over-rating)"
+                   if over else "with one of the same rating")
+    return {"drain_advice": drain, "freeze_advice": freeze, "required_words": required,
+            "trap_replacement": replacement}
 
 
 @dataclass(frozen=True)

@@ -171,6 +171,16 @@ FINDINGS: dict[str, dict[str, str]] = {
             "condensate, {required:mass_flow+} (VA HVAC Design Manual: 1.5-2 x; NAVFAC MO-209: 2-4 x). "
             "Select a larger trap on its hot-condensate rating.",
     },
+    "trap-differential-over-rating": {
+        "": "The trap opens against at most {rated:differential} (its maker's rating), ",
+        "full": "less than the {working:differential+} across it at full load: its valve stays shut and the coil "
+                "floods in normal running. ",
+        "open": "less than the {widest:differential+} across it with the control valve wide open (start-up, a "
+                "cold pull-down) and the line after it empty: its valve stays shut and the coil floods until the "
+                "pressure falls. ",
+        "fix": "Fit a trap rated for at least {widest:differential+}, the supply pressure and fill head less the "
+               "return pressure (common practice: rate a trap for the most its inlet can see).",
+    },
     "pump-trap-motive-low": {
         "": "The pump-trap's motive pressure {motive:pressure}",
         "supply": " (the supply pressure; drain.motive_pressure not given)",
