@@ -227,3 +227,21 @@ def test_a_trap_short_two_points_above_the_stall_is_reported(side):
     g, r = gap(hi)
     assert g == pytest.approx(side * 0.02, abs=2e-5)
     assert (found(r, "trap-capacity-short") is not None) == (side > 1)
+
+
+@pytest.mark.parametrize("side", SIDES)
+def test_a_liquid_is_evaluated_up_to_a_mean_of_150_c(side):
+    # The liquid property data used (CoolProp's water, from memory, taken to 150 °C for
+    # the media here): a water heater whose mean design temperature is 5 % either side of
+    # 150 °C (in °C), on 10 barg steam (about 184 °C, IF97), is read or refused.
+    from stallcheck.errors import InputError
+
+    mean = 150.0 * side
+    design = {"medium": "water", "flow": "5 kg/s", "inlet_temperature": f"{mean - 10:.3f} degC",
+              "outlet_temperature": f"{mean + 10:.3f} degC", "steam_pressure": "10 barg"}
+    tables = dict(design=design, steam={"supply_pressure": "12 barg"}, load={"varies": "flow", "minimum": 0.2})
+    if side < 1:
+        assert analyse(**tables).design.coil_pressure > 0
+    else:
+        with pytest.raises(InputError, match="150 °C"):
+            analyse(**tables)

@@ -23,7 +23,7 @@ from stallcheck.analysis import lines as linesmod
 from stallcheck.analysis import year as yearmod
 from stallcheck.errors import InputError, StallcheckError
 from stallcheck.files import quantities as q
-from stallcheck.files import display
+from stallcheck.files import display, refusals
 from stallcheck.inputs import Unit
 from stallcheck.physics import coil as coilmod
 from stallcheck.analysis import devices
@@ -120,9 +120,7 @@ def analyse_many(units: list[Unit], system: str | None = None, method: str | Non
             try:
                 results = _analyse(batch, [system or u.system for u in batch], points, complete)
             except RuntimeWarning as exc:
-                raise InputError("", f"a figure cannot be computed from these values ({exc}); check them for one "
-                                     f"far outside any plant.", file=batch[0].source if len(batch) == 1 else None) \
-                    from None
+                raise refusals.not_computable(str(exc), batch[0].source if len(batch) == 1 else None) from None
         for i, result in zip(good, results):
             out[i] = result
     return out
@@ -139,45 +137,23 @@ def _screen(units: list[Unit]) -> list[InputError | None]:
     t_steam = properties.saturation_temperature(np.clip(p_design, properties.P_MIN, properties.P_CRIT))
     for i, u in enumerate(units):
         d = u.design
-        system = u.system
         if d.outlet_temperature >= t_steam[i] - 0.5:
-            errors[i] = InputError(
-                "design.outlet_temperature",
-                f"the set point {display.show(d.outlet_temperature, 'temperature', system)} is not below the steam "
-                f"temperature at design.steam_pressure ({display.show(float(t_steam[i]), 'temperature', system)}); the "
-                f"coil cannot heat to it. Raise the design steam pressure or lower the set point.", file=u.source)
+            errors[i] = refusals.set_point_above_steam(u, float(t_steam[i]))
         elif d.medium.endswith("glycol") and d.inlet_temperature <= (t_freeze := _freezing(d)) + 0.5:
-            errors[i] = InputError(
-                "design.inlet_temperature",
-                f"{display.show(d.inlet_temperature, 'temperature', system)} is at or below the freezing point of "
-                f"{d.concentration:.0%} {d.medium} ({display.show(t_freeze, 'temperature', system)}, from CoolProp's "
-                f"mixture data); accepted: warmer than that.", file=u.source)
+            errors[i] = refusals.glycol_frozen(u, t_freeze)
         elif (u.drain.return_temperature is not None and u.drain.return_temperature
               > (t_sat := float(properties.saturation_temperature(u.drain.return_pressure))) + 0.5):
-            errors[i] = InputError(
-                "drain.return_temperature",
-                f"{display.show(u.drain.return_temperature, 'temperature', system)} is hotter than water boils at the "
-                f"return pressure ({display.show(t_sat, 'temperature', system)}); condensate standing in the return "
-                f"cannot be. Accepted: at or below that.", file=u.source)
-        elif d.medium != "air" and 0.5 * (d.inlet_temperature + d.outlet_temperature) >= 423.15:
-            errors[i] = InputError("design.outlet_temperature", "liquid media are evaluated up to a mean "
-                                   "temperature of 150 °C; this unit's mean design temperature is higher.",
-                                   file=u.source)
+            errors[i] = refusals.return_above_boiling(u, t_sat)
+        elif d.medium != "air" and 0.5 * (d.inlet_temperature + d.outlet_temperature) >= refusals.HOTTEST_LIQUID:
+            errors[i] = refusals.liquid_too_hot(u)
     motive = [i for i in range(n) if errors[i] is None and units[i].drain.motive_pressure is not None]
     if motive:
         ret = np.array([units[i].drain.return_pressure for i in motive])
         lift = np.array([units[i].drain.lift for i in motive])
         back = drainage.back_pressure(ret, lift, properties.liquid_density(ret))
         for i, b in zip(motive, back):
-            u = units[i]
-            if u.drain.motive_pressure <= b:
-                atm = u.site.atmospheric_pressure
-                errors[i] = InputError(
-                    "drain.motive_pressure",
-                    f"{display.show(u.drain.motive_pressure, 'pressure', u.system, atm)} is not above the back pressure "
-                    f"on the drain ({display.show(float(b), 'pressure', u.system, atm)}: return pressure plus lift); a "
-                    f"pump-trap cannot push against it. Give the motive steam or air pressure at the pump-trap "
-                    f"inlet.", file=u.source)
+            if units[i].drain.motive_pressure <= b:
+                errors[i] = refusals.motive_below_back(units[i], float(b))
     return errors
 
 

@@ -19,8 +19,7 @@ import numpy as np
 from stallcheck import analysis
 from stallcheck.analysis.findings import POOR_AT_LOW_DIFFERENTIAL
 from stallcheck.analysis.layout import NEAR_STALL
-from stallcheck.errors import InputError
-from stallcheck.files import display
+from stallcheck.files import refusals
 from stallcheck.files.readings import Readings
 from stallcheck.inputs import Unit
 from stallcheck.physics import coil as coilmod
@@ -185,10 +184,7 @@ def diagnose(unit: Unit, result: Result, readings: Readings) -> Diagnosis:
     t_out_limit = float(properties.saturation_temperature(
         readings.coil_pressure if readings.coil_pressure is not None else r.supply_pressure))
     if readings.outlet_temperature is not None and readings.outlet_temperature >= t_out_limit:
-        raise InputError("--outlet-temperature",
-                         f"{display.show(readings.outlet_temperature, 'temperature', r.system)} is at or above the steam "
-                         f"temperature ({display.show(t_out_limit, 'temperature', r.system)}); the coil cannot heat "
-                         f"above it. Check the thermometer and the units.", file=unit.source)
+        raise refusals.outlet_above_steam(unit, readings.outlet_temperature, t_out_limit, r.system)
 
     # --- the operating point --------------------------------------------------------
     load, basis = readings.load, "given" if readings.load is not None else ""

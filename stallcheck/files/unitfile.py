@@ -3,7 +3,8 @@
 Every input error is raised here, before any physics, as an
 :class:`~stallcheck.errors.InputError` that names the file, the key and what is
 accepted. Checks that need steam properties (the set point against the steam
-temperature) are made in :mod:`stallcheck.analysis`, still as ``InputError``.
+temperature) are made in :mod:`stallcheck.analysis`, still as ``InputError``, worded in
+:mod:`stallcheck.files.refusals`.
 The format is fixed in the README's "Unit file" section.
 """
 
