@@ -14,15 +14,11 @@ import numpy as np
 
 SEVERITIES = ("info", "warning", "danger")
 
-CAUTIONS = (
-    "Screening aid only: it does not replace the equipment makers' data, local codes "
-    "and licensed engineering practice, which govern installation and remedies.",
-    "Steam and condensate scald and can burst coils, traps and piping. Make a banging "
-    "(water-hammering) system safe - isolate, drain and cool it - before studying it.",
-)
-#: Added to the cautions where hours come from a weather file.
-YEAR_CAUTION = ("Hours from a typical weather year are typical, not a guarantee: a colder or longer winter "
-                "stalls the coil longer.")
+#: The cautions every result carries, as codes (their words: ``render/words.CAUTION_WORDS``):
+#: a screening aid only, and steam's hazards.
+CAUTIONS = ("screening-aid", "steam-hazard")
+#: Added to the cautions where hours come from a weather file: a typical year is typical.
+YEAR_CAUTION = "typical-year"
 
 
 

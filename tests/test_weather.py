@@ -281,6 +281,16 @@ def test_the_weather_sample_shows_its_year_in_check_json_report_and_survey(tmp_p
     runner.invoke(app, ["survey", str(SAMPLE), "--csv", str(table)])
     row = next(csv.DictReader(io.StringIO(table.read_text(encoding="utf-8"))))
     assert row["hours_from"] == "weather" and int(row["stalled_freezing_hours"]) == w["hours_stalled_freezing"]
+    # a survey's end line says the typical-year caution where any unit's hours come from a year
+    lines = runner.invoke(app, ["survey", str(SAMPLE), str(ROOT / "sample_units" / "si_water_heater.toml"),
+                                "--json"]).output.splitlines()
+    end = json.loads(lines[-1])
+    assert end["record"] == "end" and any("typical, not a guarantee" in c for c in end["cautions"])
+    assert out["cautions"] == end["cautions"]
+    # and the table says every caution, the typical year's among them
+    text = runner.invoke(app, ["survey", str(SAMPLE)], env={"COLUMNS": "80", "NO_COLOR": "1"}).output
+    said = " ".join(text.split())
+    assert all(" ".join(c.split()) in said for c in out["cautions"]) and "Caution: Hours from a typical" in text
 
 
 def test_the_year_picture_is_drawn(tmp_path):

@@ -7,7 +7,7 @@ from dataclasses import dataclass
 
 from stallcheck.analysis.diagnosis import Diagnosis
 from stallcheck.files import display
-from stallcheck.render import advice
+from stallcheck.render import advice, words
 from stallcheck.render import json as json_out
 from stallcheck.render.page import BLANK, Para, bullets, runs
 from stallcheck.render.page import heading as _heading
@@ -323,7 +323,7 @@ def report(d: Diagnosis, system: str, width: int = 80) -> list:
         rows += [("confirm", c.confirm, None), ("remedy", c.remedy, None)]
         parts += [Para(((text, style),), 12, runs(f"  {label}".ljust(12))) for label, text, style in rows]
         parts.append(BLANK)
-    parts += [_heading("Caution"), *bullets(r.cautions)]
+    parts += [_heading("Caution"), *bullets(words.cautions(r.cautions))]
     return parts
 
 
@@ -355,7 +355,7 @@ def to_dict(d: Diagnosis) -> dict:
         "causes": [{"code": c.code, "title": c.title, "score": c.score, "evidence": list(c.evidence),
                     "against": list(c.against), "confirm": c.confirm, "remedy": c.remedy} for c in said(d)],
         "check": json_out.to_dict(d.result),
-        "cautions": list(d.result.cautions),
+        "cautions": words.cautions(d.result.cautions),
         "exit_status": d.exit_status,
     }
 

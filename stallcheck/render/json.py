@@ -129,7 +129,7 @@ def to_dict(r: Result, sentences: bool = True) -> dict:
                      for f in r.findings],
         "assumptions": list(words.assumptions(r, r.system)),
         "warnings": list(r.warnings),
-        "cautions": list(r.cautions),
+        "cautions": words.cautions(r.cautions),
         "exit_status": r.exit_status,
     }
     return out

@@ -121,7 +121,7 @@ def markdown(unit: Unit, r: Result, system: str, version: str, date: str, pictur
 
     out += ["## Findings", ""]
     out += [f"- **{SEVERITY_WORD[f.severity]}** `{f.code}`: {words.finding(f, r, system)}" for f in r.findings] or ["None."]
-    out += ["", "## Cautions", ""] + [f"- {c}" for c in r.cautions] + [""]
+    out += ["", "## Cautions", ""] + [f"- {c}" for c in words.cautions(r.cautions)] + [""]
     return "\n".join(out)
 
 

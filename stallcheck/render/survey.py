@@ -11,7 +11,7 @@ from stallcheck.errors import printable
 from stallcheck.files import display
 from stallcheck.render import json as json_out
 from stallcheck.render import words
-from stallcheck.result import CAUTIONS
+from stallcheck.result import CAUTIONS, YEAR_CAUTION
 
 SEVERITY_STYLE = {"danger": "bold red", "warning": "yellow", "info": "cyan"}
 
@@ -92,6 +92,9 @@ def _count(summaries: list[Summary], failures: list[Failure], system: str | None
                     f"(--units {other} for {display.label('temperature', other)}).", "dim"))
     if failures:
         out.append((f"{len(failures):,} could not be read: see the messages on stderr", "bold red"))
+    # the cautions every page carries, and a typical year's where any unit's hours come from one
+    codes = CAUTIONS + ((YEAR_CAUTION,) if any(s.hours_from == "weather" for s in summaries) else ())
+    out.extend((f"Caution: {text}", "dim") for text in words.cautions(codes))
     return out
 
 
@@ -197,6 +200,8 @@ class JsonStream:
         self.points = points
         self.words = words
         self.count = 0
+        #: The cautions of every result streamed (codes): the end line says them once.
+        self.cautions: set[str] = set(CAUTIONS)
 
     def _line(self, record: str, fields: dict) -> None:
         self.out.write(json_out.text({**fields, "format": SURVEY_FORMAT, "record": record}, compact=True) + "\n")
@@ -208,9 +213,10 @@ class JsonStream:
             contract.pop("points", None)
         self._line("result", json_out.figures(contract))
         self.count += 1
+        self.cautions.update(result.cautions)
 
     def close(self, failures: list[Failure], status: int) -> None:
         for f in failures:
             self._line("error", {"source": f.source, "message": f.message})
         self._line("end", {"units": self.count + len(failures), "errors": len(failures), "exit_status": status,
-                           "cautions": list(CAUTIONS)})
+                           "cautions": words.cautions(self.cautions)})

@@ -178,7 +178,7 @@ def report(result: Result, system: str, width: int = 80) -> list:
     parts += [_heading("Assumptions"), *bullets(words.assumptions(r, system), style="dim"), BLANK]
     if r.warnings:
         parts += [_heading("Input warnings"), *bullets(r.warnings, style="yellow"), BLANK]
-    parts += [_heading("Caution"), *bullets(r.cautions)]
+    parts += [_heading("Caution"), *bullets(words.cautions(r.cautions))]
     return parts
 
 

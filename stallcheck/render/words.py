@@ -578,6 +578,24 @@ def drainage_reasons(drainage, system: str, atmospheric: float) -> tuple[str, st
 # --- the assumptions --------------------------------------------------------------
 
 
+#: The cautions' words, by the codes a result carries (``Result.cautions``).
+CAUTION_WORDS = {
+    "screening-aid": ("Screening aid only: it does not replace the equipment makers' data, local codes "
+                      "and licensed engineering practice, which govern installation and remedies."),
+    "steam-hazard": ("Steam and condensate scald and can burst coils, traps and piping. Make a banging "
+                     "(water-hammering) system safe - isolate, drain and cool it - before studying it."),
+    "typical-year": ("Hours from a typical weather year are typical, not a guarantee: a colder or longer winter "
+                     "stalls the coil longer."),
+}
+
+
+def cautions(codes) -> list[str]:
+    """The cautions, in words, of the codes given (a result's, or several results'), in
+    :data:`CAUTION_WORDS`' order and each once."""
+    given = set(codes)
+    return [text for code, text in CAUTION_WORDS.items() if code in given]
+
+
 def assumptions(r, system: str) -> tuple[str, ...]:
     """What the analysis took as given, in sentences (empty for a result made without
     its basis, as a survey's table makes them): the method, the atmosphere, the steam
