@@ -28,10 +28,10 @@ from stallcheck.render import advice, page, terminal, words
 from stallcheck.render import json as json_out
 
 #: Dangers a verdict of adequate drainage does not cover: the surge where a column is
-#: stopped, a pump-trap's motive, and the layouts that trap steam pockets whatever
-#: drains the coil (each its own mechanism).
-OTHER_MECHANISMS = {"hydraulic-shock", "pump-trap-motive-low", "tube-fill-both-ends", "group-trapping",
-                    "tubes-not-pitched"}
+#: stopped, a pump-trap's motive, a trap rated for less differential than it has, and
+#: the layouts that trap steam pockets whatever drains the coil (each its own mechanism).
+OTHER_MECHANISMS = {"hydraulic-shock", "pump-trap-motive-low", "trap-differential-over-rating",
+                    "tube-fill-both-ends", "group-trapping", "tubes-not-pitched"}
 #: Words that prescribe equipment, followed by the arrangement's name.
 PRESCRIBE = re.compile(r"\b(?:[Ff]it|[Ii]nstall|[Dd]rain it with)(?: a| an)? (pump-trap|trap-vacuum-breaker|"
                        r"vacuum breaker|constant-purge|constant purge)\b")
@@ -110,11 +110,13 @@ def test_every_section_of_a_sample_tells_one_story(sample, system):
     _story(analysis.analyse(unit, system=system), system)
 
 
+@pytest.mark.parametrize("rated", [None, "2 psi"])
 @pytest.mark.parametrize("lift", ["8 ft", "20 ft"])
 @pytest.mark.parametrize("arrangement", ["trap", "trap-vacuum-breaker", "pump-trap", "constant-purge"])
-def test_each_arrangement_installed_on_a_lifted_coil_tells_one_story(arrangement, lift):
+def test_each_arrangement_installed_on_a_lifted_coil_tells_one_story(arrangement, lift, rated):
     # a lift behind the trap of a 5 psig coil, every arrangement installed in turn: 8 ft
-    # stalls it in its range, 20 ft (8.7 psi of water) at full load
+    # stalls it in its range, 20 ft (8.7 psi of water) at full load; and its trap rated
+    # for 2 psi, less than it has at full load under 8 ft of lift
     data = {"format": 1, "unit": {"name": "Harrow Lane AHU-9 preheat"},
             "design": {"medium": "air", "flow": "6000 cfm", "inlet_temperature": "0 degF",
                        "outlet_temperature": "55 degF", "steam_pressure": "5 psig"},
@@ -124,6 +126,8 @@ def test_each_arrangement_installed_on_a_lifted_coil_tells_one_story(arrangement
                       "purge_rate": "10 lb/h"}}
     if arrangement != "constant-purge":
         del data["drain"]["purge_rate"]
+    if rated is not None:
+        data["drain"]["trap_max_differential"] = rated
     r = analysis.analyse(unitfile.from_data(data, "harrow.toml"))
     assert (r.stall.load_fraction >= 1.0) == (lift == "20 ft")
     for system in ("us", "si"):
