@@ -216,3 +216,15 @@ def test_every_plain_key_written_reads_back_the_same(row, system):
     first, second = getattr(unit, row.section), getattr(again, row.section)
     first, second = getattr(first, row.name), getattr(second, row.name)
     assert second == (pytest.approx(first, rel=1e-8) if isinstance(first, float) else first)
+
+
+def test_every_key_of_the_table_is_in_the_reference_s_unit_file_section():
+    # the reference documents every key a file takes: a row added without its line in
+    # docs/reference.md fails here
+    root = Path(__file__).resolve().parent.parent
+    text = (root / "docs" / "reference.md").read_text(encoding="utf-8")
+    section = text[text.index("## The unit file"):text.index("## The result contract")]
+    missing = [row.key for row in keys.KEYS
+               if not any(f"{form}" in section for form in (f"`{row.name}`", f"] {row.name}`", f"[{row.key}]`",
+                                                             f"[[{row.key}]]`", f"`[{row.key}] "))]
+    assert not missing, missing
