@@ -406,3 +406,20 @@ def test_a_survey_of_si_and_us_files_says_which_temperatures_it_shows():
     assert "Temperatures in" not in forced and "°C" in forced
     one = CliRunner().invoke(app, ["survey", str(ROOT / "sample_units" / "si_water_heater.toml")]).output
     assert "Temperatures in" not in one
+
+
+@pytest.mark.parametrize("sample", SAMPLES, ids=lambda p: p.name)
+def test_the_contract_without_sentences_is_the_contract_less_its_listed_sentences(sample):
+    # survey --json builds no sentence it drops: its contract is check --json's with the
+    # places json.SENTENCES lists left out, and nothing else missing
+    from stallcheck import analysis
+    from stallcheck.files import unitfile
+    from stallcheck.render import json as json_out
+
+    r = analysis.analyse(unitfile.load(sample))
+    full = json_out.to_dict(r)
+    for field, key in json_out.SENTENCES:
+        holder = full if field is None else full[field]
+        for item in holder if isinstance(holder, list) else (holder,):
+            item.pop(key)
+    assert json_out.to_dict(r, sentences=False) == full

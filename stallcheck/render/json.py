@@ -33,8 +33,6 @@ SENTENCES = (("findings", "message"), ("remedies", "note"), ("drainage", "reason
 def to_dict(r: Result, sentences: bool = True) -> dict:
     """The result as plain JSON-ready data (the contract); without ``sentences``, the
     figures and codes only: none of the :data:`SENTENCES`."""
-    if not sentences:
-        return _without_sentences(r)
     pts = r.points
     limited = pts.valve_limited if pts is not None else ()
     points = []
@@ -99,7 +97,8 @@ def to_dict(r: Result, sentences: bool = True) -> dict:
             "installed": r.drainage.installed,
             "required": r.drainage.required,
             "adequate": r.drainage.adequate,
-            "reasons": list(words.drainage_reasons(r.drainage, r.system, r.atmospheric_pressure)),
+            **({"reasons": list(words.drainage_reasons(r.drainage, r.system, r.atmospheric_pressure))}
+               if sentences else {}),
         },
         "valve": None if v is None else {
             "cv": v.cv,
@@ -122,14 +121,14 @@ def to_dict(r: Result, sentences: bool = True) -> dict:
         "surge": _surge(r),
         "remedies": [{"key": m.key, "status": m.remedy.status, "current_si": m.remedy.current,
                       "value_si": m.remedy.value, "unit_si": _SI_UNIT[m.remedy.kind],
-                      "achievable": m.remedy.achievable, "note": m.note}
+                      "achievable": m.remedy.achievable, **({"note": m.note} if sentences else {})}
                      for m in advice.lines(r, r.system)],
-        "advice": _advice(r),
-        "findings": [{"code": f.code, "severity": f.severity, "message": words.finding(f, r, r.system)}
-                     for f in r.findings],
-        "assumptions": list(words.assumptions(r, r.system)),
+        "advice": _advice(r, sentences),
+        "findings": [{"code": f.code, "severity": f.severity,
+                      **({"message": words.finding(f, r, r.system)} if sentences else {})} for f in r.findings],
+        **({"assumptions": list(words.assumptions(r, r.system))} if sentences else {}),
         "warnings": list(r.warnings),
-        "cautions": words.cautions(r.cautions),
+        **({"cautions": words.cautions(r.cautions)} if sentences else {}),
         "exit_status": r.exit_status,
     }
     return out
@@ -140,11 +139,13 @@ def to_dict(r: Result, sentences: bool = True) -> dict:
 _SI_UNIT = {"length": "m", "pressure": "Pa", "differential": "Pa", "cv": "Cv"}
 
 
-def _advice(r: Result):
+def _advice(r: Result, sentences: bool = True):
     a = advice.advise(r, r.system)
-    return {"mode": a.mode, "fit": a.fit, "margin_kpa": display.kpa(MARGIN),
-            "text": list(a.lead) + [f"{m.key}: {m.note}" for m in a.changes]
-            + [f"{m.key}: {m.note}" for m in a.cannot] + list(a.notes)}
+    out = {"mode": a.mode, "fit": a.fit, "margin_kpa": display.kpa(MARGIN)}
+    if sentences:
+        out["text"] = (list(a.lead) + [f"{m.key}: {m.note}" for m in a.changes]
+                       + [f"{m.key}: {m.note}" for m in a.cannot] + list(a.notes))
+    return out
 
 
 def _hours_from(r: Result) -> str | None:
@@ -288,16 +289,6 @@ def _surge(r: Result):
         "rating_kpa": display.kpa(sh.rating),
         "slow_closing_time_s": sh.slow_closing_time,
     }
-
-
-def _without_sentences(r: Result) -> dict:
-    """:func:`to_dict` without the :data:`SENTENCES`."""
-    out = to_dict(r)
-    for field, key in SENTENCES:
-        holder = out if field is None else out[field]
-        for item in holder if isinstance(holder, list) else (holder,):
-            item.pop(key)
-    return out
 
 
 def figures(obj, digits: int = 8):
