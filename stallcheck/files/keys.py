@@ -55,9 +55,11 @@ class Key:
         range), ``"differential"``, ``"mass_flow"``, ``"fraction"`` (a %),
         ``"duration"``, ``"mass"``.
     words : str
-        A quantity's range as the message says it, in both systems of units.
+        A quantity's range as the message says it, in both systems of units; for free
+        words, what they are ("a short text such as ...").
     choices : tuple of str
-        For words: the values taken.
+        For words: the values taken; none for free words (any text up to ``high``
+        characters, its ends' spaces dropped).
     required : bool
         A plain key the file must give.
     plain : bool
@@ -102,7 +104,8 @@ KEYS = (
         low=0.0, high=HOURS_A_YEAR, plain=True),
     Key("site.steam_price", "number", "price of steam per site.steam_price_per", low=0.0, high=1e6),
     Key("site.steam_price_per", "quantity", "the mass of steam the price is for"),
-    Key("site.currency", "words", "the price's currency, shown beside costs"),
+    Key("site.currency", "words", "the price's currency, shown beside costs", high=12,
+        words="a short text such as \"USD\" or \"EUR\"", plain=True),
     Key("site.weather", "words", "an hourly EPW or TMY3 CSV weather year, relative to the unit file"),
     Key("design", "table", "the selection point: full load"),
     Key("design.medium", "words", "the medium on the other side of the coil"),

@@ -315,6 +315,14 @@ class _Reader:
             raise InputError(f"{section}.{key}", f"takes true or false, got {value!r}.")
         return value
 
+    def text(self, table: dict, section: str, key: str) -> str:
+        """Free words, up to their row's length, the ends' spaces dropped."""
+        row = keys.BY_NAME[f"{section}.{key}"]
+        value = table[key]
+        if not isinstance(value, str) or len(value) > row.high:
+            raise InputError(f"{section}.{key}", f"takes {row.words}.")
+        return value.strip()
+
     def whole(self, table: dict, section: str, key: str) -> int:
         """A whole number, held to its row's range."""
         row = keys.BY_NAME[f"{section}.{key}"]
@@ -345,6 +353,9 @@ class _Reader:
             if row.kind == "number":
                 if row.name in table or row.default is not None or row.required:
                     out[row.name] = self.number(table, section, row.name)
+            elif row.kind == "words" and not row.choices:
+                if row.name in table:
+                    out[row.name] = self.text(table, section, row.name)
             elif row.kind == "words":
                 if row.name in table or row.default is not None or row.required:
                     out[row.name] = self.choice(table, section, row.name, row.choices, default=row.default)
@@ -453,10 +464,6 @@ def _costs(r: _Reader, site: dict) -> dict:
             out["steam_price_per"] = per
     elif "steam_price_per" in site:
         raise InputError("site.steam_price_per", "is given without site.steam_price; give both or neither.")
-    currency = site.get("currency", "")
-    if not isinstance(currency, str) or len(currency) > 12:
-        raise InputError("site.currency", "takes a short text such as \"USD\" or \"EUR\".")
-    out["currency"] = currency.strip()
     return out
 
 

@@ -90,8 +90,6 @@ def dumps(unit: Unit, system: str | None = None, folder: str | Path | None = Non
         site["weather"] = weather_path(unit, folder)
     if unit.site.steam_price is not None:
         site.update(steam_price=number(unit.site.steam_price), steam_price_per=val(unit.site.steam_price_per, "mass"))
-    if unit.site.currency:
-        site["currency"] = unit.site.currency
     site = plain("site", unit.site, site)
     if site:
         doc["site"] = site
