@@ -128,8 +128,7 @@ READ_BY_CODE = {
     "Valve": {"cv", "given_as"},
     "Load": {"varies", "bins", "outdoor_air_minimum", "return_air_temperature", "mixed_air_temperature", "season",
              "daily_hours"},
-    "Drain": {"fill_head", "lift", "return_pressure", "trap_min_differential", "capacity", "pump_capacity",
-              "pump_table", "pump_rate", "pump_rate_volume"},
+    "Drain": {"capacity", "pump_capacity", "pump_table", "pump_rate", "pump_rate_volume"},
     "Geometry": set(),
 }
 
@@ -161,6 +160,10 @@ def test_a_plain_row_s_default_is_its_record_s():
 
 #: A value inside its range for each plain quantity, and one just outside (as written).
 QUANTITIES = {
+    "drain.fill_head": ("18 in", "101 m"),
+    "drain.lift": ("4 ft", "-1 ft"),
+    "drain.return_pressure": ("5 psig", "3000 psig"),
+    "drain.trap_min_differential": ("0.25 psi", "3 bar"),
     "drain.trap_orifice": ("0.25 in", "1.2 m"),
     "drain.trap_max_differential": ("15 psi", "31 bar"),
     "drain.motive_pressure": ("50 psig", "3000 psig"),
@@ -193,7 +196,8 @@ def test_a_plain_quantity_is_read_in_its_range_and_refused_outside_naming_its_ke
     with pytest.raises(InputError) as err:
         unitfile.from_data(data, "pellham.toml")
     assert err.value.key == key
-    assert any(said in err.value.message for said in ("out of range", "greater than zero", "critical pressure"))
+    assert any(said in err.value.message for said in ("out of range", "greater than zero", "critical pressure",
+                                                      "cannot be negative"))
 
 
 @pytest.mark.parametrize("system", ["us", "si"])

@@ -1,13 +1,15 @@
-"""The ``[drain]`` table of a unit file: the installed arrangement, the heights and
-pressures that decide drainage, the trap's and pump-trap's ratings, a purge, and the
-line from the trap (its bore, run, pitch, wall and rating, and what drives or stops the
-flow in it). Read by :mod:`stallcheck.files.unitfile`."""
+"""The ``[drain]`` table of a unit file. Its plain keys (the arrangement, heights and
+pressures that decide drainage, the trap's ratings, a purge, the line from the trap) are
+read from their rows in the key table; read here are those that depend on others: the
+trap's rated table, a pump-trap's capacity (a figure or a table against back pressure)
+and discharge rate (by mass or volume), and a purge given one way only. Read by
+:mod:`stallcheck.files.unitfile`."""
 
 from __future__ import annotations
 
 from stallcheck.errors import InputError
 from stallcheck.files import quantities as q
-from stallcheck.files.ranges import TRAP_DIFFERENTIAL_LIMIT, check_pressure_range, require_positive
+from stallcheck.files.ranges import check_pressure_range, require_positive
 from stallcheck.inputs import CapacityPoint, Drain
 
 
@@ -15,20 +17,6 @@ def read(r, atm: float) -> Drain:
     """The validated ``[drain]`` table (``r``: the unit file's reader)."""
     d = r.table("drain")
     plain = r.plain(d, "drain")
-    fill = r.quantity(d, "drain", "fill_head", q.length, default="0 in",
-                      note="height from the coil outlet down to the trap inlet, such as \"18 in\".")
-    lift = r.quantity(d, "drain", "lift", q.length, default="0 ft")
-    for key, value in (("drain.fill_head", fill), ("drain.lift", lift)):
-        if value < 0:
-            raise InputError(key, "cannot be negative; give the height as a positive length.")
-        if value > 100:
-            raise InputError(key, "is over 100 m; check the units.")
-    ret = r.quantity(d, "drain", "return_pressure", q.pressure, default="0 psig").absolute(atm)
-    check_pressure_range("drain.return_pressure", ret, d.get("return_pressure"))
-    dpmin = r.quantity(d, "drain", "trap_min_differential", q.differential, default="0 psi")
-    if dpmin < 0 or dpmin > TRAP_DIFFERENTIAL_LIMIT:
-        raise InputError("drain.trap_min_differential", f"\"{d['trap_min_differential']}\" is out of range; accepted: "
-                                                        "0 to 2 bar (0 to 29 psi).")
     capacity = []
     for section, row in r.rows(d, "drain", "capacity"):
         dp = r.quantity(row, section, "differential", q.differential)
@@ -44,8 +32,7 @@ def read(r, atm: float) -> Drain:
             raise InputError("drain.capacity", "differentials must increase from row to row.")
     if "purge_orifice" in plain and "purge_rate" in plain:
         raise InputError("drain.purge_orifice", "give either purge_orifice or purge_rate, not both.")
-    return Drain(fill_head=fill, lift=lift, return_pressure=ret, trap_min_differential=dpmin,
-                 capacity=tuple(capacity), **plain, **_pump(r, d, atm))
+    return Drain(capacity=tuple(capacity), **plain, **_pump(r, d, atm))
 
 
 def _pump(r, d: dict, atm: float) -> dict:

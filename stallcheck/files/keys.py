@@ -22,7 +22,7 @@ import re
 from dataclasses import dataclass
 
 from stallcheck.errors import InputError
-from stallcheck.files.ranges import HOURS_A_YEAR, NARROWEST_LINE
+from stallcheck.files.ranges import HOURS_A_YEAR, NARROWEST_LINE, TRAP_DIFFERENTIAL_LIMIT
 from stallcheck.inputs import ARRANGEMENTS, CHARACTERISTICS, METHODS, TRAPS
 
 
@@ -45,9 +45,10 @@ class Key:
         The range it is taken in, SI for a quantity (``low_open``, ``high_open``: the
         end itself excluded); a quantity whose range leaves out zero and below is
         refused there as "must be greater than zero".
-    default : float or str or None
-        For a plain number or words: the value taken where the file leaves it out
-        (said among the defaults taken).
+    default : float or str or tuple of str or None
+        The value taken where the file leaves the key out (said among the defaults
+        taken): for a plain number or words, the value; for a quantity, as a US file
+        and an SI file would write it (``("0 in", "0 m")``).
     measure : str
         For a quantity: what it measures, and so how it is read and written:
         ``"length"``, ``"diameter"`` (a length written in in or mm), ``"temperature"``,
@@ -74,7 +75,7 @@ class Key:
     high: float | None = None
     low_open: bool = False
     high_open: bool = False
-    default: float | str | None = None
+    default: float | str | tuple[str, str] | None = None
     measure: str = ""
     words: str = ""
     choices: tuple[str, ...] = ()
@@ -152,11 +153,16 @@ KEYS = (
     Key("drain.trap", "words", "the trade type of the trap", default="float-thermostatic", choices=TRAPS,
         plain=True),
     Key("drain.fill_head", "quantity",
-        "height from the coil outlet down to the trap inlet: more of it drains a coil at low pressure"),
-    Key("drain.lift", "quantity", "rise in the discharge after the trap, which adds to the back pressure"),
+        "height from the coil outlet down to the trap inlet: more of it drains a coil at low pressure",
+        low=0.0, high=100.0, measure="length", words="0 to 100 m (328 ft)", default=("0 in", "0 m"), plain=True),
+    Key("drain.lift", "quantity", "rise in the discharge after the trap, which adds to the back pressure",
+        low=0.0, high=100.0, measure="length", words="0 to 100 m (328 ft)", default=("0 ft", "0 m"), plain=True),
     Key("drain.return_pressure", "quantity",
-        "pressure in the return main or receiver: what the trap discharges against"),
-    Key("drain.trap_min_differential", "quantity", "smallest differential at which the trap opens"),
+        "pressure in the return main or receiver: what the trap discharges against", measure="pressure",
+        default=("0 psig", "0 barg"), plain=True),
+    Key("drain.trap_min_differential", "quantity", "smallest differential at which the trap opens", low=0.0,
+        high=TRAP_DIFFERENTIAL_LIMIT, measure="differential", words="0 to 2 bar (29 psi)",
+        default=("0 psi", "0 kPa"), plain=True),
     Key("drain.capacity", "table", "the trap's rated capacity against differential"),
     Key("drain.capacity.differential", "quantity", "a row's differential"),
     Key("drain.capacity.flow", "quantity", "a row's rated flow"),
@@ -255,6 +261,8 @@ def check_quantity(key: str, value: float, text) -> float:
     row = BY_NAME[ROW_INDEX.sub("", key)]
     if row.low is not None and (row.low > 0 or (row.low == 0 and row.low_open)) and value <= 0:
         raise InputError(key, f"must be greater than zero, got \"{text}\".")
+    if row.low == 0 and value < 0:
+        raise InputError(key, f"\"{text}\" cannot be negative; accepted: {row.words}.")
     below = row.low is not None and (value <= row.low if row.low_open else value < row.low)
     above = row.high is not None and (value >= row.high if row.high_open else value > row.high)
     if not math.isfinite(value) or below or above:

@@ -45,14 +45,6 @@ CV_PER_KV = q.CV_PER_KV
 _KNOWN = keys.known()
 
 
-#: Defaults as an SI file states them (the same zero values).
-_SI_DEFAULTS = {
-    'drain.fill_head = "0 in" (not given)': 'drain.fill_head = "0 m" (not given)',
-    'drain.lift = "0 ft" (not given)': 'drain.lift = "0 m" (not given)',
-    'drain.return_pressure = "0 psig" (not given)': 'drain.return_pressure = "0 barg" (not given)',
-    'drain.trap_min_differential = "0 psi" (not given)': 'drain.trap_min_differential = "0 kPa" (not given)',
-}
-
 #: The TOML parser's messages, in plainer words where they puzzle.
 _TOML_WORDS = {
     "Cannot overwrite a value": "a key or table is given twice",
@@ -211,7 +203,9 @@ class _Reader:
     def __init__(self, data: dict):
         self.data = data
         self.warnings: list[str] = []
-        self.defaults: list[str] = []
+        #: Defaults taken, as said (a quantity's as its key and row, said once the
+        #: file's system of units is known).
+        self.defaults: list = []
         self.us_votes = 0
         self.si_votes = 0
         #: The site's atmospheric pressure [Pa], once read: gauge pressures are made
@@ -334,10 +328,15 @@ class _Reader:
 
     def measured(self, table: dict, section: str, key: str):
         """A quantity read by its row's measure (a pressure made absolute) and held to its
-        row's range."""
+        row's range; its row's default where the file leaves it out."""
         row = keys.BY_NAME[f"{section}.{key}"]
-        full, text = f"{section}.{key}", table[key]
-        self.vote(text)
+        full = f"{section}.{key}"
+        if key in table:
+            text = table[key]
+            self.vote(text)
+        else:
+            text = row.default[0]
+            self.defaults.append((full, row))
         if row.measure == "pressure":
             value = q.pressure(full, text).absolute(self.atm)
             check_pressure_range(full, value, text)
@@ -359,7 +358,7 @@ class _Reader:
             elif row.kind == "words":
                 if row.name in table or row.default is not None or row.required:
                     out[row.name] = self.choice(table, section, row.name, row.choices, default=row.default)
-            elif row.name not in table:
+            elif row.name not in table and not (row.kind == "quantity" and row.default):
                 continue
             elif row.kind == "flag":
                 out[row.name] = self.flag(table, section, row.name)
@@ -417,8 +416,9 @@ def _build(data: dict, source: str, folder: str | Path | None = None) -> Unit:
     drain = drainkeys.read(r, atm)
     geometry = _geometry(r)
     system = "us" if r.us_votes > r.si_votes else "si"
-    if system == "si":  # defaults stated in the file's own units
-        r.defaults = [_SI_DEFAULTS.get(text, text) for text in r.defaults]
+    # a quantity's default stated as the file's own system writes it
+    r.defaults = [text if isinstance(text, str) else f"{text[0]} = \"{text[1].default[system == 'si']}\" (not given)"
+                  for text in r.defaults]
     if site.steam_price is not None and site.steam_price_per is None:
         per = "1000 lb" if system == "us" else "1 t"
         site = replace(site, steam_price_per=q.mass("site.steam_price_per", per))

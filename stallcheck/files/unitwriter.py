@@ -128,9 +128,7 @@ def dumps(unit: Unit, system: str | None = None, folder: str | Path | None = Non
                               | {"hours": number(b.hours)} for b in ld.bins])
     doc["load"] = plain("load", ld, load)
 
-    drain: dict = {"fill_head": val(dr.fill_head, "length"), "lift": val(dr.lift, "length"),
-                   "return_pressure": val(dr.return_pressure, "pressure"),
-                   "trap_min_differential": val(dr.trap_min_differential, "differential")}
+    drain: dict = {}
     if dr.pump_capacity is not None:
         drain["pump_capacity"] = val(dr.pump_capacity, "mass_flow")
     if dr.pump_table:
