@@ -17,7 +17,6 @@ from typing import Callable
 from stallcheck.errors import InputError
 from stallcheck.files import keys
 from stallcheck.files import quantities as q
-from stallcheck.files.ranges import ELEVATION_RANGE
 from stallcheck.inputs import MEDIA
 
 
@@ -258,21 +257,14 @@ def accept(question: Question, text: str, answers: dict, atmospheric: float = q.
             raise InputError(key, "is at or below freezing for a liquid; accepted: above 0 °C (32 °F).")
         return text
     if kind == "pressure":
-        p = q.pressure(key, text).absolute(atmospheric)
-        if p <= 0:
-            raise InputError(key, "is at or below absolute zero; check the sign and the gauge/absolute spelling.")
+        p = keys.check_measured(key, q.pressure(key, text).absolute(atmospheric), text)  # as a unit file holds it
         if key == "steam.supply_pressure" and "design.steam_pressure" in answers:
             coil = q.pressure(key, answers["design.steam_pressure"]).absolute(atmospheric)
             if p <= coil:
                 raise InputError(key, f"must be above the coil pressure ({answers['design.steam_pressure']}).")
         return text
-    if kind == "elevation":
-        if not ELEVATION_RANGE[0] <= q.length(key, text) <= ELEVATION_RANGE[1]:
-            raise InputError(key, "is out of range; accepted: -500 m to 9000 m (-1,640 ft to 29,527 ft).")
-        return text
-    if kind == "length":
-        if not 0.0 <= q.length(key, text) <= 100.0:   # (a bare 0 is typed as 0 in the example's unit)
-            raise InputError(key, "is out of range; accepted: 0 to 100 m.")
+    if kind in ("elevation", "length"):   # (a bare 0 length is typed as 0 in the example's unit)
+        keys.check_measured(key, q.length(key, text), text)   # the range a unit file holds it to
         return text
     raise ValueError(f"unknown question kind {kind}")
 

@@ -231,3 +231,44 @@ def test_every_key_of_the_table_is_in_the_reference_s_unit_file_section():
                if not any(f"{form}" in section for form in (f"`{row.name}`", f"] {row.name}`", f"[{row.key}]`",
                                                              f"[[{row.key}]]`", f"`[{row.key}] "))]
     assert not missing, missing
+
+
+#: Values each side of a ranged quantity that `new` asks for, with what else the unit
+#: needs for the value alone to decide (a supply above the design pressure).
+ASKED = [
+    ("site.elevation", ("7000 m", "9100 m", "-600 m"), {}),
+    ("design.steam_pressure", ("5 psig", "280 psig", "-15 psig"), {"steam": {"supply_pressure": "400 psig"}}),
+    ("steam.supply_pressure", ("15 psig", "3000 psig"), {}),
+    ("drain.fill_head", ("18 in", "-2 in", "101 m"), {}),
+    ("drain.lift", ("4 ft", "-1 ft", "400 ft"), {}),
+    ("drain.return_pressure", ("5 psig", "3000 psig", "-15 psig"), {}),
+]
+
+
+@pytest.mark.parametrize("key, values, beside", ASKED, ids=[a[0] for a in ASKED])
+def test_new_takes_a_quantity_where_a_unit_file_takes_it(key, values, beside):
+    # one range for a key, whoever reads it: each value is accepted by new's question
+    # exactly where a unit file giving it is read (and refused naming the key where not)
+    question = next(x for x in wizard.QUESTIONS if x.key == key)
+    section, name = key.split(".")
+    read = []
+    for value in values:
+        data = copy.deepcopy(BASE)
+        for table, more in beside.items():
+            data[table].update(more)
+        data[section][name] = value
+        try:
+            unitfile.from_data(data, "pellham.toml")
+            in_file = True
+        except InputError as exc:
+            assert exc.key == key, exc
+            in_file = False
+        try:
+            wizard.accept(question, value, {})
+            in_new = True
+        except InputError as exc:
+            assert exc.key == key, exc
+            in_new = False
+        assert in_new == in_file, (value, in_file)
+        read.append(in_file)
+    assert read[0] and not any(read[1:])   # the first of each inside, the others outside

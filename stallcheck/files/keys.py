@@ -22,7 +22,8 @@ import re
 from dataclasses import dataclass
 
 from stallcheck.errors import InputError
-from stallcheck.files.ranges import HOURS_A_YEAR, NARROWEST_LINE, TRAP_DIFFERENTIAL_LIMIT
+from stallcheck.files.ranges import (ELEVATION_RANGE, HOURS_A_YEAR, NARROWEST_LINE, TRAP_DIFFERENTIAL_LIMIT,
+                                     check_pressure_range)
 from stallcheck.inputs import ARRANGEMENTS, CHARACTERISTICS, METHODS, TRAPS
 
 
@@ -99,7 +100,9 @@ KEYS = (
     Key("unit.name", "words", "what the unit is called in reports"),
     Key("unit.tag", "words", "the plant's own tag for it"),
     Key("site", "table", "where the unit is"),
-    Key("site.elevation", "quantity", "sets the atmospheric pressure that gauge readings are relative to"),
+    Key("site.elevation", "quantity", "sets the atmospheric pressure that gauge readings are relative to",
+        low=ELEVATION_RANGE[0], high=ELEVATION_RANGE[1], measure="length",
+        words="-500 m to 9000 m (-1,640 ft to 29,527 ft)"),
     Key("site.atmospheric_pressure", "quantity", "the atmospheric pressure itself, absolute"),
     Key("site.hours_per_year", "number", "hours a year the unit runs, for a purge's yearly steam",
         low=0.0, high=HOURS_A_YEAR, plain=True),
@@ -115,14 +118,16 @@ KEYS = (
     Key("design.inlet_temperature", "quantity",
         "entering temperature at full load (for an outdoor-air coil, the coldest air)"),
     Key("design.outlet_temperature", "quantity", "the leaving set point the control valve holds"),
-    Key("design.steam_pressure", "quantity", "the coil pressure at full load; it fixes the coil's size"),
+    Key("design.steam_pressure", "quantity", "the coil pressure at full load; it fixes the coil's size",
+        high=2.0e6, measure="pressure", words="up to 2 MPa absolute (about 275 psig): coils on modulating valves "
+        "run far lower; check the units"),
     Key("design.ua_flow_exponent", "number", "n in UA proportional to flow to the n",
         low=0.0, high=1.0, default=0.0, plain=True),
     Key("design.method", "words", "heat transfer: ntu or mean-temperature", default="ntu", choices=METHODS,
         plain=True),
     Key("steam", "table", "the steam supply"),
     Key("steam.supply_pressure", "quantity",
-        "steam pressure ahead of the control valve, above the coil's so it can pass steam"),
+        "steam pressure ahead of the control valve, above the coil's so it can pass steam", measure="pressure"),
     Key("valve", "table", "the modulating control valve"),
     Key("valve.cv", "number", "full-travel flow coefficient, Cv", low=0.01, high=1e5),
     Key("valve.kv", "number", "full-travel flow coefficient, Kv (m³/h of water at 1 bar drop; Cv = 1.156 Kv)",
@@ -268,6 +273,16 @@ def check_quantity(key: str, value: float, text) -> float:
     if not math.isfinite(value) or below or above:
         raise InputError(key, f"\"{text}\" is out of range; accepted: {row.words}.")
     return value
+
+
+def check_measured(key: str, value: float, text) -> float:
+    """A quantity (SI; a pressure absolute) held to all its row says: a pressure to the
+    steam tables' range, and any quantity to its row's own (the unit file's reader and
+    ``new``'s questions both ask here)."""
+    row = BY_NAME[ROW_INDEX.sub("", key)]
+    if row.measure == "pressure":
+        check_pressure_range(key, value, text)
+    return check_quantity(key, value, text) if row.words or row.low is not None else value
 
 
 def plain(section: str) -> tuple[Key, ...]:

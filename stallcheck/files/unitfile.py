@@ -22,8 +22,8 @@ import tomli
 from stallcheck.errors import InputError
 from stallcheck.files import drainkeys, keys
 from stallcheck.files import quantities as q
-from stallcheck.files.ranges import (COLDEST_AIR, ELEVATION_RANGE, HOURS_A_YEAR, RETURN_AIR_RANGE,
-                                     check_pressure_range, require_positive)
+from stallcheck.files.ranges import (COLDEST_AIR, HOURS_A_YEAR, RETURN_AIR_RANGE, check_pressure_range,
+                                     require_positive)
 from stallcheck.inputs import (
     MEDIA,
     VARIES,
@@ -339,10 +339,9 @@ class _Reader:
             self.defaults.append((full, row))
         if row.measure == "pressure":
             value = q.pressure(full, text).absolute(self.atm)
-            check_pressure_range(full, value, text)
         else:
             value = _MEASURES[row.measure](full, text)
-        return keys.check_quantity(full, value, text) if row.words or row.low is not None else value
+        return keys.check_measured(full, value, text)
 
     def plain(self, table: dict, section: str) -> dict:
         """The plain keys of a section (:func:`stallcheck.files.keys.plain`), each read by
@@ -485,10 +484,7 @@ def _where(r: _Reader, site: dict | None) -> Site:
         return Site(p.pascal, pressure_given=True)
     if "elevation" in site:
         r.vote(site["elevation"])
-        z = q.length("site.elevation", site["elevation"])
-        if not ELEVATION_RANGE[0] <= z <= ELEVATION_RANGE[1]:
-            raise InputError("site.elevation", f"\"{site['elevation']}\" is out of range; accepted: -500 m to 9000 m "
-                                               f"(-1,640 ft to 29,527 ft).")
+        z = keys.check_quantity("site.elevation", q.length("site.elevation", site["elevation"]), site["elevation"])
         p = pressure_at(z)
         return Site(p, elevation=z)
 
@@ -524,10 +520,7 @@ def _design(r: _Reader, atm: float) -> Design:
                          f"\"{d['inlet_temperature']}\" is colder than any outdoor air a coil meets; accepted: "
                          f"-70 °C (-94 °F) and warmer.")
     p = r.quantity(d, "design", "steam_pressure", q.pressure).absolute(atm)
-    check_pressure_range("design.steam_pressure", p, d["steam_pressure"])
-    if p > 2.0e6:
-        raise InputError("design.steam_pressure", f"\"{d['steam_pressure']}\" is above 2 MPa (about 275 psig); "
-                                                  "coils on modulating valves run far lower. Check the units.")
+    keys.check_measured("design.steam_pressure", p, d["steam_pressure"])
     return Design(medium, concentration, flow.value, flow.is_mass, t_in, t_out, p, **r.plain(d, "design"))
 
 
