@@ -17,6 +17,7 @@ from typing import Callable
 from stallcheck.errors import InputError
 from stallcheck.files import keys
 from stallcheck.files import quantities as q
+from stallcheck.files.ranges import check_entering
 from stallcheck.inputs import MEDIA
 
 
@@ -253,8 +254,8 @@ def accept(question: Question, text: str, answers: dict, atmospheric: float = q.
             t_in = q.temperature(key, answers["design.inlet_temperature"])
             if t <= t_in:
                 raise InputError(key, f"must be above the entering temperature ({answers['design.inlet_temperature']}).")
-        if key == "design.inlet_temperature" and answers.get("design.medium", "air") != "air" and t <= 273.15:
-            raise InputError(key, "is at or below freezing for a liquid; accepted: above 0 °C (32 °F).")
+        if key == "design.inlet_temperature":   # as a unit file holds it (a glycol's, at the end, by its data)
+            check_entering(key, t, text, answers.get("design.medium", "air"))
         return text
     if kind == "pressure":
         p = keys.check_measured(key, q.pressure(key, text).absolute(atmospheric), text)  # as a unit file holds it

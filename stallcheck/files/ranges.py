@@ -51,6 +51,18 @@ def check_pressure_range(key: str, value: float, text) -> None:
                               f"IAPWS-IF97); accepted: below 19.9 MPa. Check the units.")
 
 
+def check_entering(key: str, value: float, text, medium: str) -> float:
+    """An entering temperature [K] of ``medium``: water above freezing, air no colder
+    than :data:`COLDEST_AIR` (a glycol's freezing point needs its mixture data: the
+    analysis holds it there). The unit file's reader and ``new`` both ask here."""
+    if medium == "water" and value <= 273.15:
+        raise InputError(key, f"\"{text}\" is at or below freezing for water; accepted: above 0 °C (32 °F).")
+    if medium == "air" and value < COLDEST_AIR:
+        raise InputError(key, f"\"{text}\" is colder than any outdoor air a coil meets; accepted: -70 °C (-94 °F) "
+                              f"and warmer.")
+    return value
+
+
 def require_positive(key: str, value: float, text: str = "") -> float:
     """``value``, where it is above zero; else the error naming ``key``."""
     if value <= 0:

@@ -22,8 +22,8 @@ import tomli
 from stallcheck.errors import InputError
 from stallcheck.files import drainkeys, keys
 from stallcheck.files import quantities as q
-from stallcheck.files.ranges import (COLDEST_AIR, HOURS_A_YEAR, RETURN_AIR_RANGE, check_pressure_range,
-                                     require_positive)
+from stallcheck.files.ranges import (COLDEST_AIR, HOURS_A_YEAR, RETURN_AIR_RANGE, check_entering,
+                                     check_pressure_range, require_positive)
 from stallcheck.inputs import (
     MEDIA,
     VARIES,
@@ -512,13 +512,7 @@ def _design(r: _Reader, atm: float) -> Design:
         raise InputError("design.outlet_temperature",
                          f"\"{d['outlet_temperature']}\" is not above the inlet temperature "
                          f"\"{d['inlet_temperature']}\"; a steam coil heats, so the set point must be higher.")
-    if medium == "water" and t_in <= 273.15:
-        raise InputError("design.inlet_temperature",
-                         f"\"{d['inlet_temperature']}\" is at or below freezing for water; accepted: above 0 °C.")
-    if medium == "air" and t_in < COLDEST_AIR:
-        raise InputError("design.inlet_temperature",
-                         f"\"{d['inlet_temperature']}\" is colder than any outdoor air a coil meets; accepted: "
-                         f"-70 °C (-94 °F) and warmer.")
+    check_entering("design.inlet_temperature", t_in, d["inlet_temperature"], medium)
     p = r.quantity(d, "design", "steam_pressure", q.pressure).absolute(atm)
     keys.check_measured("design.steam_pressure", p, d["steam_pressure"])
     return Design(medium, concentration, flow.value, flow.is_mass, t_in, t_out, p, **r.plain(d, "design"))
@@ -554,10 +548,7 @@ def _load(r: _Reader, design: Design, weather: bool) -> Load:
                 raise InputError(f"{section}.inlet_temperature",
                                  "is required: bins are by entering temperature where load.varies = \"inlet-temperature\".")
             t = r.quantity(b, section, "inlet_temperature", q.temperature)
-            if t < COLDEST_AIR:
-                raise InputError(f"{section}.inlet_temperature",
-                                 f"\"{b['inlet_temperature']}\" is colder than any outdoor air a coil meets; "
-                                 f"accepted: -70 °C (-94 °F) and warmer.")
+            check_entering(f"{section}.inlet_temperature", t, b["inlet_temperature"], "air")
             bins.append(LoadBin(hours=hours, inlet_temperature=t))
         else:
             if "load" not in b:
