@@ -240,13 +240,10 @@ def accept(question: Question, text: str, answers: dict, atmospheric: float = q.
             raise InputError(key, f"takes a plain number {keys.accepted(key)}.") from None
         return keys.check_number(key, value)
     if kind == "fraction":
-        value = q.fraction(key, text)
-        if not 0.0 < value <= 0.6:
-            raise InputError(key, "is out of range; accepted: above 0 % to 60 %.")
+        keys.check_measured(key, q.fraction(key, text), text)   # the range a unit file holds it to
         return text
     if kind == "flow":
-        if q.flow(key, text).value <= 0:
-            raise InputError(key, "must be greater than zero.")
+        keys.check_measured(key, q.flow(key, text).value, text)
         return text
     if kind == "temperature":
         t = q.temperature(key, text)

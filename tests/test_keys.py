@@ -240,6 +240,7 @@ ASKED = [
     ("design.steam_pressure", ("5 psig", "280 psig", "-15 psig"), {"steam": {"supply_pressure": "400 psig"}}),
     ("steam.supply_pressure", ("15 psig", "3000 psig"), {}),
     ("design.inlet_temperature", ("-40 degF", "-100 degF"), {}),
+    ("design.flow", ("5000 cfm", "0 cfm", "-5 cfm"), {}),
     ("drain.fill_head", ("18 in", "-2 in", "101 m"), {}),
     ("drain.lift", ("4 ft", "-1 ft", "400 ft"), {}),
     ("drain.return_pressure", ("5 psig", "3000 psig", "-15 psig"), {}),
@@ -282,6 +283,20 @@ def test_new_holds_an_entering_liquid_as_a_unit_file_does():
     with pytest.raises(InputError, match="freezing for water"):
         wizard.accept(question, "0 degC", {"design.medium": "water"})
     assert wizard.accept(question, "-10 degC", {"design.medium": "propylene-glycol"}) == "-10 degC"
+    share = next(x for x in wizard.QUESTIONS if x.key == "design.concentration")
+    for given, ok in (("30 %", True), ("60 %", True), ("61 %", False), ("0 %", False)):
+        if ok:
+            wizard.accept(share, given, {})
+        else:
+            with pytest.raises(InputError):
+                wizard.accept(share, given, {})
+        data = _data(keys.BY_NAME["design.concentration"])
+        data["design"]["concentration"] = given
+        if ok:
+            unitfile.from_data(data, "pellham.toml")
+        else:
+            with pytest.raises(InputError):
+                unitfile.from_data(data, "pellham.toml")
     data = copy.deepcopy(BASE)
     data["design"].update(medium="water", flow="50 gpm", inlet_temperature="0 degC", outlet_temperature="60 degC")
     data["load"] = {"varies": "flow"}

@@ -496,13 +496,12 @@ def _design(r: _Reader, atm: float) -> Design:
     if medium.endswith("glycol"):
         if "concentration" not in d:
             raise InputError("design.concentration", f"is required for {medium}: the mass fraction, such as \"30 %\".")
-        concentration = q.fraction("design.concentration", d["concentration"])
-        if not 0.0 < concentration <= 0.6:
-            raise InputError("design.concentration", f"\"{d['concentration']}\" is out of range; accepted: above 0 % to 60 %.")
+        concentration = keys.check_measured("design.concentration",
+                                            q.fraction("design.concentration", d["concentration"]), d["concentration"])
     elif "concentration" in d:
         r.warnings.append(f"design.concentration ignored: {medium} is not a glycol")
     flow = r.quantity(d, "design", "flow", q.flow)
-    require_positive("design.flow", flow.value, f", got \"{d['flow']}\"")
+    keys.check_measured("design.flow", flow.value, d["flow"])
     t_in = r.quantity(d, "design", "inlet_temperature", q.temperature)
     t_out = r.quantity(d, "design", "outlet_temperature", q.temperature)
     for key, t in (("design.inlet_temperature", t_in), ("design.outlet_temperature", t_out)):
