@@ -36,7 +36,8 @@ NEEDS = {
     "site.atmospheric_pressure": ([("site", "elevation")], {}),
     "site.steam_price_per": ([], {"site": {"steam_price": 20}}),
     "design.concentration": ([], {"design": {"medium": "propylene-glycol", "flow": "50 gpm",
-                                             "inlet_temperature": "140 degF", "outlet_temperature": "180 degF"},
+                                             "inlet_temperature": "140 degF", "outlet_temperature": "180 degF",
+                                             "steam_pressure": "5 psig"},
                                   "load": {"varies": "flow", "minimum": 0.1}, "site": {"elevation": "100 m"}}),
 }
 #: A value of the wrong kind for each kind.
