@@ -279,6 +279,13 @@ class TrapFigures:
     limit_coil_pressure, limit_differential, limit_condensate, limit_inlet_temperature :
         float or None
         At the drainage limit. [Pa], [Pa], [kg/s], [K]
+    widest_differential : float
+        The most the trap's inlet can see against the least its outlet can: the supply
+        pressure (the control valve wide open) and fill head less the return pressure
+        (the line after it still empty). [Pa]
+    rated_differential : float or None
+        The largest differential the trap opens against, from its maker, where the unit
+        file gives it (``drain.trap_max_differential``). [Pa]
     """
 
     basis: str
@@ -297,6 +304,8 @@ class TrapFigures:
     limit_differential: float | None = None
     limit_condensate: float | None = None
     limit_inlet_temperature: float | None = None
+    widest_differential: float = 0.0
+    rated_differential: float | None = None
 
     @property
     def capacity_ok(self) -> bool | None:

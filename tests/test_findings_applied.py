@@ -195,3 +195,12 @@ def test_the_trap_rating_a_trap_over_its_rating_is_told_to_fit_is_enough(system)
         text = message(analyse(drain={"trap_max_differential": rated}), "trap-differential-over-rating", system)
         printed = figure(text, "Fit a trap rated for at least", "psi|kPa|bar")
         assert found(analyse(drain={"trap_max_differential": printed}), "trap-differential-over-rating") is None
+    # one story: the trap's figures say the same most-it-can-see, SHORT, and enough once applied
+    from stallcheck.render import page, terminal
+
+    r = analyse(drain={"trap_max_differential": "10 psi"})
+    section = " ".join(page.plain(terminal.report(r, system, width=80), 80).split())
+    assert figure(section, "the most it can see", "psi|kPa|bar") == printed and "return): SHORT" in section
+    fixed = analyse(drain={"trap_max_differential": printed})
+    section = " ".join(page.plain(terminal.report(fixed, system, width=80), 80).split())
+    assert "return): enough" in section

@@ -187,6 +187,9 @@ def trap_figures(b, effective, stall, p_min, w_min, selected_limits: bool = True
     # by the fill head's gravity whenever the coil cannot discharge against the lift
     design_dp = b.design_pressure + b.fill_pressure - b.back
     design_dp = np.where([e == "pump-trap" for e in effective], np.maximum(design_dp, b.fill_pressure), design_dp)
+    # the most a trap's inlet can see: the supply with the valve wide open (start-up, a
+    # cold pull-down) and the fill head, against the return with the line after it empty
+    widest = b.supply + b.fill_pressure - b.return_pressure
     limit = _limits(b, capacity, stall, None if selected_limits else basis != "selected", breaker)
     has = np.isfinite(limit)
     at = np.where(has, limit, 0.0)
@@ -201,7 +204,8 @@ def trap_figures(b, effective, stall, p_min, w_min, selected_limits: bool = True
                        working_load=float(w_load[i]), working_condensate=float(w_flow[i]),
                        working_differential=float(w_dp[i]), selection_differential=float(sizing[i]),
                        required_capacity=float(required[i]),
-                       installed_capacity=None if basis[i] == "selected" else float(installed[i]), limit_load=None)
+                       installed_capacity=None if basis[i] == "selected" else float(installed[i]), limit_load=None,
+                       widest_differential=float(widest[i]), rated_differential=d.trap_max_differential)
         if has[i]:
             by_inlet = b.units[i].load.varies == "inlet-temperature"
             figures.update(limit_load=float(limit[i]), limit_coil_pressure=float(p_l[i]),

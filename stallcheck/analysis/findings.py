@@ -149,19 +149,14 @@ def _devices(unit: Unit, r: Result) -> list[Finding]:
                 "trap-undersized", "warning", ("",),
                 {"selection": trap.selection_differential, "installed": trap.installed_capacity,
                  "margin": trap.margin, "required": trap.required_capacity}))
-    rated = unit.drain.trap_max_differential
-    if rated is not None:
-        # the trap's inlet is the coil's pressure and its fill head; at full load it
-        # discharges against the back pressure, but with the control valve wide open
-        # (start-up, a cold pull-down) the coil nears the supply pressure while the line
-        # after the trap may still be empty: the widest differential it must open against
-        inlet = r.fill_head_pressure
-        working = r.design.coil_pressure + inlet - r.back_pressure
-        widest = r.supply_pressure + inlet - r.return_pressure
-        if rated < widest:
-            out.append(Finding("trap-differential-over-rating", "danger" if rated < working else "warning",
-                               ("", "full" if rated < working else "open", "fix"),
-                               {"rated": rated, "working": working, "widest": widest}))
+    if trap is not None and trap.rated_differential is not None and trap.rated_differential < trap.widest_differential:
+        # rated under the most its inlet can see: it stays shut when the valve opens wide,
+        # and under its full-load differential, in normal running
+        full = trap.rated_differential < trap.design_differential
+        out.append(Finding("trap-differential-over-rating", "danger" if full else "warning",
+                           ("", "full" if full else "open", "fix"),
+                           {"rated": trap.rated_differential, "working": trap.design_differential,
+                            "widest": trap.widest_differential}))
     pt = r.pump_trap
     if pt is not None and pt.installed:
         margin = pt.motive_pressure - pt.back_pressure

@@ -192,6 +192,8 @@ def _trap(r: Result):
         "required_capacity_kg_h": display.kg_h(t.required_capacity),
         "installed_capacity_kg_h": display.kg_h(t.installed_capacity),
         "capacity_ok": t.capacity_ok,
+        "widest_differential_kpa": display.kpa(t.widest_differential),
+        "rated_differential_kpa": None if t.rated_differential is None else display.kpa(t.rated_differential),
         "drainage_limit": None if t.limit_load is None else {
             "load_fraction": t.limit_load,
             "coil_pressure_kpa": display.kpa(t.limit_coil_pressure),

@@ -101,7 +101,7 @@ def markdown(unit: Unit, r: Result, system: str, version: str, date: str, pictur
     if year:
         out += ["## The site's year", "", "```text", page.plain(year[1:], 78).rstrip(), "```", ""]
 
-    out += _figures(r, show)
+    out += _figures(r, show, system)
     hammer = terminal.hammer_sections(r, system)
     if hammer:
         out += ["## Return line and surge", "", "```text", page.plain(hammer, 78).rstrip(), "```", ""]
@@ -131,8 +131,8 @@ def _sentence(clause: str) -> str:
     return clause[:1].upper() + clause[1:] + "."
 
 
-def _figures(r: Result, show) -> list[str]:
-    """Valve and drain-device figures as a table."""
+def _figures(r: Result, show, system: str) -> list[str]:
+    """Valve and drain-device figures as a table (``system``: the display units)."""
     rows = []
     v = r.valve
     if v is not None:
@@ -151,6 +151,9 @@ def _figures(r: Result, show) -> list[str]:
                      f"{show(t.selection_differential, 'differential')}"
                      + ("" if t.installed_capacity is None else
                         f"; passes {show(t.installed_capacity, 'mass_flow')} there")))
+        if t.rated_differential is not None:
+            rows.append(("Trap: rating", f"{words.trap_rating(t, system, r.atmospheric_pressure)}: "
+                         f"{'enough' if t.rated_differential >= t.widest_differential else 'SHORT'}"))
         rows.append(("Drainage limit", "none" if t.limit_load is None else f"{words.percent(t.limit_load)} load"))
     p = r.pump_trap
     if p is not None:

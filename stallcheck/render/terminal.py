@@ -217,6 +217,10 @@ def _devices(r: Result, system: str) -> list:
             select += runs(f"; it passes {w(tr.installed_capacity)} there: ",
                            ("enough", "bold green") if tr.capacity_ok else ("SHORT", "bold red"))
         parts.append(_para(select))
+        if tr.rated_differential is not None:
+            enough = tr.rated_differential >= tr.widest_differential
+            parts.append(_para(runs(f"{words.trap_rating(tr, system, atm)}: ",
+                                    ("enough", "bold green") if enough else ("SHORT", "bold red"))))
         if r.stall.valve_load_fraction is not None:
             # the valve floods the coil from that load up: no trap keeps up there
             parts.append(_para(f"the valve holds the coil under the stall pressure "

@@ -533,6 +533,14 @@ def valve_floods_at(valve_pressure: float, stall_pressure: float, valve_load: fl
             f"{valve_stall_loads(valve_load, below)}")
 
 
+def trap_rating(trap, system: str, atmospheric: float) -> str:
+    """The trap's rated differential against the most it can see, where the unit file
+    gives the rating (the finding ``trap-differential-over-rating`` says what follows)."""
+    return (f"rated to open against {display.show(trap.rated_differential, 'differential', system, atmospheric)}; "
+            f"the most it can see {safe(trap.widest_differential, 'differential', system, atmospheric, True)} (the "
+            f"supply and fill head less the return)")
+
+
 def stall_summary(s) -> str:
     """Where a unit stalls, in a few words, for one-line verdicts (``new``, ``explore``):
     the same load, rounded the same way, as the stall point section."""
