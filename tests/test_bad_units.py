@@ -32,7 +32,7 @@ def _refused(result, path: Path, key: str, says: str, line=None):
     assert str(path) in message
     if key:
         assert f"'{key}'" in message, message
-    assert says in message, message
+    assert says in message.replace(str(path), ""), message   # not in the file's own name
     if line is not None:
         assert f"line {line}" in message
     assert "Traceback" not in result.output
@@ -59,7 +59,7 @@ def test_survey_names_every_bad_file_and_goes_on(tmp_path):
     assert named == {f.name for f in FILES}
     for e in errors:
         expected = EXPECTED[Path(e["source"]).name]
-        assert expected["says"] in e["message"]
+        assert expected["says"] in e["message"].replace(e["source"], "")
     assert "Traceback" not in result.output
 
 

@@ -196,7 +196,7 @@ def test_a_plain_quantity_is_read_in_its_range_and_refused_outside_naming_its_ke
     data[section][name] = outside
     with pytest.raises(InputError) as err:
         unitfile.from_data(data, "pellham.toml")
-    assert err.value.key == key
+    assert err.value.key == key and f'"{outside}"' in err.value.message   # the value as written, quoted
     assert any(said in err.value.message for said in ("out of range", "greater than zero", "critical pressure",
                                                       "cannot be negative"))
 
@@ -304,3 +304,15 @@ def test_new_holds_an_entering_liquid_as_a_unit_file_does():
     data["site"].pop("weather")
     with pytest.raises(InputError, match="freezing for water"):
         unitfile.from_data(data, "pellham.toml")
+
+
+def test_a_plain_number_s_range_is_said_as_the_contract_gives_it():
+    # the unit-file contract (shared/unit-file.md, README): the minimum load from 0 to
+    # below 1, a rangeability above 1, xt above 0 to 1; a message says the range so
+    for key, value, said in (("load.minimum", 1.0, "from 0 below 1"), ("valve.rangeability", 1.0, "above 1 to 1000"),
+                             ("valve.xt", 0.0, "above 0 to 1")):
+        section, name = key.split(".")
+        data = copy.deepcopy(BASE)
+        data[section][name] = value
+        with pytest.raises(InputError, match=said):
+            unitfile.from_data(data, "pellham.toml")

@@ -263,9 +263,9 @@ def accepted(key: str) -> str:
 
 
 def check_quantity(key: str, value: float, text) -> float:
-    """A quantity (SI) held to its row's range; InputError naming ``key`` (its row, or a
-    row of an array of tables, ``"load.bins[2].load"``) where it is outside."""
-    row = BY_NAME[ROW_INDEX.sub("", key)]
+    """A quantity (SI) held to its row's range; InputError naming ``key`` where it is
+    outside."""
+    row = BY_NAME[key]
     if row.low is not None and (row.low > 0 or (row.low == 0 and row.low_open)) and value <= 0:
         raise InputError(key, f"must be greater than zero, got \"{text}\".")
     if row.low == 0 and value < 0:
@@ -281,10 +281,9 @@ def check_measured(key: str, value: float, text) -> float:
     """A quantity (SI; a pressure absolute) held to all its row says: a pressure to the
     steam tables' range, and any quantity to its row's own (the unit file's reader and
     ``new``'s questions both ask here)."""
-    row = BY_NAME[ROW_INDEX.sub("", key)]
-    if row.measure == "pressure":
+    if BY_NAME[key].measure == "pressure":
         check_pressure_range(key, value, text)
-    return check_quantity(key, value, text) if row.words or row.low is not None else value
+    return check_quantity(key, value, text)
 
 
 def plain(section: str) -> tuple[Key, ...]:
