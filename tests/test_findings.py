@@ -399,7 +399,7 @@ def test_return_line_slug_flow_in_a_small_pumped_line():
     f = found(r, "return-line-slug-flow")
     assert f is not None and f.severity == "warning"
     assert f.facts["bore"] == pytest.approx(0.5 * INCH)
-    assert f.facts["stratified"] > f.facts["bore"]
+    assert f.facts["stratified"] > f.facts["bore"] and f.parts == ("", "size")   # with the bore that stratifies
 
 
 def test_lift_slug_flow_up_a_riser_after_a_plain_trap():
@@ -581,6 +581,11 @@ def test_a_station_more_than_50_m_from_the_sites_elevation_is_noted(side):
     assert (f is not None) == (side > 1)
     if f is not None:
         assert f.severity == "info" and f.parts[1] == "given" and f.facts["station"] == station
+        # the pressure it moves, by the standard atmosphere by hand (ISO 2533:
+        # p = 101325·(1 − 2.25577e-5·z)^5.25588 Pa)
+        def iso(z):
+            return 101325.0 * (1.0 - 2.25577e-5 * z) ** 5.25588
+        assert f.facts["dp"] == pytest.approx(iso(station - side * 50.0) - iso(station), rel=1e-4)
     # no elevation given: sea level is taken, 273 m off
     bare = found(analyse(site={"weather": GREENSBORO}), "site-elevation-differs")
     assert bare is not None and bare.parts[1] == "none"
@@ -614,3 +619,80 @@ def test_a_warm_selection_the_schedule_keeps_from_the_cold_hours_is_information(
                 load={"season": "Apr-Oct", "minimum": 0.0})
     f = found(r, "design-warmer-than-site")
     assert f is not None and f.severity == "info" and f.parts[-1] == "why-none" and f.facts["hours"] == 0
+
+
+# --- branches a mutation run of findings.py found untested -------------------------------
+
+def test_freeze_risk_of_an_air_coil_whose_flow_varies_quotes_its_design_air():
+    # With the flow varying the entering air is the design's at every load (the load
+    # definition), so a coil stalling in its range floods with 0 °F air across it:
+    # danger with a plain trap; information, and the drained words, with a pump-trap.
+    r = analyse(load={"varies": "flow", "minimum": 0.2}, drain={"lift": "8 ft"})
+    f = found(r, "freeze-risk")
+    assert f is not None and f.severity == "danger" and f.parts[:3] == ("", "design", "why")
+    assert f.facts["inlet"] == pytest.approx(f_to_k(0.0)) and f.parts[-1] == "drain"
+    drained = found(analyse(load={"varies": "flow", "minimum": 0.2}, drain=PUMP), "freeze-risk")
+    assert drained is not None and drained.severity == "info" and drained.parts[-1] == "drained"
+    # entering at 40 °F: no freezing air at any load
+    assert found(analyse(load={"varies": "flow", "minimum": 0.2}, design={"inlet_temperature": "40 degF"},
+                         drain={"lift": "8 ft"}), "freeze-risk") is None
+
+
+def test_freeze_risk_of_a_valve_flooded_coil_drained_by_a_pump_trap_is_information():
+    # the too-small valve floods the coil in the coldest air (the valve part), but the
+    # pump-trap installed drains it whatever the coil pressure: information, drained
+    r = analyse(valve={"cv": 5}, load={"minimum": 0.2}, drain=PUMP)
+    f = found(r, "freeze-risk")
+    assert f is not None and f.severity == "info" and "valve" in f.parts and f.parts[-1] == "drained"
+    flooded = found(analyse(valve={"cv": 5}, load={"minimum": 0.2}), "freeze-risk")
+    assert flooded.severity == "danger" and flooded.parts[-1] == "drain"
+
+
+def test_trap_capacity_short_on_a_coil_that_never_stalls_says_no_stall():
+    # water heated from 80 °C to 120 °C on 5 barg steam, the flow varying: at no flow
+    # the coil still holds steam at 120 °C, about 1 bar gauge (IF97), above the open
+    # return, so it never stalls; the small table falls short all the same: the finding
+    # without the stall's words
+    design = {"medium": "water", "flow": "20 gpm", "inlet_temperature": "80 degC", "outlet_temperature": "120 degC",
+              "steam_pressure": "5 barg"}
+    r = analyse(design=design, steam={"supply_pressure": "7 barg"}, load={"varies": "flow", "minimum": 0.0},
+                drain={"capacity": SMALL_TABLE})
+    assert IAPWS97(T=393.15, x=0).P * 1e6 > ATM and not r.stall.occurs
+    f = found(r, "trap-capacity-short")
+    assert f is not None and f.parts == ("", "fix")
+
+
+def test_pump_trap_motive_from_the_supply_below_the_back_pressure_is_a_danger():
+    # no motive pressure given: the 6 psig supply is taken, under the 20 ft lift's
+    # 8.7 psi of water (ρ·g·h, IF97 at 1 atm): no margin at all
+    r = analyse(steam={"supply_pressure": "6 psig"}, drain={"arrangement": "pump-trap", "lift": "20 ft"})
+    f = found(r, "pump-trap-motive-low")
+    assert 20 * FT * rho_liquid(ATM) * G > 6 * PSI
+    assert f is not None and f.severity == "danger" and "supply" in f.parts and f.facts["margin"] == 0.0
+
+
+def test_findings_are_listed_worst_first():
+    # a unit with a danger, warnings and information at once
+    r = analyse(drain={"lift": "8 ft"}, valve={"cv": 80})
+    order = [f.severity for f in r.findings]
+    assert {"danger", "warning", "info"} <= set(order)
+    assert order == sorted(order, key=["danger", "warning", "info"].index)
+
+
+def test_the_base_coil_raises_none_of_the_rules_for_other_coils():
+    # the invented base coil (ntu, a valve sized for it, a plain trap with 18 in of fill
+    # head into an open return): none of the findings its scenarios above raise by a change
+    codes = {f.code for f in analyse().findings}
+    assert not codes & {"method-below-set-point", "valve-oversized", "valve-too-small", "trap-capacity-short",
+                        "pump-trap-motive-low", "hydraulic-shock", "trap-differential-over-rating"}, codes
+
+
+def test_hydraulic_shock_of_a_column_stopped_up_a_lift_says_so_and_the_flash():
+    # a 40 psig coil's plain trap lifting 8 ft through 100 ft of 1/2 in line rated
+    # 15 psig: the column the trap stops (not a pump-trap's check valve, the case
+    # above), with the flash that drives it
+    r = analyse(steam={"supply_pressure": "60 psig"}, design={"steam_pressure": "40 psig"},
+                drain={"lift": "8 ft", "return_line": "0.5 in", "return_length": "100 ft",
+                       "return_rating": "15 psig"})
+    column = found(r, "hydraulic-shock")
+    assert column is not None and "column" in column.parts and "flash" in column.parts

@@ -122,7 +122,7 @@ def core(unit: Unit, r: Result) -> tuple[Finding, ...]:
     if r.set_point_floor_load > 0:
         out.append(Finding("method-below-set-point", "info", ("",),
                            {"load": r.set_point_floor_load, "set_point": unit.design.outlet_temperature}))
-    out.extend(_devices(unit, r))
+    out.extend(_devices(r))
     out.extend(_return_line(unit, r))
     out.extend(layout.rules(unit, r))
     out.extend(_climate(unit, r))
@@ -130,7 +130,7 @@ def core(unit: Unit, r: Result) -> tuple[Finding, ...]:
     return tuple(sorted(out, key=lambda f: order[f.severity]))
 
 
-def _devices(unit: Unit, r: Result) -> list[Finding]:
+def _devices(r: Result) -> list[Finding]:
     """Findings on the trap, pump-trap, purge and return line."""
     out: list[Finding] = []
     trap = r.trap
