@@ -89,7 +89,7 @@ def test_stall_at_full_load_where_the_return_is_above_the_design_coil_pressure()
     # at every load. 8 psig return against a 5 psig coil; gauge + 14.696 psi = absolute.
     r = analyse(drain={"return_pressure": "8 psig"})
     f = found(r, "stall-at-full-load")
-    assert f is not None and f.severity == "danger"
+    assert f is not None and f.severity == "danger" and f.parts == ("", "fit")   # what to fit, not "handled"
     assert f.facts["back"] == pytest.approx(ATM + 8 * PSI, rel=1e-9)
     assert f.facts["design"] == pytest.approx(ATM + 5 * PSI, rel=1e-9)
     inadequate = found(r, "drainage-inadequate")
@@ -114,7 +114,7 @@ def test_stall_in_operating_range_sits_where_coil_and_fill_head_meet_the_back_pr
     # ρ of saturated water at the return pressure (IF97).
     r = analyse(drain={"lift": "8 ft"})
     f = found(r, "stall-in-operating-range")
-    assert f is not None and f.severity == "warning"
+    assert f is not None and f.severity == "warning" and f.parts[-1] == "drain"
     stall = ATM + rho_liquid(ATM) * G * (8 * FT - 18 * INCH)
     assert f.facts["coil"] == pytest.approx(stall, rel=1e-6)
     assert f.facts["installed"] == "trap" and f.facts["required"] == "pump-trap"
@@ -696,3 +696,30 @@ def test_hydraulic_shock_of_a_column_stopped_up_a_lift_says_so_and_the_flash():
                        "return_rating": "15 psig"})
     column = found(r, "hydraulic-shock")
     assert column is not None and "column" in column.parts and "flash" in column.parts
+
+
+def test_freeze_risk_counts_the_bins_hours_in_freezing_air_above_the_stall():
+    # the load bins' hours with the air entering below freezing and at or above the stall
+    # point's entering temperature (where the coil floods), by hand
+    bins = [(-5, 100), (10, 200), (20, 300), (28, 250), (40, 400)]
+    r = analyse(drain={"lift": "8 ft"}, load={"minimum": 0.0, "bins": [
+        {"inlet_temperature": f"{t} degF", "hours": h} for t, h in bins]})
+    f = found(r, "freeze-risk")
+    assert f is not None and "hours" in f.parts
+    t_stall = r.stall.inlet_temperature
+    assert f.facts["hours"] == sum(h for t, h in bins if t_stall <= f_to_k(t) < 273.15) > 0
+
+
+def test_freeze_risk_of_a_valve_flooded_coil_counts_the_weather_year_s_hours():
+    # the too-small valve floods the coil from its load up, in the coldest air, and the
+    # coil stalls by the stall rule in the mildest: with the Greensboro year (all year,
+    # all day), the hours below freezing in either span, by hand from the file. At fixed
+    # air flow the air entering at load f is 55 °F − f·55 °F (the load definition).
+    site = {"weather": GREENSBORO, "elevation": "273 m"}
+    r = analyse(site=site, valve={"cv": 5}, load={"minimum": 0.0})
+    f = found(r, "freeze-risk")
+    assert f is not None and "valve" in f.parts and "year" in f.parts
+    hours, _ = greensboro_hours()
+    mildest = r.stall.inlet_temperature - 273.15
+    coldest = (55.0 - r.stall.valve_load_fraction * 55.0 - 32.0) / 1.8
+    assert f.facts["hours"] == sum(1 for t in hours if t < 0.0 and (t >= mildest or t <= coldest)) > 0
