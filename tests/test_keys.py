@@ -316,3 +316,23 @@ def test_a_plain_number_s_range_is_said_as_the_contract_gives_it():
         data[section][name] = value
         with pytest.raises(InputError, match=said):
             unitfile.from_data(data, "pellham.toml")
+
+
+def test_free_words_and_whole_numbers_are_held_to_their_rows_ends():
+    # a currency up to 12 characters ("USD", or a longer name); coils per trap 1 to 1000
+    for value, ok in (("x" * 12, True), ("x" * 13, False)):
+        data = copy.deepcopy(BASE)
+        data["site"].update(currency=value, steam_price=20)
+        if ok:
+            assert unitfile.from_data(data, "pellham.toml").site.currency == value
+        else:
+            with pytest.raises(InputError, match="short text such as"):
+                unitfile.from_data(data, "pellham.toml")
+    for value, ok in ((1, True), (1000, True), (1001, False), (0, False)):
+        data = copy.deepcopy(BASE)
+        data["geometry"]["coils_per_trap"] = value
+        if ok:
+            assert unitfile.from_data(data, "pellham.toml").geometry.coils_per_trap == value
+        else:
+            with pytest.raises(InputError, match="whole number from 1 to 1000"):
+                unitfile.from_data(data, "pellham.toml")

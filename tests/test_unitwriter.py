@@ -137,3 +137,126 @@ def test_a_unit_saved_in_another_folder_still_names_its_weather_file(tmp_path):
         again = unitfile.load(saved)
         assert again.site.weather.resolved == original.site.weather.resolved
         assert not Path(again.site.weather.path).is_absolute()
+
+
+#: Two units that give, between them, every key the samples leave out: an atmospheric
+#: pressure, a steam price, a Kv, mixed air on a weather year with a season and hours,
+#: a capacity table, a pump-trap table; a mass flow whose flow varies, bins by load, a
+#: purge's rate, every layout key.
+EVERY_KEY = ['''
+format = 1
+[unit]
+name = "Quarry Lane AHU-3 preheat"
+tag = "AHU-3"
+[site]
+atmospheric_pressure = "98.5 kPaa"
+weather = "{weather}"
+hours_per_year = 4000
+steam_price = 18.5
+steam_price_per = "1000 lb"
+currency = "USD"
+[design]
+medium = "air"
+flow = "9000 cfm"
+inlet_temperature = "10 degF"
+outlet_temperature = "55 degF"
+steam_pressure = "6 psig"
+ua_flow_exponent = 0.8
+method = "mean-temperature"
+[steam]
+supply_pressure = "15 psig"
+[valve]
+kv = 15
+characteristic = "linear"
+rangeability = 30
+xt = 0.6
+[load]
+minimum = 0.1
+outdoor_air_minimum = 0.3
+return_air_temperature = "68 degF"
+mixed_air_temperature = "50 degF"
+season = "Oct-Apr"
+daily_hours = "06:00-22:00"
+[drain]
+arrangement = "pump-trap"
+trap = "inverted-bucket"
+fill_head = "20 in"
+lift = "10 ft"
+return_pressure = "2 psig"
+trap_min_differential = "0.25 psi"
+trap_max_differential = "30 psi"
+capacity_margin = 2.5
+motive_pressure = "60 psig"
+pump_fill_head = "12 in"
+[[drain.capacity]]
+differential = "0.25 psi"
+flow = "700 lb/h"
+[[drain.capacity]]
+differential = "5 psi"
+flow = "2400 lb/h"
+[[drain.pump_capacity]]
+back_pressure = "5 psig"
+flow = "3000 lb/h"
+[[drain.pump_capacity]]
+back_pressure = "15 psig"
+flow = "2200 lb/h"
+''', '''
+format = 1
+[unit]
+name = "Quarry Lane HX-2"
+[site]
+elevation = "300 m"
+[design]
+medium = "ethylene-glycol"
+concentration = "35 %"
+flow = "9000 kg/h"
+inlet_temperature = "40 degC"
+outlet_temperature = "70 degC"
+steam_pressure = "1.5 barg"
+[steam]
+supply_pressure = "4 barg"
+[valve]
+cv = 9.5
+characteristic = "equal-percentage"
+[load]
+varies = "flow"
+minimum = 0.2
+[[load.bins]]
+load = 0.4
+hours = 3000
+[[load.bins]]
+load = 0.9
+hours = 1200
+[drain]
+arrangement = "constant-purge"
+trap = "float-thermostatic"
+fill_head = "0.4 m"
+purge_rate = "6 kg/h"
+trap_orifice = "9 mm"
+[geometry]
+tubes = "vertical"
+supply_feed = "end"
+distributing_tubes = true
+pitched_to_return = true
+coils_per_trap = 1
+drop_to_trap = "0.6 m"
+drop_vented = true
+drip_before_valve = true
+''']
+
+
+@pytest.mark.parametrize("system", ["us", "si"])
+@pytest.mark.parametrize("which", [0, 1])
+def test_a_unit_giving_every_key_reads_back_the_same(which, system):
+    from conftest import ROOT
+
+    weather = ROOT / "sample_units" / "weather" / "greensboro_723170_tmy3_drybulb.csv"
+    unit = unitfile.parse(EVERY_KEY[which].replace("{weather}", str(weather)), "quarry.toml")
+    again = unitfile.parse(unitwriter.dumps(unit, system), "written.toml")
+    a, b = asdict(unit), asdict(again)
+    for key in ("source", "defaults", "warnings", "system"):
+        a.pop(key), b.pop(key)
+    a["site"].pop("weather"), b["site"].pop("weather")
+    _close(a, b)
+    # the keys the file gave are the written file's too, none left to a default
+    assert not [d for d in again.defaults if d.split(" =")[0] not in {x.split(" =")[0] for x in unit.defaults}]
