@@ -249,13 +249,12 @@ class _Reader:
         else:
             self.si_votes += 1
 
-    def quantity(self, table: dict, section: str, key: str, parse, default=None, note: str = ""):
+    def quantity(self, table: dict, section: str, key: str, parse):
+        """A quantity the file must give, read by ``parse`` (plain keys, with their
+        defaults, are read by :meth:`measured`)."""
         full = f"{section}.{key}"
         if key not in table:
-            if default is None:
-                raise InputError(full, f"is required; {note or 'see the README for its units.'}")
-            self.defaults.append(f"{full} = \"{default}\" (not given)")
-            return parse(full, default)
+            raise InputError(full, "is required; see the README for its units.")
         self.vote(table[key])
         return parse(full, table[key])
 
