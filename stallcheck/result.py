@@ -736,6 +736,8 @@ class Result:
     ``name`` is the unit's name (the contract's ``unit``). Pressures [Pa] absolute;
     ``back_pressure`` is return pressure plus the lift head, ``fill_head_pressure`` the
     head of the fill height [Pa]; ``lift`` and ``fill_head`` are heights [m].
+    ``cautions`` are codes (:data:`CAUTIONS`, :data:`YEAR_CAUTION`), said in words by
+    :func:`stallcheck.render.words.cautions`.
     """
 
     name: str
