@@ -20,6 +20,7 @@ from __future__ import annotations
 import math
 import re
 from dataclasses import dataclass
+from functools import cached_property
 
 from stallcheck.errors import InputError
 from stallcheck.files.ranges import (ELEVATION_RANGE, HOURS_A_YEAR, NARROWEST_LINE, TRAP_DIFFERENTIAL_LIMIT,
@@ -83,12 +84,12 @@ class Key:
     required: bool = False
     plain: bool = False
 
-    @property
+    @cached_property
     def section(self) -> str:
         """The section the key is written in (``""``: the top level)."""
         return self.key.rpartition(".")[0]
 
-    @property
+    @cached_property
     def name(self) -> str:
         """The key's own name, and its field's on the section's record."""
         return self.key.rpartition(".")[2]
@@ -287,6 +288,13 @@ def check_measured(key: str, value: float, text) -> float:
     return check_quantity(key, value, text)
 
 
+#: The plain rows of each section, in the table's order (read for every unit a survey reads).
+_PLAIN: dict[str, tuple[Key, ...]] = {}
+for _row in KEYS:
+    if _row.plain:
+        _PLAIN[_row.section] = _PLAIN.get(_row.section, ()) + (_row,)
+
+
 def plain(section: str) -> tuple[Key, ...]:
     """The plain rows of a section, in the table's order."""
-    return tuple(row for row in KEYS if row.plain and row.section == section)
+    return _PLAIN.get(section, ())
