@@ -90,6 +90,11 @@ class Key:
         return self.key.rpartition(".")[0]
 
     @cached_property
+    def taken(self) -> bool:
+        """Read where the file leaves it out: a default taken, or the key required."""
+        return self.default is not None or self.required
+
+    @cached_property
     def name(self) -> str:
         """The key's own name, and its field's on the section's record."""
         return self.key.rpartition(".")[2]
@@ -268,15 +273,15 @@ def check_quantity(key: str, value: float, text) -> float:
     """A quantity (SI) held to its row's range; InputError naming ``key`` where it is
     outside."""
     row = BY_NAME[key]
-    if row.low is not None and (row.low > 0 or (row.low == 0 and row.low_open)) and value <= 0:
+    low, high = row.low, row.high
+    if math.isfinite(value) and (low is None or (value > low if row.low_open else value >= low)) and (
+            high is None or (value < high if row.high_open else value <= high)):
+        return value
+    if low is not None and (low > 0 or (low == 0 and row.low_open)) and value <= 0:
         raise InputError(key, f"must be greater than zero, got \"{text}\".")
-    if row.low == 0 and value < 0:
+    if low == 0 and value < 0:
         raise InputError(key, f"\"{text}\" cannot be negative; accepted: {row.words}.")
-    below = row.low is not None and (value <= row.low if row.low_open else value < row.low)
-    above = row.high is not None and (value >= row.high if row.high_open else value > row.high)
-    if not math.isfinite(value) or below or above:
-        raise InputError(key, f"\"{text}\" is out of range; accepted: {row.words}.")
-    return value
+    raise InputError(key, f"\"{text}\" is out of range; accepted: {row.words}.")
 
 
 def check_measured(key: str, value: float, text) -> float:

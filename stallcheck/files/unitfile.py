@@ -279,12 +279,14 @@ class _Reader:
             raise InputError(full, f"'{value}' is not one of: {', '.join(choices)}.{hint}")
         return value
 
-    def number(self, table: dict, section: str, key: str):
+    def number(self, table: dict, section: str, key: str, row=None):
         """A plain number, held to its row's range in the key table (a row of an array of
-        tables, ``load.bins[2]``, by the table's row ``load.bins.hours``); its default
-        where the file leaves it out (required where the row has none)."""
+        tables, ``load.bins[2]``, by the table's row ``load.bins.hours``; ``row``, where
+        the caller has it); its default where the file leaves it out (required where
+        the row has none)."""
         full = f"{section}.{key}"
-        row = keys.BY_NAME[keys.ROW_INDEX.sub("", section) + "." + key]
+        if row is None:
+            row = keys.BY_NAME[keys.ROW_INDEX.sub("", section) + "." + key]
         if key not in table:
             if row.default is None:
                 raise InputError(full, f"is required: a plain number {keys.accepted(row.key)}.")
@@ -308,62 +310,52 @@ class _Reader:
             raise InputError(f"{section}.{key}", f"takes true or false, got {value!r}.")
         return value
 
-    def text(self, table: dict, section: str, key: str) -> str:
+    def text(self, table: dict, row) -> str:
         """Free words, up to their row's length, the ends' spaces dropped."""
-        row = keys.BY_NAME[f"{section}.{key}"]
-        value = table[key]
+        value = table[row.name]
         if not isinstance(value, str) or len(value) > row.high:
-            raise InputError(f"{section}.{key}", f"takes {row.words}.")
+            raise InputError(row.key, f"takes {row.words}.")
         return value.strip()
 
-    def whole(self, table: dict, section: str, key: str) -> int:
+    def whole(self, table: dict, row) -> int:
         """A whole number, held to its row's range."""
-        row = keys.BY_NAME[f"{section}.{key}"]
-        value = table[key]
+        value = table[row.name]
         if isinstance(value, bool) or not isinstance(value, int) or not row.low <= value <= row.high:
-            raise InputError(f"{section}.{key}", f"takes a whole number from {row.low:g} to {row.high:g}, "
-                                                 f"got {value!r}.")
+            raise InputError(row.key, f"takes a whole number from {row.low:g} to {row.high:g}, got {value!r}.")
         return value
 
-    def measured(self, table: dict, section: str, key: str):
+    def measured(self, table: dict, row):
         """A quantity read by its row's measure (a pressure made absolute) and held to its
         row's range; its row's default where the file leaves it out."""
-        row = keys.BY_NAME[f"{section}.{key}"]
-        full = f"{section}.{key}"
-        if key in table:
-            text = table[key]
+        if row.name in table:
+            text = table[row.name]
             self.vote(text)
         else:
             text = row.default[0]
-            self.defaults.append((full, row))
+            self.defaults.append((row.key, row))
         if row.measure == "pressure":
-            value = q.pressure(full, text).absolute(self.atm)
+            value = q.pressure(row.key, text).absolute(self.atm)
         else:
-            value = _MEASURES[row.measure](full, text)
-        return keys.check_measured(full, value, text)
+            value = _MEASURES[row.measure](row.key, text)
+        return keys.check_measured(row.key, value, text)
 
     def plain(self, table: dict, section: str) -> dict:
         """The plain keys of a section (:func:`stallcheck.files.keys.plain`), each read by
         its row into the record's field of its name: given, defaulted, or left out."""
         out: dict = {}
         for row in keys.plain(section):
-            if row.kind == "number":
-                if row.name in table or row.default is not None or row.required:
-                    out[row.name] = self.number(table, section, row.name)
-            elif row.kind == "words" and not row.choices:
-                if row.name in table:
-                    out[row.name] = self.text(table, section, row.name)
-            elif row.kind == "words":
-                if row.name in table or row.default is not None or row.required:
-                    out[row.name] = self.choice(table, section, row.name, row.choices, default=row.default)
-            elif row.name not in table and not (row.kind == "quantity" and row.default):
+            name, kind = row.name, row.kind
+            if name not in table and not row.taken:
                 continue
-            elif row.kind == "flag":
-                out[row.name] = self.flag(table, section, row.name)
-            elif row.kind == "whole":
-                out[row.name] = self.whole(table, section, row.name)
+            if kind == "number":
+                out[name] = self.number(table, section, name, row)
+            elif kind == "quantity":
+                out[name] = self.measured(table, row)
+            elif kind == "words":
+                out[name] = (self.choice(table, section, name, row.choices, default=row.default) if row.choices
+                             else self.text(table, row))
             else:
-                out[row.name] = self.measured(table, section, row.name)
+                out[name] = self.flag(table, section, name) if kind == "flag" else self.whole(table, row)
         return out
 
 
