@@ -172,7 +172,7 @@ FINDINGS: dict[str, dict[str, str]] = {
             "Select a larger trap on its hot-condensate rating.",
     },
     "trap-differential-over-rating": {
-        "": "The trap opens against at most {rated:differential} (its maker's rating), ",
+        "": "The trap opens against at most {rated:differential-} (its maker's rating), ",
         "full": "less than the {working:differential+} across it at full load: its valve stays shut and the coil "
                 "floods in normal running. ",
         "open": "less than the {widest:differential+} across it with the control valve wide open (start-up, a "
@@ -536,7 +536,7 @@ def valve_floods_at(valve_pressure: float, stall_pressure: float, valve_load: fl
 def trap_rating(trap, system: str, atmospheric: float) -> str:
     """The trap's rated differential against the most it can see, where the unit file
     gives the rating (the finding ``trap-differential-over-rating`` says what follows)."""
-    return (f"rated to open against {display.show(trap.rated_differential, 'differential', system, atmospheric)}; "
+    return (f"rated to open against {safe(trap.rated_differential, 'differential', system, atmospheric, False)}; "
             f"the most it can see {safe(trap.widest_differential, 'differential', system, atmospheric, True)} (the "
             f"supply and fill head less the return)")
 
