@@ -21,6 +21,12 @@ CAUTIONS = ("screening-aid", "steam-hazard")
 YEAR_CAUTION = "typical-year"
 
 
+def caution_codes(weather: bool) -> tuple[str, ...]:
+    """The cautions of a result (or of a survey): every page's, and a typical year's
+    where hours come from a weather year."""
+    return CAUTIONS + ((YEAR_CAUTION,) if weather else ())
+
+
 
 @dataclass(frozen=True)
 class Finding:

@@ -30,7 +30,7 @@ from stallcheck.analysis import devices
 from stallcheck.physics import drainage, properties
 from stallcheck.physics import valve as valvemod
 from stallcheck.physics.solve import illinois
-from stallcheck.result import (CAUTIONS, YEAR_CAUTION, Basis, DesignPoint, Drainage, Points, Remedy, Result,
+from stallcheck.result import (Basis, DesignPoint, Drainage, Points, Remedy, Result, caution_codes,
                                StallPoint, ValveResult)
 
 #: Specific heat of air [J/(kg·K)] (the unit-file conventions).
@@ -396,7 +396,7 @@ def _analyse(units: list[Unit], systems: list[str], tabulate: bool = True, compl
             total_hours=total_hours, drainage=drains[i], valve=valves[i], findings=(),
             basis=_basis(u, bool(clipped[i])) if complete else None, trap=traps[i],
             pump_trap=pump, purge=purge, flash=flashes[i], remedies=fixes[i], warnings=u.warnings, return_line=line,
-            surge=shock, year=year, cautions=CAUTIONS + ((YEAR_CAUTION,) if year is not None else ()),
+            surge=shock, year=year, cautions=caution_codes(year is not None),
             set_point_floor_load=float(floor_load[i]))
         # The rules read the finished result; their findings complete it before anyone
         # else sees it (set in place: a copy of every result costs a survey 10 % more).

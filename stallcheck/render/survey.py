@@ -11,7 +11,7 @@ from stallcheck.errors import printable
 from stallcheck.files import display
 from stallcheck.render import json as json_out
 from stallcheck.render import words
-from stallcheck.result import CAUTIONS, YEAR_CAUTION
+from stallcheck.result import CAUTIONS, caution_codes
 
 SEVERITY_STYLE = {"danger": "bold red", "warning": "yellow", "info": "cyan"}
 
@@ -93,7 +93,7 @@ def _count(summaries: list[Summary], failures: list[Failure], system: str | None
     if failures:
         out.append((f"{len(failures):,} could not be read: see the messages on stderr", "bold red"))
     # the cautions every page carries, and a typical year's where any unit's hours come from one
-    codes = CAUTIONS + ((YEAR_CAUTION,) if any(s.hours_from == "weather" for s in summaries) else ())
+    codes = caution_codes(any(s.hours_from == "weather" for s in summaries))
     out.extend((f"Caution: {text}", "dim") for text in words.cautions(codes))
     return out
 
